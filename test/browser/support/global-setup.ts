@@ -1,0 +1,5 @@
+import { startStack } from './stack';
+
+export default async function globalSetup(): Promise<void> {
+  await startStack();
+}
