@@ -1,0 +1,128 @@
+import { z } from 'zod';
+import { listQuery, pageOf } from '../paging';
+import { UserRefSchema } from './refs';
+import { MethodSettingsSchema } from './libraries';
+
+export const VERDICTS = ['consistent', 'inconclusive', 'not-consistent', 'no-verdict'] as const;
+export const VerdictSchema = z.enum(VERDICTS);
+export type Verdict = z.infer<typeof VerdictSchema>;
+
+export const ANALYSIS_STATUSES = ['draft', 'submitted', 'approved', 'returned', 'superseded'] as const;
+export const AnalysisStatusSchema = z.enum(ANALYSIS_STATUSES);
+export type AnalysisStatus = z.infer<typeof AnalysisStatusSchema>;
+
+export const RunAnalysisSchema = z.object({ libraryVersionId: z.uuid() });
+export type RunAnalysis = z.infer<typeof RunAnalysisSchema>;
+
+export const LotDistanceSchema = z.object({ lotId: z.uuid(), lotCode: z.string(), distance: z.number() });
+export type LotDistance = z.infer<typeof LotDistanceSchema>;
+
+export const QualityFlagSchema = z.object({
+  code: z.enum([
+    'kk-failed',
+    'poor-replicate-agreement',
+    'band-not-covered',
+    'too-few-replicates',
+    'too-few-lots',
+    'fit-poor',
+  ]),
+  severity: z.enum(['warning', 'blocking']),
+  message: z.string(),
+});
+export type QualityFlag = z.infer<typeof QualityFlagSchema>;
+
+export const FittedParameterSchema = z.object({
+  name: z.string(),
+  value: z.number(),
+  standardError: z.number().nullable(),
+  unit: z.string(),
+});
+export type FittedParameter = z.infer<typeof FittedParameterSchema>;
+
+/** The numbers behind a verdict; every one comes from the spectral engine. */
+export const AnalysisResultSchema = z.object({
+  verdict: VerdictSchema,
+  nearest: LotDistanceSchema.nullable(),
+  t95: z.number().nullable(),
+  t99: z.number().nullable(),
+  /** Share of the library's calibration distances above the sample's nearest distance, 0–1. */
+  typicality: z.number().nullable(),
+  distances: z.array(LotDistanceSchema),
+  /** Classical MDS of lots plus sample; axes are arbitrary in sign. */
+  map: z.object({
+    sample: z.tuple([z.number(), z.number()]),
+    lots: z.array(z.object({ lotId: z.uuid(), lotCode: z.string(), x: z.number(), y: z.number() })),
+  }),
+  /** Histogram of the calibration distances, for plotting with T95/T99 and the sample's distance. */
+  histogram: z.object({ binEdges: z.array(z.number()), counts: z.array(z.number().int()) }),
+  fit: z
+    .object({
+      model: z.string(),
+      parameters: z.array(FittedParameterSchema),
+      chiSquare: z.number(),
+      converged: z.boolean(),
+    })
+    .nullable(),
+  qualityFlags: z.array(QualityFlagSchema),
+  replicateIds: z.array(z.uuid()),
+});
+export type AnalysisResult = z.infer<typeof AnalysisResultSchema>;
+
+export const AnalysisSchema = z.object({
+  id: z.uuid(),
+  sample: z.object({ id: z.uuid(), code: z.string() }),
+  libraryVersion: z.object({ id: z.uuid(), version: z.number().int(), productName: z.string() }),
+  status: AnalysisStatusSchema,
+  result: AnalysisResultSchema,
+  method: MethodSettingsSchema,
+  engineVersion: z.string(),
+  remarks: z.string(),
+  analyst: UserRefSchema,
+  createdAt: z.iso.datetime({ offset: true }),
+  submittedAt: z.iso.datetime({ offset: true }).nullable(),
+  reviews: z.array(
+    z.object({
+      id: z.uuid(),
+      decision: z.enum(['approved', 'returned']),
+      comments: z.string(),
+      reviewer: UserRefSchema,
+      decidedAt: z.iso.datetime({ offset: true }),
+    }),
+  ),
+});
+export type Analysis = z.infer<typeof AnalysisSchema>;
+
+export const AnalysisListItemSchema = z.object({
+  id: z.uuid(),
+  sampleCode: z.string(),
+  sampleId: z.uuid(),
+  productName: z.string(),
+  status: AnalysisStatusSchema,
+  verdict: VerdictSchema,
+  analyst: UserRefSchema,
+  createdAt: z.iso.datetime({ offset: true }),
+  submittedAt: z.iso.datetime({ offset: true }).nullable(),
+});
+export type AnalysisListItem = z.infer<typeof AnalysisListItemSchema>;
+
+export const AnalysisListQuerySchema = listQuery(['createdAt', 'submittedAt', 'sample', 'status'], 'desc').extend({
+  status: AnalysisStatusSchema.optional(),
+  sampleId: z.uuid().optional(),
+});
+export type AnalysisListQuery = z.infer<typeof AnalysisListQuerySchema>;
+export const AnalysisPageSchema = pageOf(AnalysisListItemSchema);
+export type AnalysisPage = z.infer<typeof AnalysisPageSchema>;
+
+export const UpdateRemarksSchema = z.object({ remarks: z.string().trim().max(5000) });
+export type UpdateRemarks = z.infer<typeof UpdateRemarksSchema>;
+
+/** Recomputed from the stored inputs and compared number by number. */
+export const ReproduceCheckSchema = z.object({
+  reproduced: z.boolean(),
+  storedEngineVersion: z.string(),
+  currentEngineVersion: z.string(),
+  /** Largest absolute difference over distances, thresholds and map coordinates. */
+  maxAbsoluteDifference: z.number(),
+  differences: z.array(z.object({ field: z.string(), stored: z.unknown(), recomputed: z.unknown() })),
+});
+export type ReproduceCheck = z.infer<typeof ReproduceCheckSchema>;

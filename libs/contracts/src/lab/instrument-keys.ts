@@ -1,0 +1,24 @@
+import { z } from 'zod';
+import { UserRefSchema } from './refs';
+
+/** Keys look like `ohm_live_` + 40 base-32 characters; only a SHA-256 hash is stored. */
+export const INSTRUMENT_KEY_PREFIX = 'ohm_live_';
+
+export const CreateInstrumentKeySchema = z.object({ name: z.string().trim().min(1).max(100) });
+export type CreateInstrumentKey = z.infer<typeof CreateInstrumentKeySchema>;
+
+export const InstrumentKeySchema = z.object({
+  id: z.uuid(),
+  name: z.string(),
+  /** First characters of the key, enough to recognise it in a bench computer's settings. */
+  prefix: z.string(),
+  createdBy: UserRefSchema,
+  createdAt: z.iso.datetime({ offset: true }),
+  lastUsedAt: z.iso.datetime({ offset: true }).nullable(),
+  revokedAt: z.iso.datetime({ offset: true }).nullable(),
+});
+export type InstrumentKey = z.infer<typeof InstrumentKeySchema>;
+
+/** Answer to issuing a key: the only time the full key is shown. */
+export const IssuedInstrumentKeySchema = z.object({ key: InstrumentKeySchema, secret: z.string() });
+export type IssuedInstrumentKey = z.infer<typeof IssuedInstrumentKeySchema>;

@@ -1,0 +1,20 @@
+import { z } from 'zod';
+import { NamedRefSchema } from '../auth';
+
+export const MATRICES = ['wine', 'milk', 'juice', 'vinegar', 'spirit', 'brine'] as const;
+export const MatrixSchema = z.enum(MATRICES);
+export type Matrix = z.infer<typeof MatrixSchema>;
+
+/** A producer's product; it belongs to one client organisation. */
+export const ProductSummarySchema = z.object({
+  id: z.uuid(),
+  name: z.string(),
+  matrix: MatrixSchema,
+  description: z.string(),
+  clientOrganisation: NamedRefSchema,
+  /** The newest published library version, or null while none is published. */
+  publishedLibraryVersion: z
+    .object({ id: z.uuid(), version: z.number().int(), lotCount: z.number().int() })
+    .nullable(),
+});
+export type ProductSummary = z.infer<typeof ProductSummarySchema>;
