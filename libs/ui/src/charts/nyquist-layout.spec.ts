@@ -1,0 +1,52 @@
+import type { SpectrumSeries } from './chart-types';
+import { nyquistLayout } from './nyquist-layout';
+import { referenceEnvelope } from './reference-envelope';
+import { pathPoints } from './test-path';
+
+/** Parallel RC: Z = R / (1 + jωRC), a semicircle of diameter R centred at (R/2, 0) (textbook result). */
+function parallelRc(r: number, c: number, label = 'RC'): SpectrumSeries {
+  const f = Array.from({ length: 41 }, (_, i) => 10 ** (-1 + i * 0.15));
+  const re: number[] = [];
+  const im: number[] = [];
+  for (const hz of f) {
+    const wrc = 2 * Math.PI * hz * r * c;
+    re.push(r / (1 + wrc * wrc));
+    im.push((-r * wrc) / (1 + wrc * wrc));
+  }
+  return { label, frequencyHz: f, re, im };
+}
+
+describe('nyquistLayout', () => {
+  const rc = parallelRc(1000, 1e-5);
+  const layout = nyquistLayout([rc], null, 640, 400);
+
+  it('draws the RC semicircle as a circle, not an ellipse (equal axes)', () => {
+    const pts = pathPoints(layout.series[0].d);
+    // Locate the centre (R/2, 0) from the first point and the scale's unit length, then every
+    // other point must sit R/2 from it in SVG units too.
+    const upp = layout.unitsPerPixel;
+    const centre = [pts[0][0] + (500 - rc.re[0]) / upp, pts[0][1] - rc.im[0] / upp];
+    const radius = 500 / upp;
+    for (const [x, y] of pts) {
+      expect(Math.hypot(x - centre[0], y - centre[1])).toBeCloseTo(radius, 0);
+    }
+  });
+
+  it('draws −Z″ upwards: the arc rises above the real axis', () => {
+    const pts = pathPoints(layout.series[0].d);
+    const mid = pts[Math.floor(pts.length / 2)];
+    expect(mid[1]).toBeLessThan(pts[0][1]);
+  });
+
+  it('marks whole decades of frequency along the arc', () => {
+    expect(layout.frequencyMarks.map((m) => m.label)).toEqual(['100 mHz', '1 Hz', '10 Hz', '100 Hz', '1 kHz', '10 kHz', '100 kHz']);
+  });
+
+  it('shades the swept reference region between neighbouring grid points', () => {
+    const lots = [0.97, 1, 1.03].map((k, i) => parallelRc(1000 * k, 1e-5, `Lot ${i}`));
+    const band = referenceEnvelope(lots, { kind: 'range' }, 'range');
+    const withBand = nyquistLayout([rc], band, 640, 400);
+    // One closed hull per pair of neighbouring grid points.
+    expect(withBand.band.split('Z').filter(Boolean)).toHaveLength(40);
+  });
+});
