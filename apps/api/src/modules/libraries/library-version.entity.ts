@@ -1,0 +1,18 @@
+import { Column, Entity, PrimaryGeneratedColumn } from 'typeorm';
+import type { Calibration, MethodSettings } from '@ohmprint/contracts';
+
+/** A numbered state of a library; once published, a trigger keeps it and its lots frozen. */
+@Entity({ name: 'library_version' })
+export class LibraryVersion {
+  @PrimaryGeneratedColumn('uuid') id!: string;
+  @Column({ name: 'lab_id', type: 'uuid' }) labId!: string;
+  @Column({ name: 'library_id', type: 'uuid' }) libraryId!: string;
+  @Column({ type: 'integer' }) version!: number;
+  @Column({ type: 'text', default: 'draft' }) status!: 'draft' | 'published';
+  @Column({ type: 'jsonb' }) method!: MethodSettings;
+  @Column({ name: 'grid_hz', type: 'double precision', array: true }) gridHz!: number[];
+  @Column({ type: 'jsonb', nullable: true }) calibration!: Calibration | null;
+  @Column({ name: 'engine_version', type: 'text' }) engineVersion!: string;
+  @Column({ name: 'published_at', type: 'timestamptz', nullable: true }) publishedAt!: Date | null;
+  @Column({ name: 'published_by_user_id', type: 'uuid', nullable: true }) publishedByUserId!: string | null;
+}
