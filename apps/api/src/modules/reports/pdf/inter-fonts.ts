@@ -1,0 +1,96 @@
+import { readFileSync } from 'node:fs';
+import { join, dirname } from 'node:path';
+
+/**
+ * Inter as @fontsource ships it: one file per Unicode subset. Latin lacks Ω, τ and χ (greek has
+ * them) and latin-ext holds the accented letters of names and addresses, so text is split into
+ * runs by the first subset whose published Unicode range (the package's unicode.json) holds each
+ * character. pdfkit embeds .woff (not .woff2).
+ */
+export type InterWeight = 400 | 600 | 700;
+
+const SUBSETS = ['latin', 'greek', 'latin-ext'] as const;
+const WEIGHTS: InterWeight[] = [400, 600, 700];
+
+/** Glyphs Inter's subsets do not carry, written the way a reader would still understand. */
+const STAND_INS: Record<string, string> = { '≤': '<=', '≥': '>=', '∥': '||', '√': 'sqrt ' };
+
+function packageDir(): string {
+  return dirname(require.resolve('@fontsource/inter/package.json'));
+}
+
+function filesDir(): string {
+  return join(packageDir(), 'files');
+}
+
+/** Parses a CSS unicode-range list such as "U+0000-00FF,U+0131". */
+export function parseUnicodeRange(list: string): Array<[number, number]> {
+  return list.split(',').map((part) => {
+    const [from, to] = part.trim().replace(/^U\+/i, '').split('-');
+    return [parseInt(from, 16), parseInt(to ?? from, 16)];
+  });
+}
+
+export function fontName(subset: string, weight: InterWeight): string {
+  return `inter-${subset}-${weight}`;
+}
+
+interface LoadedSubset {
+  subset: string;
+  covers: (codePoint: number) => boolean;
+}
+
+let loaded: LoadedSubset[] | null = null;
+
+function subsets(): LoadedSubset[] {
+  if (!loaded) {
+    const ranges = JSON.parse(readFileSync(join(packageDir(), 'unicode.json'), 'utf8')) as Record<string, string>;
+    loaded = SUBSETS.map((subset) => {
+      const spans = parseUnicodeRange(ranges[subset]);
+      return { subset, covers: (cp: number) => spans.some(([from, to]) => cp >= from && cp <= to) };
+    });
+  }
+  return loaded;
+}
+
+/** Registers every subset and weight on a document under the names `fontName()` returns. */
+export function registerInter(doc: PDFKit.PDFDocument): void {
+  for (const { subset } of subsets()) {
+    for (const weight of WEIGHTS) {
+      doc.registerFont(fontName(subset, weight), join(filesDir(), `inter-${subset}-${weight}-normal.woff`));
+    }
+  }
+}
+
+const SUPERSCRIPTS = '⁰¹²³⁴⁵⁶⁷⁸⁹⁺⁻ⁿ';
+const SUPERSCRIPT_PLAIN = '0123456789+-n';
+
+/** Superscripts outside Latin-1 (ⁿ, ⁻, ⁴…) have no glyph, so units such as cm⁻¹ read as cm^-1. */
+function writeSuperscriptsPlainly(text: string): string {
+  return text.replace(/[⁰¹²³⁴⁵⁶⁷⁸⁹⁺⁻ⁿ]+/g, (run) =>
+    /^[¹²³]$/.test(run) ? run : `^${[...run].map((c) => SUPERSCRIPT_PLAIN[SUPERSCRIPTS.indexOf(c)]).join('')}`,
+  );
+}
+
+export interface TextRun {
+  subset: string;
+  text: string;
+}
+
+/** Splits text into runs each drawable with one subset; whitespace joins the run before it. */
+export function splitIntoRuns(text: string): TextRun[] {
+  const all = subsets();
+  const runs: TextRun[] = [];
+  for (const raw of writeSuperscriptsPlainly(text)) {
+    const chars = STAND_INS[raw] ?? raw;
+    for (const ch of chars) {
+      const cp = ch.codePointAt(0) ?? 0;
+      const isSpace = /\s/.test(ch);
+      const previous = runs[runs.length - 1];
+      const subset = isSpace && previous ? previous.subset : (all.find((s) => s.covers(cp)) ?? all[0]).subset;
+      if (previous && previous.subset === subset) previous.text += ch;
+      else runs.push({ subset, text: ch });
+    }
+  }
+  return runs;
+}

@@ -1,0 +1,52 @@
+import { fontName, InterWeight, splitIntoRuns } from './inter-fonts';
+
+/** Colours of the report, kept together so every page reads as one document. */
+export const INK = {
+  text: '#1d2526',
+  muted: '#5b6668',
+  rule: '#c9d1d1',
+  panel: '#eef3f2',
+  teal: '#0f6b66',
+  tealLight: '#cfe5e2',
+  consistent: '#1e7a3c',
+  inconclusive: '#a66300',
+  notConsistent: '#b3261e',
+  noVerdict: '#6b6f70',
+} as const;
+
+export interface TextStyle extends PDFKit.Mixins.TextOptions {
+  weight?: InterWeight;
+  size?: number;
+  color?: string;
+}
+
+/**
+ * Writes text that may mix Unicode subsets (see inter-fonts.ts) as one flow of pdfkit
+ * `continued` runs, so wrapping and alignment still happen across the whole string.
+ */
+export function write(doc: PDFKit.PDFDocument, text: string, style: TextStyle = {}, x?: number, y?: number): void {
+  const { weight = 400, size = 9, color = INK.text, ...options } = style;
+  doc.fontSize(size).fillColor(color);
+  const runs = splitIntoRuns(text.length ? text : ' ');
+  runs.forEach((run, i) => {
+    doc.font(fontName(run.subset, weight));
+    const continued = i < runs.length - 1;
+    if (i === 0 && x !== undefined) doc.text(run.text, x, y, { ...options, continued });
+    else doc.text(run.text, { ...options, continued });
+  });
+}
+
+/** Width in points of text set in the given weight and size. */
+export function widthOf(doc: PDFKit.PDFDocument, text: string, weight: InterWeight, size: number): number {
+  doc.fontSize(size);
+  return splitIntoRuns(text).reduce((sum, run) => {
+    doc.font(fontName(run.subset, weight));
+    return sum + doc.widthOfString(run.text);
+  }, 0);
+}
+
+/** Height the text would take when wrapped to `width`. */
+export function heightOf(doc: PDFKit.PDFDocument, text: string, weight: InterWeight, size: number, width: number): number {
+  doc.font(fontName('latin', weight)).fontSize(size);
+  return doc.heightOfString(text, { width });
+}

@@ -1,0 +1,267 @@
+import PDFDocument from 'pdfkit';
+import { ReportData } from './report-data';
+import { registerInter } from './inter-fonts';
+import { INK, widthOf, write } from './pen';
+import { CONTENT_WIDTH, Flow, PAGE } from './report-layout';
+import { drawBode, drawNyquist } from './spectrum-plots';
+import { drawDistanceHistogram, drawLotMap } from './library-plots';
+import { drawVerdict } from './verdict-badge';
+import { drawQr } from './qr-vector';
+import { ITEMS_TESTED, REPRODUCTION, SAFETY_NOTE, SCREENING_CAUTION, decisionRule } from './report-wording';
+import { formatDate, formatDateTime, formatNumber, formatPercent } from './report-formats';
+
+/**
+ * Renders a test report as an unsigned PDF (signing is a separate step, so the bytes signed are
+ * exactly these). Content follows ISO/IEC 17025:2017 clause 7.8.2.1 in substance: identification
+ * on every page with page x of y, lab, client, item and its condition, dates, method, results with
+ * the decision rule (7.8.6), statements, authorisation and a marked end.
+ */
+export function renderReportPdf(data: ReportData): Promise<Buffer> {
+  const doc = new PDFDocument({
+    size: 'A4',
+    margins: { top: PAGE.top, bottom: 0, left: PAGE.left, right: PAGE.right },
+    bufferPages: true,
+    autoFirstPage: true,
+    info: {
+      Title: `Test report ${data.reportNumber}`,
+      Author: data.lab.name,
+      Subject: `Impedance fingerprint screening of sample ${data.sample.code}`,
+      Creator: 'Ohmprint',
+      CreationDate: new Date(data.issuedAt),
+    },
+  });
+  const chunks: Buffer[] = [];
+  const done = new Promise<Buffer>((resolve, reject) => {
+    doc.on('data', (c: Buffer) => chunks.push(c));
+    doc.on('end', () => resolve(Buffer.concat(chunks)));
+    doc.on('error', reject);
+  });
+  registerInter(doc);
+  const flow = new Flow(doc);
+  writeTitle(flow, data);
+  writeParties(flow, data);
+  writeSample(flow, data);
+  writeResult(flow, data);
+  writeMethod(flow, data);
+  writePlots(flow, data);
+  writeParameters(flow, data);
+  writeStatements(flow, data);
+  writeAuthorisation(flow, data);
+  writePageFrames(doc, data);
+  doc.end();
+  return done;
+}
+
+function writeTitle(flow: Flow, data: ReportData): void {
+  const { doc } = flow;
+  write(doc, 'Test report', { size: 20, weight: 700, color: INK.teal, lineBreak: false }, PAGE.left, flow.y);
+  flow.y += 26;
+  write(doc, 'Impedance fingerprint screening against a reference library', { size: 11, weight: 600, lineBreak: false }, PAGE.left, flow.y);
+  flow.y += 18;
+  write(doc, `Report ${data.reportNumber}   ·   issued ${formatDate(data.issuedAt)}`, { size: 9, color: INK.muted, lineBreak: false }, PAGE.left, flow.y);
+  flow.y += 16;
+  if (data.replaces) {
+    const text =
+      `Amended report. This report replaces report ${data.replaces.reportNumber}, which is withdrawn and ` +
+      `superseded by this one. Reason for the amendment: ${data.replaces.reason}`;
+    panel(flow, text, INK.inconclusive);
+  }
+}
+
+function panel(flow: Flow, text: string, accent: string): void {
+  const { doc } = flow;
+  doc.font('inter-latin-400').fontSize(8.5);
+  const h = doc.heightOfString(text, { width: CONTENT_WIDTH - 20 }) + 12;
+  flow.ensure(h + 6);
+  doc.save().fillColor(INK.panel).rect(PAGE.left, flow.y, CONTENT_WIDTH, h).fill();
+  doc.fillColor(accent).rect(PAGE.left, flow.y, 3, h).fill().restore();
+  write(doc, text, { size: 8.5, width: CONTENT_WIDTH - 20 }, PAGE.left + 12, flow.y + 6);
+  flow.y += h + 8;
+}
+
+function writeParties(flow: Flow, data: ReportData): void {
+  const { lab, client } = data;
+  flow.columns(
+    {
+      title: 'Laboratory',
+      rows: [
+        ['Name', lab.name],
+        ['Address', lab.address.join(', ') || 'not stated'],
+        ['Accreditation', lab.accreditation ? `${lab.accreditation.body}, ${lab.accreditation.number}` : 'not accredited for this method'],
+        ['Tests done at', lab.siteOfTesting ?? 'the address above'],
+        ...(lab.contactEmail ? ([['Contact', lab.contactEmail]] as Array<[string, string]>) : []),
+      ],
+    },
+    {
+      title: 'Client',
+      rows: [
+        ['Organisation', client.name],
+        ...(client.address?.length ? ([['Address', client.address.join(', ')]] as Array<[string, string]>) : []),
+        ['Contact', client.contactName],
+        ['E-mail', client.contactEmail],
+      ],
+    },
+  );
+}
+
+function writeSample(flow: Flow, data: ReportData): void {
+  const s = data.sample;
+  flow.heading('Item tested');
+  const rows: Array<[string, string]> = [
+    ['Sample code', s.code],
+    ['Product', `${s.productName} (${s.matrix})`],
+    ['Lot claimed on the item', s.claimedLot ?? 'none stated'],
+    ['Obtained', [s.obtainedWhere, s.obtainedOn ? formatDate(s.obtainedOn) : null].filter(Boolean).join(', ') || 'not stated by the client'],
+    ['Label text', s.labelText ?? 'not recorded'],
+    ['Received', formatDateTime(s.receivedAt)],
+    ['Condition on receipt', s.conditionOnReceipt],
+    ['Tested', data.testedFrom === data.testedTo ? formatDate(data.testedFrom) : `${formatDate(data.testedFrom)} to ${formatDate(data.testedTo)}`],
+    ['Report issued', formatDate(data.issuedAt)],
+  ];
+  flow.ensure(flow.rows(rows, undefined, undefined, 130, false));
+  flow.y += flow.rows(rows);
+}
+
+function writeResult(flow: Flow, data: ReportData): void {
+  const r = data.results;
+  flow.heading('Result');
+  flow.ensure(150);
+  const { doc } = flow;
+  const top = flow.y;
+  doc.save().fillColor(INK.panel).roundedRect(PAGE.left, top, CONTENT_WIDTH, 34, 4).fill().restore();
+  drawVerdict(doc, r.verdict, PAGE.left + 10, top + 8, 18);
+  flow.y = top + 42;
+  const rows: Array<[string, string]> = [
+    ['Nearest distance', r.nearestDistance === null ? 'not available' : `${formatNumber(r.nearestDistance, 4)} (normalised Canberra distance, 0 to 1)`],
+    ['Nearest reference lot', r.nearestLot ?? 'not available'],
+    ['Thresholds', `T95 = ${r.t95 === null ? 'not available' : formatNumber(r.t95, 4)}   ·   T99 = ${r.t99 === null ? 'not available' : formatNumber(r.t99, 4)}`],
+    ['Typicality', r.typicality === null ? 'not available' : `${formatPercent(r.typicality)} of the library's calibration distances are larger than the sample's`],
+  ];
+  flow.y += flow.rows(rows);
+  flow.gap(2);
+  flow.paragraph(decisionRule(data), 8.5, INK.text, 600);
+}
+
+function writeMethod(flow: Flow, data: ReportData): void {
+  const m = data.method;
+  flow.heading('Method');
+  const rows: Array<[string, string]> = [
+    ['Method', m.name],
+    ['Frequency band', `${formatNumber(m.bandHz.min, 3)} Hz to ${formatNumber(m.bandHz.max, 3)} Hz, ${m.gridPoints} log-spaced points`],
+    ['Normalisation', `divided by the cell constant; referred to ${formatNumber(m.referenceTemperatureC, 1)} °C with a linear coefficient of ${formatNumber(m.temperatureCoefficientPerC * 100, 2)} %/°C`],
+    ['Model fitted', m.modelName],
+    ['Similarity', 'Canberra distance over real and imaginary parts, divided by the number of terms'],
+    ['Reference library', `${m.library.productName}, version ${m.library.version} (${m.library.lotCount} lots, published ${formatDate(m.library.publishedAt)})`],
+    ['Replicates', `${m.replicateCount} measured and averaged`],
+    ['Software', `Ohmprint spectral engine ${m.engineVersion}`],
+    ['Deviations', m.deviations.length ? m.deviations.join('; ') : 'none from the documented method'],
+  ];
+  flow.ensure(flow.rows(rows, undefined, undefined, 130, false));
+  flow.y += flow.rows(rows);
+}
+
+function writePlots(flow: Flow, data: ReportData): void {
+  flow.newPage();
+  flow.heading('Spectra');
+  const top = flow.y + 16;
+  const plotH = 215;
+  const nyW = 220;
+  drawNyquist(flow.doc, { x: PAGE.left + 38, y: top, w: nyW, h: plotH }, data.plots);
+  const bodeX = PAGE.left + 38 + nyW + 50;
+  const bodeW = PAGE.left + CONTENT_WIDTH - bodeX;
+  const halfH = (plotH - 34) / 2;
+  drawBode(flow.doc, { x: bodeX, y: top, w: bodeW, h: halfH }, { x: bodeX, y: top + halfH + 34, w: bodeW, h: halfH }, data.plots, data.method.bandHz);
+  flow.y = top + plotH + 26;
+  flow.paragraph(
+    'Sample: teal line. Shaded in the Bode plots: the method band (grey) and the spread of the reference lots (light teal). ' +
+      'Both plots show the averaged, normalised spectrum of the replicates.',
+    7.5,
+    INK.muted,
+  );
+  flow.heading('The sample and the library');
+  const top2 = flow.y + 16;
+  const w2 = (CONTENT_WIDTH - 38 - 50 - 14) / 2;
+  drawDistanceHistogram(flow.doc, { x: PAGE.left + 38, y: top2, w: w2, h: 170 }, data.plots, data.results);
+  if (data.plots.map) drawLotMap(flow.doc, { x: PAGE.left + 38 + w2 + 50, y: top2, w: w2, h: 170 }, data.plots);
+  flow.y = top2 + 170 + 26;
+  flow.paragraph(
+    'Left: how far each reference lot lies from its nearest other lot, with the thresholds and this sample\'s nearest distance. ' +
+      'Right: classical multidimensional scaling of the distances between the lots and the sample; closeness on the map mirrors closeness of the spectra.',
+    7.5,
+    INK.muted,
+  );
+}
+
+function writeParameters(flow: Flow, data: ReportData): void {
+  const r = data.results;
+  flow.heading('Fitted model parameters and data quality');
+  const { doc } = flow;
+  const cols = [PAGE.left, PAGE.left + 170, PAGE.left + 290, PAGE.left + 410];
+  flow.ensure(16 + 13 * (r.fittedParameters.length + 1));
+  ['Parameter', 'Value', 'Standard error', 'Unit'].forEach((h, i) => write(doc, h, { size: 8, weight: 600, color: INK.muted, lineBreak: false }, cols[i], flow.y));
+  flow.y += 13;
+  for (const p of r.fittedParameters) {
+    flow.ensure(13);
+    const cells = [p.name, formatNumber(p.value, 4), p.standardError === null ? 'not estimated' : formatNumber(p.standardError, 2), p.unit || 'none'];
+    cells.forEach((c, i) => write(doc, c, { size: 8.5, lineBreak: false }, cols[i], flow.y));
+    flow.y += 13;
+  }
+  if (!r.fittedParameters.length) flow.paragraph('No model was fitted.');
+  if (r.goodnessOfFit !== null) flow.paragraph(`Goodness of fit (weighted χ²): ${formatNumber(r.goodnessOfFit, 3)}`);
+  flow.gap(2);
+  if (r.qualityFlags.length === 0) flow.paragraph('Data quality: no flags raised.');
+  else for (const q of r.qualityFlags) flow.paragraph(`${q.severity === 'warning' ? 'Warning' : 'Note'}: ${q.message}`);
+}
+
+function writeStatements(flow: Flow, data: ReportData): void {
+  flow.heading('Remarks and statements');
+  flow.paragraph(`Analyst's remarks: ${data.remarks?.trim() || 'none'}`);
+  flow.paragraph(ITEMS_TESTED, 8.5, INK.text, 600);
+  panel(flow, `Screening caution. ${SCREENING_CAUTION}`, INK.teal);
+  flow.paragraph(`Safety. ${SAFETY_NOTE}`);
+  flow.paragraph(REPRODUCTION);
+}
+
+function writeAuthorisation(flow: Flow, data: ReportData): void {
+  flow.heading('Authorisation and verification');
+  const { doc } = flow;
+  const qr = 84;
+  flow.ensure(qr + 40);
+  const top = flow.y;
+  const textW = CONTENT_WIDTH - qr - 16;
+  const rows: Array<[string, string]> = [
+    ['Analysed by', `${data.analyst.name}, ${data.analyst.role}`],
+    ['Authorised by', `${data.authorisedBy.name}, ${data.authorisedBy.role}, on ${formatDate(data.issuedAt)}`],
+    ['Signature', `Digitally signed in this PDF by ${data.lab.name}.`],
+    ['Verify at', data.verification.url.replace(/\?.*$/, '')],
+    ['Report number', data.reportNumber],
+    ['Verification code', data.verification.code],
+  ];
+  flow.y += flow.rows(rows, PAGE.left, textW, 100);
+  drawQr(doc, data.verification.url, PAGE.left + CONTENT_WIDTH - qr, top, qr);
+  flow.y = Math.max(flow.y, top + qr) + 14;
+  flow.ensure(20);
+  const end = '— End of report —';
+  doc.save().lineWidth(0.6).strokeColor(INK.rule).moveTo(PAGE.left, flow.y).lineTo(PAGE.left + CONTENT_WIDTH, flow.y).stroke().restore();
+  write(doc, end, { size: 9, weight: 700, color: INK.muted, lineBreak: false }, PAGE.left + CONTENT_WIDTH / 2 - widthOf(doc, end, 700, 9) / 2, flow.y + 6);
+}
+
+/** Header and footer on every page, drawn last so "page x of y" knows y. */
+function writePageFrames(doc: PDFKit.PDFDocument, data: ReportData): void {
+  const { start, count } = doc.bufferedPageRange();
+  for (let i = start; i < start + count; i++) {
+    doc.switchToPage(i);
+    const right = PAGE.width - PAGE.right;
+    write(doc, data.lab.name, { size: 8, weight: 600, color: INK.teal, lineBreak: false }, PAGE.left, 30);
+    const id = `Test report ${data.reportNumber}`;
+    write(doc, id, { size: 8, weight: 600, lineBreak: false }, right - widthOf(doc, id, 600, 8), 30);
+    doc.save().lineWidth(0.6).strokeColor(INK.rule).moveTo(PAGE.left, 44).lineTo(right, 44).stroke().restore();
+    const y = PAGE.height - 40;
+    doc.save().lineWidth(0.6).strokeColor(INK.rule).moveTo(PAGE.left, y - 6).lineTo(right, y - 6).stroke().restore();
+    write(doc, `Report ${data.reportNumber}`, { size: 7.5, color: INK.muted, lineBreak: false }, PAGE.left, y);
+    const pageText = `Page ${i - start + 1} of ${count}`;
+    write(doc, pageText, { size: 7.5, weight: 600, color: INK.muted, lineBreak: false }, right - widthOf(doc, pageText, 600, 7.5), y);
+    const note = 'Results relate only to the item tested.';
+    write(doc, note, { size: 7.5, color: INK.muted, lineBreak: false }, PAGE.left + CONTENT_WIDTH / 2 - widthOf(doc, note, 400, 7.5) / 2, y);
+  }
+}

@@ -1,0 +1,34 @@
+import { ReportData } from './report-data';
+
+/** Fixed statements every report carries; kept in one place so reports and screens agree. */
+export const SCREENING_CAUTION =
+  'An impedance fingerprint is a screening method: it tells whether a sample is consistent with the ' +
+  "producer's reference library under the stated method. It does not prove origin or identity by itself; " +
+  "a 'not consistent' result should be confirmed by an accredited confirmatory method before legal or " +
+  'commercial action. Results relate only to the items tested. Follow local regulations on how such ' +
+  'results may be used.';
+
+export const SAFETY_NOTE =
+  'Measurements are made at low voltage, but samples may be alcoholic, flammable or perishable: follow the ' +
+  "laboratory's safety and food-handling rules and local regulations when handling retained material.";
+
+export const ITEMS_TESTED = 'The results in this report relate only to the item tested, as received.';
+
+export const REPRODUCTION =
+  'This report shall not be reproduced except in full. Its authenticity can be checked online with the ' +
+  'report number and verification code below, or by uploading the PDF.';
+
+const pct = (q: number): string => `${Number((q * 100).toFixed(1))} %`;
+
+/** The decision rule in words, with the thresholds this report applied. */
+export function decisionRule(data: ReportData): string {
+  const { t95, t99 } = data.results;
+  const { lower, upper } = data.method.quantiles;
+  const at = (t: number | null) => (t === null ? 'not available' : t.toFixed(4));
+  return (
+    `Decision rule: T95 (${at(t95)}) and T99 (${at(t99)}) are the ${pct(lower)} and ${pct(upper)} quantiles of ` +
+    "the library's own spread (each reference lot's leave-one-out distance to its nearest other lot). " +
+    'A nearest distance at or below T95 reads as consistent with the reference library; above T95 and up ' +
+    'to T99 as inconclusive; above T99 as not consistent. A library with too few lots gives no verdict.'
+  );
+}
