@@ -10,3 +10,6 @@ export { NyquistChart } from './nyquist-chart';
 export { KkResidualChart } from './kk-residual-chart';
 export { DistanceHistogram } from './distance-histogram';
 export { LibraryMap } from './library-map';
+export { VerdictChip, VERDICT_LOOK, VERDICT_SHORT } from './verdict-chip';
+export { SampleStateChip, SAMPLE_STATE_LOOK } from './sample-state-chip';
+export { ScreeningCaution, SCREENING_CAUTION } from './screening-caution';
