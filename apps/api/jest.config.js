@@ -1,4 +1,8 @@
-// API tests run against real PostgreSQL; each file clones its own database from a migrated template.
+// API tests run against real PostgreSQL; each file clones its own database from a migrated template
+// built once per run by the globalSetup (see apps/api/src/testing/).
 module.exports = require('../../jest.base.js')('api', 'apps/api', {
   testTimeout: 30000,
+  globalSetup: '<rootDir>/src/testing/global-setup.ts',
+  globalTeardown: '<rootDir>/src/testing/global-teardown.ts',
+  setupFiles: ['<rootDir>/src/testing/setup-env.ts'],
 });

@@ -1,0 +1,105 @@
+import { z } from 'zod';
+
+const bool = z.enum(['true', 'false', '1', '0']).transform((v) => v === 'true' || v === '1');
+
+/**
+ * Every setting the API reads, with safe local defaults. Secrets have no default: the local scripts
+ * generate them into .data/secrets.env and export them.
+ */
+const EnvSchema = z.object({
+  NODE_ENV: z.enum(['development', 'test', 'production']).default('development'),
+  HOST: z.string().default('127.0.0.1'),
+  PORT: z.coerce.number().int().min(1).max(65535).default(4300),
+  PUBLIC_BASE_URL: z.url().default('http://127.0.0.1:4300'),
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+  BODY_LIMIT: z.string().regex(/^\d+(b|kb|mb)$/i, 'like 256kb or 2mb').default('256kb'),
+  DATABASE_HOST: z.string().default('127.0.0.1'),
+  DATABASE_PORT: z.coerce.number().int().default(54329),
+  DATABASE_USER: z.string().default('ohmprint'),
+  DATABASE_PASSWORD: z.string().min(1, 'is required (the local scripts export it from .data/secrets.env)'),
+  DATABASE_NAME: z.string().default('ohmprint'),
+  DATABASE_POOL_SIZE: z.coerce.number().int().min(1).max(100).default(10),
+  JWT_ACCESS_SECRET: z.string().min(32, 'must be at least 32 characters'),
+  ACCESS_TOKEN_TTL_SECONDS: z.coerce.number().int().min(30).max(86400).default(900),
+  REFRESH_TOKEN_TTL_DAYS: z.coerce.number().int().min(1).max(90).default(14),
+  COOKIE_SECURE: bool.optional(),
+  BCRYPT_COST: z.coerce.number().int().min(4).max(15).default(12),
+  SIGN_IN_MAX_FAILURES: z.coerce.number().int().min(1).default(10),
+  SIGN_IN_WINDOW_MINUTES: z.coerce.number().int().min(1).default(15),
+  PASSWORD_RESET_TTL_MINUTES: z.coerce.number().int().min(5).max(1440).default(60),
+  INVITATION_TTL_DAYS: z.coerce.number().int().min(1).max(60).default(14),
+  SMTP_HOST: z.string().default('127.0.0.1'),
+  SMTP_PORT: z.coerce.number().int().default(1025),
+  SMTP_SECURE: bool.default(false),
+  SMTP_USER: z.string().optional(),
+  SMTP_PASSWORD: z.string().optional(),
+  MAIL_FROM: z.string().default('Ohmprint <no-reply@ohmprint.test>'),
+  OUTBOX_POLL_MS: z.coerce.number().int().min(100).default(2000),
+  OUTBOX_MAX_ATTEMPTS: z.coerce.number().int().min(1).default(12),
+  OUTBOX_WORKER: bool.default(true),
+  SHUTDOWN_TIMEOUT_MS: z.coerce.number().int().min(100).default(10000),
+  OHMPRINT_DATA_DIR: z.string().default('.data'),
+  PORTALS_DIR: z.string().default('dist'),
+});
+
+export type Env = z.infer<typeof EnvSchema>;
+
+export function parseEnv(env: NodeJS.ProcessEnv): Env {
+  const parsed = EnvSchema.safeParse(env);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
+    throw new Error(`Invalid configuration (environment variables):\n${lines.join('\n')}`);
+  }
+  return parsed.data;
+}
+
+function buildConfig(env: Env) {
+  const production = env.NODE_ENV === 'production';
+  return {
+    env: env.NODE_ENV,
+    production,
+    host: env.HOST,
+    port: env.PORT,
+    publicBaseUrl: env.PUBLIC_BASE_URL.replace(/\/+$/, ''),
+    logLevel: env.NODE_ENV === 'test' && env.LOG_LEVEL === 'info' ? 'silent' : env.LOG_LEVEL,
+    bodyLimit: env.BODY_LIMIT,
+    database: {
+      host: env.DATABASE_HOST,
+      port: env.DATABASE_PORT,
+      username: env.DATABASE_USER,
+      password: env.DATABASE_PASSWORD,
+      database: env.DATABASE_NAME,
+      poolSize: env.DATABASE_POOL_SIZE,
+    },
+    auth: {
+      accessSecret: env.JWT_ACCESS_SECRET,
+      accessTtlSeconds: env.ACCESS_TOKEN_TTL_SECONDS,
+      refreshTtlDays: env.REFRESH_TOKEN_TTL_DAYS,
+      cookieSecure: env.COOKIE_SECURE ?? production,
+      bcryptCost: env.BCRYPT_COST,
+      signInMaxFailures: env.SIGN_IN_MAX_FAILURES,
+      signInWindowMinutes: env.SIGN_IN_WINDOW_MINUTES,
+      passwordResetTtlMinutes: env.PASSWORD_RESET_TTL_MINUTES,
+      invitationTtlDays: env.INVITATION_TTL_DAYS,
+    },
+    mail: {
+      host: env.SMTP_HOST,
+      port: env.SMTP_PORT,
+      secure: env.SMTP_SECURE,
+      user: env.SMTP_USER,
+      password: env.SMTP_PASSWORD,
+      from: env.MAIL_FROM,
+      pollMs: env.OUTBOX_POLL_MS,
+      maxAttempts: env.OUTBOX_MAX_ATTEMPTS,
+      workerEnabled: env.OUTBOX_WORKER,
+    },
+    shutdownTimeoutMs: env.SHUTDOWN_TIMEOUT_MS,
+    dataDir: env.OHMPRINT_DATA_DIR,
+    portalsDir: env.PORTALS_DIR,
+  };
+}
+
+export type Config = ReturnType<typeof buildConfig>;
+
+/** Parsed once at start; the process fails fast with every invalid variable listed. */
+export const config: Config = buildConfig(parseEnv(process.env));

@@ -1,0 +1,45 @@
+import type { Server } from 'node:http';
+import { createApp } from './app';
+import { config } from './config';
+import { logger } from './core/logger';
+import { dataSource } from './db/data-source';
+import { createMailTransport } from './modules/mail/mail-transport';
+import { startOutboxWorker } from './modules/mail/outbox-worker';
+
+async function main(): Promise<void> {
+  await dataSource.initialize();
+  const pending = await dataSource.showMigrations();
+  if (pending) logger.warn('the database has pending migrations: run npm run db:migrate');
+
+  const worker = config.mail.workerEnabled ? startOutboxWorker(dataSource, createMailTransport()) : undefined;
+  const app = createApp();
+  const server: Server = app.listen(config.port, config.host, () => {
+    logger.info({ url: `http://${config.host}:${config.port}` }, 'Ohmprint API listening');
+  });
+
+  let stopping = false;
+  const shutdown = (signal: string): void => {
+    if (stopping) return;
+    stopping = true;
+    logger.info({ signal }, 'shutting down');
+    const hardStop = setTimeout(() => {
+      logger.error('graceful shutdown timed out; exiting');
+      process.exit(1);
+    }, config.shutdownTimeoutMs);
+    hardStop.unref();
+    server.close(async () => {
+      await worker?.stop();
+      await dataSource.destroy();
+      logger.info('stopped');
+      process.exit(0);
+    });
+    server.closeIdleConnections();
+  };
+  process.on('SIGTERM', () => shutdown('SIGTERM'));
+  process.on('SIGINT', () => shutdown('SIGINT'));
+}
+
+main().catch((err) => {
+  logger.fatal({ err }, 'the API could not start');
+  process.exit(1);
+});

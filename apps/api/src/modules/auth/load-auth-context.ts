@@ -1,0 +1,62 @@
+import type { EntityManager } from 'typeorm';
+import type { ClientRole, LabRole, Me, Role } from '@ohmprint/contracts';
+import type { AuthContext } from './auth-context';
+
+interface AccountRow {
+  id: string;
+  email: string;
+  display_name: string;
+  status: 'active' | 'deactivated';
+  lab_id: string | null;
+  is_platform_operator: boolean;
+  lab_name: string | null;
+  lab_status: 'active' | 'suspended' | null;
+  client_organisation_id: string | null;
+  client_organisation_name: string | null;
+  client_role: ClientRole | null;
+  lab_roles: LabRole[];
+}
+
+export interface Account {
+  auth: AuthContext;
+  me: Me;
+  status: 'active' | 'deactivated';
+  labName: string | null;
+  labStatus: 'active' | 'suspended' | null;
+}
+
+const ACCOUNT_SQL = `
+  SELECT u.id, u.email, u.display_name, u.status, u.lab_id, u.is_platform_operator,
+         l.name AS lab_name, l.status AS lab_status,
+         cm.client_organisation_id, co.name AS client_organisation_name, cm.role AS client_role,
+         ARRAY(SELECT r.role FROM lab_role_membership r WHERE r.user_id = u.id AND r.lab_id = u.lab_id ORDER BY r.role) AS lab_roles
+  FROM app_user u
+  LEFT JOIN lab l ON l.id = u.lab_id
+  LEFT JOIN client_membership cm ON cm.user_id = u.id AND cm.lab_id = u.lab_id
+  LEFT JOIN client_organisation co ON co.id = cm.client_organisation_id AND co.lab_id = u.lab_id
+  WHERE u.id = $1`;
+
+/** One query: the user, their lab, their roles and their client organisation. */
+export async function loadAccount(manager: EntityManager, userId: string): Promise<Account | null> {
+  const rows: AccountRow[] = await manager.query(ACCOUNT_SQL, [userId]);
+  const row = rows[0];
+  if (!row) return null;
+  const roles: Role[] = row.is_platform_operator ? ['platform-operator'] : [...row.lab_roles, ...(row.client_role ? [row.client_role] : [])];
+  const auth: AuthContext = {
+    userId: row.id,
+    email: row.email,
+    displayName: row.display_name,
+    labId: row.lab_id,
+    roles,
+    clientOrganisationId: row.client_organisation_id,
+  };
+  const me: Me = {
+    id: row.id,
+    email: row.email,
+    displayName: row.display_name,
+    roles,
+    lab: row.lab_id && row.lab_name ? { id: row.lab_id, name: row.lab_name } : null,
+    clientOrganisation: row.client_organisation_id && row.client_organisation_name ? { id: row.client_organisation_id, name: row.client_organisation_name } : null,
+  };
+  return { auth, me, status: row.status, labName: row.lab_name, labStatus: row.lab_status };
+}

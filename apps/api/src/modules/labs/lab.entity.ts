@@ -1,0 +1,17 @@
+import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm';
+import type { LabStatus } from '@ohmprint/contracts';
+
+/** The tenant: every tenant-owned row elsewhere carries this id. */
+@Entity({ name: 'lab' })
+export class Lab {
+  @PrimaryGeneratedColumn('uuid') id!: string;
+  @Column({ type: 'text' }) name!: string;
+  @Column({ name: 'legal_name', type: 'text' }) legalName!: string;
+  @Column({ type: 'text' }) address!: string;
+  @Column({ name: 'accreditation_body', type: 'text', nullable: true }) accreditationBody!: string | null;
+  @Column({ name: 'accreditation_number', type: 'text', nullable: true }) accreditationNumber!: string | null;
+  @Column({ name: 'turnaround_target_days', type: 'integer', default: 10 }) turnaroundTargetDays!: number;
+  @Column({ type: 'text', default: 'active' }) status!: LabStatus;
+  @CreateDateColumn({ name: 'created_at', type: 'timestamptz' }) createdAt!: Date;
+  @UpdateDateColumn({ name: 'updated_at', type: 'timestamptz' }) updatedAt!: Date;
+}

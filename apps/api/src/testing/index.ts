@@ -1,0 +1,4 @@
+// Harness for API integration tests: one app and one fresh database per file.
+export { useTestApp, type TestApp } from './test-app';
+export { demoEmail, DEMO_PASSWORD, type DemoLabKey } from './demo-accounts';
+export { readMailbox, clearMailbox, type CaughtMail } from './mailbox';

@@ -1,0 +1,3 @@
+import { loadTestEnvironment } from './test-environment';
+
+loadTestEnvironment();

@@ -1,0 +1,82 @@
+import type { Express } from 'express';
+import request from 'supertest';
+import type { Role, SessionResponse } from '@ohmprint/contracts';
+import { createApp } from '../app';
+import { dataSource } from '../db/data-source';
+import { signAccessToken } from '../modules/auth/access-token';
+import { User } from '../modules/accounts/user.entity';
+import { DEMO_PASSWORD, demoEmail, type DemoLabKey } from './demo-accounts';
+import { createTestDatabase, dropTestDatabase } from './test-database';
+
+export interface TestApp {
+  /** The Express app, for `request(t.app)`. */
+  readonly app: Express;
+  /** The DataSource, initialised on this file's own database. */
+  readonly db: typeof dataSource;
+  readonly databaseName: string;
+  /** An access token for the demo account holding `role` (minted directly: no HTTP round trip). */
+  tokenFor(role: Role, lab?: DemoLabKey): Promise<string>;
+  /** `{ Authorization: 'Bearer …' }` for the demo account holding `role`. */
+  authFor(role: Role, lab?: DemoLabKey): Promise<Record<string, string>>;
+  /** The user id of the demo account holding `role`. */
+  userIdFor(role: Role, lab?: DemoLabKey): Promise<string>;
+  /** A real sign-in through the API: the JSON answer and the refresh cookie. */
+  signIn(email: string, password?: string): Promise<{ body: SessionResponse; cookie: string }>;
+}
+
+/**
+ * One app and one fresh database per test file: call at the top of a spec file. The database is
+ * cloned from the migrated, account-seeded template before the file's tests and dropped after.
+ */
+export function useTestApp(): TestApp {
+  let app: Express | undefined;
+  let databaseName = '';
+  const ids = new Map<string, string>();
+
+  beforeAll(async () => {
+    databaseName = await createTestDatabase();
+    dataSource.setOptions({ database: databaseName, poolSize: 4 });
+    await dataSource.initialize();
+    app = createApp();
+  });
+
+  afterAll(async () => {
+    if (dataSource.isInitialized) await dataSource.destroy();
+    if (databaseName) await dropTestDatabase(databaseName);
+  });
+
+  const userIdFor = async (role: Role, lab: DemoLabKey = 'calder'): Promise<string> => {
+    const email = demoEmail(role, lab);
+    let id = ids.get(email);
+    if (!id) {
+      id = (await dataSource.manager.findOneOrFail(User, { where: { email } })).id;
+      ids.set(email, id);
+    }
+    return id;
+  };
+
+  return {
+    get app() {
+      if (!app) throw new Error('the test app starts in beforeAll; use it inside tests');
+      return app;
+    },
+    db: dataSource,
+    get databaseName() {
+      return databaseName;
+    },
+    userIdFor,
+    async tokenFor(role, lab) {
+      return signAccessToken(await userIdFor(role, lab));
+    },
+    async authFor(role, lab) {
+      return { Authorization: `Bearer ${signAccessToken(await userIdFor(role, lab))}` };
+    },
+    async signIn(email, password = DEMO_PASSWORD) {
+      const res = await request(this.app).post('/api/auth/sign-in').send({ email, password });
+      if (res.status !== 200) throw new Error(`sign-in of ${email} answered ${res.status}: ${JSON.stringify(res.body)}`);
+      const cookie = ([] as string[]).concat(res.headers['set-cookie'] ?? []).find((c) => c.startsWith('ohmprint_refresh='));
+      if (!cookie) throw new Error('sign-in set no refresh cookie');
+      return { body: res.body as SessionResponse, cookie: cookie.split(';')[0] };
+    },
+  };
+}

@@ -1,0 +1,13 @@
+// Request/response schemas shared by the API and both portals. One line per file.
+export * from './roles';
+export * from './problem';
+export * from './paging';
+export * from './common-fields';
+export * from './auth';
+export * from './invitations';
+export * from './staff';
+export * from './client-organisations';
+export * from './labs';
+export * from './health';
+export * from './lab';
+export * from './lab/reports';

@@ -1,0 +1,15 @@
+import { z } from 'zod';
+
+/** Lab roles: staff of one lab may hold several of these. */
+export const LAB_ROLES = ['lab-admin', 'intake-technician', 'analyst', 'reviewer'] as const;
+/** Client roles: a client user holds exactly one, in one client organisation. */
+export const CLIENT_ROLES = ['client-admin', 'client-member'] as const;
+export const ROLES = ['platform-operator', ...LAB_ROLES, ...CLIENT_ROLES] as const;
+
+export const RoleSchema = z.enum(ROLES);
+export const LabRoleSchema = z.enum(LAB_ROLES);
+export const ClientRoleSchema = z.enum(CLIENT_ROLES);
+
+export type Role = z.infer<typeof RoleSchema>;
+export type LabRole = z.infer<typeof LabRoleSchema>;
+export type ClientRole = z.infer<typeof ClientRoleSchema>;
