@@ -1,0 +1,112 @@
+import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
+
+/** Ritz pairs are accepted once their residual is this small relative to the largest eigenvalue. */
+const RESIDUAL_TOLERANCE = 1e-10;
+
+export interface ExtremeEigenpairs {
+  /** The `count` largest eigenvalues, descending, and their unit eigenvectors. */
+  readonly values: number[];
+  readonly vectors: Float64Array[];
+  /** Ritz estimate of the smallest eigenvalue: never below the true one. */
+  readonly smallest: number;
+  /** Lanczos steps taken in the last pass. */
+  readonly steps: number;
+}
+
+function multiply(b: Float64Array, n: number, x: Float64Array, out: Float64Array): void {
+  for (let i = 0, base = 0; i < n; i++, base += n) {
+    let s = 0;
+    for (let j = 0; j < n; j++) s += b[base + j] * x[j];
+    out[i] = s;
+  }
+}
+
+function dot(x: Float64Array, y: Float64Array): number {
+  let s = 0;
+  for (let i = 0; i < x.length; i++) s += x[i] * y[i];
+  return s;
+}
+
+/** A fixed pseudo-random start, so the same matrix always gives the same axes. */
+function startVector(n: number): Float64Array {
+  const v = new Float64Array(n);
+  let state = 0x2545f491;
+  for (let i = 0; i < n; i++) {
+    state = (Math.imul(state, 1664525) + 1013904223) >>> 0;
+    v[i] = state / 2 ** 32 - 0.5;
+  }
+  const length = Math.sqrt(dot(v, v));
+  return v.map((x) => x / length);
+}
+
+/**
+ * The largest `count` eigenpairs of a symmetric row-major matrix by the Lanczos method with full
+ * reorthogonalisation: each step costs one matrix–vector product, so a 2,000-point map needs a
+ * few dozen passes over the matrix instead of a full O(n³) decomposition.
+ */
+export function largestEigenpairs(b: Float64Array, n: number, count: number): ExtremeEigenpairs {
+  let steps = Math.min(n, Math.max(2 * count + 30, 50));
+  for (;;) {
+    const basis: Float64Array[] = [startVector(n)];
+    const alpha: number[] = [];
+    const beta: number[] = [];
+    const w = new Float64Array(n);
+    let exhausted = false;
+    for (let j = 0; j < steps; j++) {
+      multiply(b, n, basis[j], w);
+      alpha.push(dot(basis[j], w));
+      // Two rounds of Gram–Schmidt keep the basis orthogonal to working precision.
+      for (let round = 0; round < 2; round++) {
+        for (const q of basis) {
+          const c = dot(q, w);
+          for (let i = 0; i < n; i++) w[i] -= c * q[i];
+        }
+      }
+      const norm = Math.sqrt(dot(w, w));
+      beta.push(norm);
+      if (j === steps - 1) break;
+      if (norm < 1e-13 * Math.max(1, Math.abs(alpha[0]))) {
+        exhausted = true;
+        break;
+      }
+      basis.push(w.map((x) => x / norm));
+    }
+    const m = alpha.length;
+    const t = Matrix.zeros(m, m);
+    for (let i = 0; i < m; i++) {
+      t.set(i, i, alpha[i]);
+      if (i + 1 < m) {
+        t.set(i, i + 1, beta[i]);
+        t.set(i + 1, i, beta[i]);
+      }
+    }
+    const ritz = new EigenvalueDecomposition(t, { assumeSymmetric: true });
+    const theta = ritz.realEigenvalues;
+    const s = ritz.eigenvectorMatrix;
+    const order = theta.map((_, i) => i).sort((i, j) => theta[j] - theta[i]);
+    const top = order.slice(0, Math.min(count, m));
+    const scale = Math.max(...theta.map(Math.abs), Number.MIN_VALUE);
+    const residualOf = (i: number) => Math.abs(beta[m - 1] * s.get(m - 1, i));
+    const converged = exhausted || top.every((i) => residualOf(i) <= RESIDUAL_TOLERANCE * scale);
+    if (converged || steps >= n) {
+      const vectors = top.map((i) => {
+        const v = new Float64Array(n);
+        for (let k = 0; k < m; k++) {
+          const c = s.get(k, i);
+          const q = basis[k];
+          for (let r = 0; r < n; r++) v[r] += c * q[r];
+        }
+        const length = Math.sqrt(dot(v, v));
+        return v.map((x) => x / length);
+      });
+      const values = top.map((i) => theta[i]);
+      // A Krylov space that closes early has found every eigenvalue the start reaches; the rest are zero.
+      while (values.length < count) {
+        values.push(0);
+        vectors.push(new Float64Array(n));
+      }
+      return { values, vectors, smallest: theta[order[order.length - 1]], steps: m };
+    }
+    steps = Math.min(n, 2 * steps);
+  }
+}
