@@ -30,3 +30,6 @@ export { fitModel } from './fitting/fit-model';
 export { guessParameters, type FitOptions } from './fitting/starting-point';
 export type { FitFailure, FitResult, FitSuccess } from './fitting/fit-result';
 export type { Weighting } from './fitting/weighting';
+export { parseSpectrumFile } from './import/parse-spectrum-file';
+export { SpectrumImportError } from './import/spectrum-import-error';
+export type { ColumnRole, FrequencyUnit, ImpedanceUnit, ImportOptions, PhaseUnit } from './import/import-options';
