@@ -51,7 +51,7 @@ export class DistanceHistogram {
   protected readonly layout = computed(() => distanceHistogramLayout(this.data(), 640, 260));
   protected readonly summary = computed(() => {
     const d = this.data();
-    const parts = [`Histogram of ${d.calibrationDistances.length} calibration distances`];
+    const parts = [`Histogram of ${d.bins ? d.bins.counts.reduce((a, b) => a + b, 0) : d.calibrationDistances.length} calibration distances`];
     if (d.t95 !== null) parts.push(`T95 ${formatNumber(d.t95, 3)}`);
     if (d.t99 !== null) parts.push(`T99 ${formatNumber(d.t99, 3)}`);
     if (d.sampleDistance !== null) parts.push(`sample distance ${formatNumber(d.sampleDistance, 3)}`);

@@ -49,4 +49,14 @@ describe('distanceHistogramLayout', () => {
     expect(full.h).toBeCloseTo(3 * single.h, 6);
     expect(layout.yTicks.every((t) => Number.isInteger(Number(t.label)))).toBe(true);
   });
+
+  it('draws bins the API counted as given, on an axis that still reaches the sample', () => {
+    const layout = distanceHistogramLayout(
+      { calibrationDistances: [], t95: 0.05, t99: 0.07, sampleDistance: 0.2, bins: { binEdges: [0, 0.02, 0.04, 0.06], counts: [1, 4, 2] } },
+      480,
+      240,
+    );
+    expect(layout.bars.map((b) => [b.from, b.to, b.count])).toEqual([[0, 0.02, 1], [0.02, 0.04, 4], [0.04, 0.06, 2]]);
+    expect(layout.lines.find((l) => l.kind === 'sample')!.x).toBeLessThanOrEqual(layout.area.left + layout.area.width);
+  });
 });

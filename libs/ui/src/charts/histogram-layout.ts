@@ -44,6 +44,8 @@ export interface DistanceHistogramInput {
   readonly t99: number | null;
   /** The sample's distance to its nearest reference lot, if an analysis has one. */
   readonly sampleDistance: number | null;
+  /** Bins the API already counted; when given they are drawn as they are, not re-binned. */
+  readonly bins?: { readonly binEdges: readonly number[]; readonly counts: readonly number[] };
 }
 
 export interface DistanceHistogramLayout {
@@ -70,13 +72,19 @@ export function distanceHistogramLayout(input: DistanceHistogramInput, width: nu
     height: height - MARGIN.top - MARGIN.bottom,
   };
   const values = Array.from(input.calibrationDistances).filter(Number.isFinite);
-  const reach = Math.max(...values, input.t95 ?? 0, input.t99 ?? 0, input.sampleDistance ?? 0, 1e-9);
-  const binTarget = Math.max(5, sturgesBinCount(values.length));
+  const given = input.bins && input.bins.binEdges.length === input.bins.counts.length + 1 ? input.bins : null;
+  const reach = Math.max(...values, ...(given?.binEdges ?? []), input.t95 ?? 0, input.t99 ?? 0, input.sampleDistance ?? 0, 1e-9);
+  const binTarget = Math.max(5, sturgesBinCount(given ? given.counts.reduce((a, b) => a + b, 0) : values.length));
   const x = scaleLinear().domain([0, reach]).range([area.left, area.left + area.width]).nice(binTarget);
-  const edges = x.ticks(binTarget);
-  const top = x.domain()[1];
-  if (edges[edges.length - 1] < top) edges.push(top);
-  const bins = histogramCounts(values, edges);
+  let bins: HistogramBin[];
+  if (given) {
+    bins = given.counts.map((count, i) => ({ from: given.binEdges[i], to: given.binEdges[i + 1], count }));
+  } else {
+    const edges = x.ticks(binTarget);
+    const top = x.domain()[1];
+    if (edges[edges.length - 1] < top) edges.push(top);
+    bins = histogramCounts(values, edges);
+  }
   const maxCount = Math.max(1, ...bins.map((b) => b.count));
   const y = scaleLinear().domain([0, maxCount]).range([area.top + area.height, area.top]).nice();
   const lines: { kind: 't95' | 't99' | 'sample'; x: number; label: string }[] = [];

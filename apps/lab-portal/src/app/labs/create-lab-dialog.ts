@@ -1,0 +1,64 @@
+import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import type { CreateLabRequest, LabSummary } from '@ohmprint/contracts';
+import { ApiProblem, Notice, showFieldErrors } from '@ohmprint/ui';
+import { LabsData } from './labs-data';
+
+@Component({
+  selector: 'ohm-create-lab-dialog',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  imports: [ReactiveFormsModule, MatDialogModule, MatButtonModule, MatFormFieldModule, MatInputModule, MatProgressBarModule, Notice],
+  templateUrl: './create-lab-dialog.html',
+})
+export class CreateLabDialog {
+  private readonly data = inject(LabsData);
+  private readonly dialogRef = inject<MatDialogRef<CreateLabDialog, LabSummary>>(MatDialogRef);
+  private readonly fb = inject(NonNullableFormBuilder);
+  protected readonly form = this.fb.group({
+    name: ['', [Validators.required, Validators.minLength(2), Validators.maxLength(120)]],
+    legalName: ['', [Validators.required, Validators.minLength(2), Validators.maxLength(200)]],
+    address: ['', [Validators.required, Validators.minLength(5), Validators.maxLength(500)]],
+    accreditationBody: ['', Validators.maxLength(120)],
+    accreditationNumber: ['', Validators.maxLength(60)],
+    turnaroundTargetDays: [10, [Validators.required, Validators.min(1), Validators.max(90)]],
+    firstAdmin: this.fb.group({
+      email: ['', [Validators.required, Validators.email]],
+      displayName: ['', Validators.maxLength(120)],
+    }),
+  });
+  protected readonly saving = signal(false);
+  protected readonly problem = signal<ApiProblem | null>(null);
+
+  protected create(): void {
+    if (this.form.invalid) {
+      this.form.markAllAsTouched();
+      return;
+    }
+    const v = this.form.getRawValue();
+    const body: CreateLabRequest = {
+      name: v.name,
+      legalName: v.legalName,
+      address: v.address,
+      turnaroundTargetDays: Number(v.turnaroundTargetDays),
+      ...(v.accreditationBody ? { accreditationBody: v.accreditationBody } : {}),
+      ...(v.accreditationNumber ? { accreditationNumber: v.accreditationNumber } : {}),
+      firstAdmin: { email: v.firstAdmin.email, ...(v.firstAdmin.displayName ? { displayName: v.firstAdmin.displayName } : {}) },
+    };
+    this.saving.set(true);
+    this.problem.set(null);
+    this.data.create(body).subscribe({
+      next: (lab) => this.dialogRef.close(lab),
+      error: (error: unknown) => {
+        const problem = ApiProblem.from(error);
+        this.saving.set(false);
+        this.problem.set(problem);
+        showFieldErrors(this.form, problem);
+      },
+    });
+  }
+}

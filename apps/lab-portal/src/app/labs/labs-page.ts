@@ -1,0 +1,66 @@
+import { DatePipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, DestroyRef, inject, viewChild, type AfterViewInit } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatDialog } from '@angular/material/dialog';
+import { MatIconModule } from '@angular/material/icon';
+import { MatPaginator, MatPaginatorModule } from '@angular/material/paginator';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSort, MatSortModule } from '@angular/material/sort';
+import { MatTableModule } from '@angular/material/table';
+import type { LabSummary } from '@ohmprint/contracts';
+import { EmptyState, Notifier, SearchField, ServerList } from '@ohmprint/ui';
+import { Subject, filter } from 'rxjs';
+import { ChangeLabStatusDialog } from './change-lab-status-dialog';
+import { CreateLabDialog } from './create-lab-dialog';
+import { LabsData } from './labs-data';
+
+@Component({
+  selector: 'ohm-labs-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  imports: [DatePipe, MatTableModule, MatSortModule, MatPaginatorModule, MatProgressBarModule, MatButtonModule, MatIconModule, SearchField, EmptyState],
+  templateUrl: './labs-page.html',
+})
+export class LabsPage implements AfterViewInit {
+  private readonly data = inject(LabsData);
+  private readonly dialog = inject(MatDialog);
+  private readonly notifier = inject(Notifier);
+  private readonly destroyRef = inject(DestroyRef);
+  private readonly sort = viewChild.required(MatSort);
+  private readonly paginator = viewChild.required(MatPaginator);
+
+  protected readonly columns = ['name', 'legalName', 'status', 'staffCount', 'createdAt', 'actions'];
+  protected readonly list = new ServerList<LabSummary>();
+  protected readonly search = new Subject<string>();
+
+  ngAfterViewInit(): void {
+    this.list.connect({
+      sort: this.sort(),
+      paginator: this.paginator(),
+      search: this.search,
+      fetch: (query) => this.data.list(query),
+      destroyRef: this.destroyRef,
+    });
+  }
+
+  protected openCreate(): void {
+    this.dialog
+      .open<CreateLabDialog, void, LabSummary>(CreateLabDialog)
+      .afterClosed()
+      .pipe(filter((lab): lab is LabSummary => !!lab))
+      .subscribe((lab) => {
+        this.notifier.success(`${lab.name} was created and its first admin invited.`);
+        this.list.reload();
+      });
+  }
+
+  protected changeStatus(lab: LabSummary): void {
+    this.dialog
+      .open<ChangeLabStatusDialog, LabSummary, LabSummary>(ChangeLabStatusDialog, { data: lab })
+      .afterClosed()
+      .pipe(filter((updated): updated is LabSummary => !!updated))
+      .subscribe((updated) => {
+        this.notifier.success(`${updated.name} is now ${updated.status}.`);
+        this.list.reload();
+      });
+  }
+}

@@ -1,0 +1,77 @@
+import { DecimalPipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, DestroyRef, inject, signal, viewChild, type AfterViewInit } from '@angular/core';
+import { FormsModule } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatChipsModule } from '@angular/material/chips';
+import { MatIconModule } from '@angular/material/icon';
+import { MatPaginator, MatPaginatorModule } from '@angular/material/paginator';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSort, MatSortModule } from '@angular/material/sort';
+import { MatTableModule } from '@angular/material/table';
+import { Router, RouterLink } from '@angular/router';
+import { SAMPLE_STATES, type SampleState, type WorkQueueItem } from '@ohmprint/contracts';
+import { EmptyState, SAMPLE_STATE_LOOK, SampleStateChip, SearchField, ServerList, Session } from '@ohmprint/ui';
+import { Subject } from 'rxjs';
+import { QueueData } from './queue-data';
+import { statesForRoles } from './role-states';
+
+/** What needs me now: samples in the states my roles act on, oldest first, against turnaround. */
+@Component({
+  selector: 'ohm-work-queue',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  imports: [
+    DecimalPipe, FormsModule, RouterLink, MatTableModule, MatSortModule, MatPaginatorModule, MatProgressBarModule,
+    MatChipsModule, MatIconModule, MatButtonModule, SearchField, EmptyState, SampleStateChip,
+  ],
+  templateUrl: './work-queue.html',
+  styleUrl: './work-queue.scss',
+})
+export class WorkQueue implements AfterViewInit {
+  private readonly data = inject(QueueData);
+  private readonly router = inject(Router);
+  private readonly destroyRef = inject(DestroyRef);
+  private readonly session = inject(Session);
+  private readonly sort = viewChild.required(MatSort);
+  private readonly paginator = viewChild.required(MatPaginator);
+
+  protected readonly allStates = SAMPLE_STATES;
+  protected readonly stateLook = SAMPLE_STATE_LOOK;
+  protected readonly columns = ['code', 'state', 'product', 'client', 'age', 'due'];
+  protected readonly list = new ServerList<WorkQueueItem>();
+  protected readonly search = new Subject<string>();
+  protected readonly states = signal<SampleState[]>(statesForRoles(this.session.roles()));
+  protected readonly isIntake = this.session.hasAnyRole(['intake-technician']);
+
+  ngAfterViewInit(): void {
+    this.list.connect({
+      sort: this.sort(),
+      paginator: this.paginator(),
+      search: this.search,
+      fetch: (query) => this.data.list(query, this.states()),
+      destroyRef: this.destroyRef,
+    });
+  }
+
+  protected filterStates(states: SampleState[]): void {
+    this.states.set(states);
+    this.paginator().pageIndex = 0;
+    this.list.reload();
+  }
+
+  protected showAll(): void {
+    this.filterStates([]);
+  }
+
+  /** Share of the turnaround target used so far, capped for the bar. */
+  protected agePercent(item: WorkQueueItem): number {
+    return Math.min(100, (item.ageDays / Math.max(1, item.turnaroundDays)) * 100);
+  }
+
+  protected open(item: WorkQueueItem): void {
+    if (item.state === 'awaiting-arrival' || item.state === 'received') {
+      void this.router.navigate(['/intake'], { queryParams: { code: item.code } });
+    } else {
+      void this.router.navigate(['/samples', item.id]);
+    }
+  }
+}

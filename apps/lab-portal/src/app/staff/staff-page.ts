@@ -1,0 +1,106 @@
+import { DatePipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, DestroyRef, inject, viewChild, type AfterViewInit } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatChipsModule } from '@angular/material/chips';
+import { MatDialog } from '@angular/material/dialog';
+import { MatIconModule } from '@angular/material/icon';
+import { MatMenuModule } from '@angular/material/menu';
+import { MatPaginator, MatPaginatorModule } from '@angular/material/paginator';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSort, MatSortModule } from '@angular/material/sort';
+import { MatTableModule } from '@angular/material/table';
+import type { Invitation, LabRole, StaffMember } from '@ohmprint/contracts';
+import { EmptyState, Notifier, ROLE_LABELS, SearchField, ServerList, Session, confirmAction } from '@ohmprint/ui';
+import { Subject, filter, switchMap } from 'rxjs';
+import { ChangeRolesDialog } from './change-roles-dialog';
+import { InviteStaffDialog } from './invite-staff-dialog';
+import { StaffData } from './staff-data';
+
+@Component({
+  selector: 'ohm-staff-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  imports: [
+    DatePipe,
+    MatTableModule,
+    MatSortModule,
+    MatPaginatorModule,
+    MatProgressBarModule,
+    MatButtonModule,
+    MatIconModule,
+    MatMenuModule,
+    MatChipsModule,
+    SearchField,
+    EmptyState,
+  ],
+  templateUrl: './staff-page.html',
+})
+export class StaffPage implements AfterViewInit {
+  private readonly data = inject(StaffData);
+  private readonly dialog = inject(MatDialog);
+  private readonly notifier = inject(Notifier);
+  private readonly destroyRef = inject(DestroyRef);
+  private readonly sort = viewChild.required(MatSort);
+  private readonly paginator = viewChild.required(MatPaginator);
+  private readonly session = inject(Session);
+
+  protected readonly columns = ['displayName', 'email', 'roles', 'status', 'createdAt', 'actions'];
+  protected readonly list = new ServerList<StaffMember>();
+  protected readonly search = new Subject<string>();
+
+  ngAfterViewInit(): void {
+    this.list.connect({
+      sort: this.sort(),
+      paginator: this.paginator(),
+      search: this.search,
+      fetch: (query) => this.data.list(query),
+      destroyRef: this.destroyRef,
+    });
+  }
+
+  protected roleLabel(role: LabRole): string {
+    return ROLE_LABELS[role];
+  }
+
+  protected isMe(member: StaffMember): boolean {
+    return member.id === this.session.user()?.id;
+  }
+
+  protected openInvite(): void {
+    this.dialog
+      .open<InviteStaffDialog, void, Invitation>(InviteStaffDialog)
+      .afterClosed()
+      .pipe(filter((invitation): invitation is Invitation => !!invitation))
+      .subscribe((invitation) => {
+        this.notifier.success(`Invitation sent to ${invitation.email}.`);
+        this.list.reload();
+      });
+  }
+
+  protected changeRoles(member: StaffMember): void {
+    this.dialog
+      .open<ChangeRolesDialog, StaffMember, StaffMember>(ChangeRolesDialog, { data: member })
+      .afterClosed()
+      .pipe(filter((updated): updated is StaffMember => !!updated))
+      .subscribe((updated) => {
+        this.notifier.success(`Roles of ${updated.displayName} saved.`);
+        this.list.reload();
+      });
+  }
+
+  protected deactivate(member: StaffMember): void {
+    confirmAction(this.dialog, {
+      title: `Deactivate ${member.displayName}?`,
+      message: `${member.email} will be signed out everywhere and can no longer sign in. Their past work, signatures and audit entries stay as they are.`,
+      confirmLabel: 'Deactivate',
+      destructive: true,
+    })
+      .pipe(
+        filter(Boolean),
+        switchMap(() => this.data.deactivate(member.id)),
+      )
+      .subscribe(() => {
+        this.notifier.success(`${member.displayName} was deactivated.`);
+        this.list.reload();
+      });
+  }
+}
