@@ -1,0 +1,187 @@
+import type { EntityManager } from 'typeorm';
+import type { IntakePhoto, Page, SampleDetail, WorkQueueItem, WorkQueueQuery } from '@ohmprint/contracts';
+import { ApiError } from '../../core/api-error';
+import { escapeLike, pageParams, toPage } from '../../core/paging';
+import { sampleTiming } from './sample-timing';
+
+interface QueueRow {
+  id: string;
+  code: string;
+  state: WorkQueueItem['state'];
+  product_name: string;
+  matrix: WorkQueueItem['matrix'];
+  client_name: string;
+  placed_at: Date;
+  received_at: Date | null;
+  turnaround_days: number;
+  total: string;
+}
+
+const QUEUE_SORT: Record<WorkQueueQuery['sort'], string> = {
+  // Oldest first is "age descending", i.e. the clock's start ascending.
+  age: 'COALESCE(s.received_at, o.placed_at)',
+  code: 's.code',
+  state: 's.state',
+  product: 'lower(p.name)',
+  client: 'lower(co.name)',
+};
+
+/** The lab's work queue: samples by state, with age against the turnaround target. */
+export async function workQueue(manager: EntityManager, labId: string, query: WorkQueueQuery): Promise<Page<WorkQueueItem>> {
+  const params: unknown[] = [labId];
+  const where = ['s.lab_id = $1'];
+  if (query.state.length) {
+    params.push(query.state);
+    where.push(`s.state = ANY($${params.length}::text[])`);
+  }
+  if (query.q) {
+    params.push(escapeLike(query.q));
+    const p = `$${params.length}`;
+    where.push(`(s.code ILIKE ${p} OR p.name ILIKE ${p} OR co.name ILIKE ${p} OR s.claimed_lot ILIKE ${p})`);
+  }
+  // For age the user's direction is about age, the opposite of the timestamp's.
+  const ascending = query.sort === 'age' ? query.dir === 'desc' : query.dir === 'asc';
+  const { skip, take } = pageParams(query);
+  params.push(take, skip);
+  const rows: QueueRow[] = await manager.query(
+    `SELECT s.id, s.code, s.state, p.name AS product_name, p.matrix, co.name AS client_name,
+            o.placed_at, s.received_at, l.turnaround_target_days AS turnaround_days,
+            count(*) OVER () AS total
+     FROM sample s
+     JOIN test_order o ON o.id = s.order_id AND o.lab_id = s.lab_id
+     JOIN product p ON p.id = o.product_id AND p.lab_id = s.lab_id
+     JOIN client_organisation co ON co.id = o.client_organisation_id AND co.lab_id = s.lab_id
+     JOIN lab l ON l.id = s.lab_id
+     WHERE ${where.join(' AND ')}
+     ORDER BY ${QUEUE_SORT[query.sort]} ${ascending ? 'ASC' : 'DESC'}, s.code ASC
+     LIMIT $${params.length - 1} OFFSET $${params.length}`,
+    params,
+  );
+  const now = new Date();
+  const items = rows.map(
+    (r): WorkQueueItem => ({
+      id: r.id,
+      code: r.code,
+      state: r.state,
+      productName: r.product_name,
+      matrix: r.matrix,
+      clientOrganisationName: r.client_name,
+      placedAt: r.placed_at.toISOString(),
+      receivedAt: r.received_at?.toISOString() ?? null,
+      turnaroundDays: r.turnaround_days,
+      ...sampleTiming(r.placed_at, r.received_at, r.turnaround_days, now),
+    }),
+  );
+  return toPage(items, rows.length ? Number(rows[0].total) : await countQueue(manager, where, params.slice(0, -2)), query);
+}
+
+/** A page past the end has no rows to carry the total, so count separately. */
+async function countQueue(manager: EntityManager, where: string[], params: unknown[]): Promise<number> {
+  const [row] = await manager.query(
+    `SELECT count(*) AS n FROM sample s
+     JOIN test_order o ON o.id = s.order_id AND o.lab_id = s.lab_id
+     JOIN product p ON p.id = o.product_id AND p.lab_id = s.lab_id
+     JOIN client_organisation co ON co.id = o.client_organisation_id AND co.lab_id = s.lab_id
+     WHERE ${where.join(' AND ')}`,
+    params,
+  );
+  return Number(row.n);
+}
+
+interface DetailRow {
+  id: string;
+  code: string;
+  state: SampleDetail['state'];
+  obtained_where: string;
+  obtained_on: string;
+  label_text: string;
+  claimed_lot: string;
+  storage_location: string | null;
+  rejection_reason: string | null;
+  received_at: Date | null;
+  order_id: string;
+  placed_at: Date;
+  placed_by_id: string;
+  placed_by_name: string;
+  credits_reserved: number;
+  product_id: string;
+  product_name: string;
+  matrix: SampleDetail['product']['matrix'];
+  client_id: string;
+  client_name: string;
+  turnaround_days: number;
+  intake: (Omit<NonNullable<SampleDetail['intake']>, 'recordedBy'> & { recordedById: string; recordedByName: string }) | null;
+}
+
+/** One query for the sample and its order, product, client and intake; one for its photos. */
+export async function sampleDetail(manager: EntityManager, labId: string, where: { id: string } | { code: string }): Promise<SampleDetail> {
+  const byCode = 'code' in where;
+  const rows: DetailRow[] = await manager.query(
+    `SELECT s.id, s.code, s.state, s.obtained_where, to_char(s.obtained_on, 'YYYY-MM-DD') AS obtained_on,
+            s.label_text, s.claimed_lot, s.storage_location, s.rejection_reason, s.received_at,
+            o.id AS order_id, o.placed_at, o.credits_reserved, pb.id AS placed_by_id, pb.display_name AS placed_by_name,
+            p.id AS product_id, p.name AS product_name, p.matrix, co.id AS client_id, co.name AS client_name,
+            l.turnaround_target_days AS turnaround_days,
+            CASE WHEN i.sample_id IS NULL THEN NULL ELSE json_build_object(
+              'carrier', i.carrier, 'trackingNumber', i.tracking_number,
+              'arrivedAt', to_char(i.arrived_at AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"'),
+              'temperatureC', i.temperature_c, 'sealIntact', i.seal_intact, 'containerCondition', i.container_condition,
+              'volumeMl', i.volume_ml, 'notes', i.notes,
+              'recordedAt', to_char(i.recorded_at AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"'),
+              'recordedById', rb.id, 'recordedByName', rb.display_name) END AS intake
+     FROM sample s
+     JOIN test_order o ON o.id = s.order_id AND o.lab_id = s.lab_id
+     JOIN app_user pb ON pb.id = o.placed_by_user_id
+     JOIN product p ON p.id = o.product_id AND p.lab_id = s.lab_id
+     JOIN client_organisation co ON co.id = o.client_organisation_id AND co.lab_id = s.lab_id
+     JOIN lab l ON l.id = s.lab_id
+     LEFT JOIN sample_intake i ON i.sample_id = s.id AND i.lab_id = s.lab_id
+     LEFT JOIN app_user rb ON rb.id = i.recorded_by_user_id
+     WHERE s.lab_id = $1 AND ${byCode ? 's.code = $2' : 's.id = $2'}`,
+    [labId, byCode ? where.code : where.id],
+  );
+  const r = rows[0];
+  if (!r) throw ApiError.notFound(byCode ? `Sample ${where.code}` : 'Sample');
+  const photos = await samplePhotos(manager, labId, r.id);
+  const { recordedById, recordedByName, ...intake } = r.intake ?? ({} as NonNullable<DetailRow['intake']>);
+  const timing = sampleTiming(r.placed_at, r.received_at, r.turnaround_days);
+  return {
+    id: r.id,
+    code: r.code,
+    state: r.state,
+    description: { obtainedWhere: r.obtained_where, obtainedOn: r.obtained_on, labelText: r.label_text, claimedLot: r.claimed_lot },
+    order: {
+      id: r.order_id,
+      placedAt: r.placed_at.toISOString(),
+      placedBy: { id: r.placed_by_id, displayName: r.placed_by_name },
+      creditsReserved: r.credits_reserved,
+    },
+    product: { id: r.product_id, name: r.product_name, matrix: r.matrix },
+    clientOrganisation: { id: r.client_id, name: r.client_name },
+    intake: r.intake ? { ...intake, recordedBy: { id: recordedById, displayName: recordedByName } } : null,
+    photos,
+    rejectionReason: r.rejection_reason,
+    storageLocation: r.storage_location,
+    turnaroundDays: r.turnaround_days,
+    ageDays: timing.ageDays,
+    dueAt: timing.dueAt,
+  };
+}
+
+export async function samplePhotos(manager: EntityManager, labId: string, sampleId: string): Promise<IntakePhoto[]> {
+  const rows: { id: string; file_name: string; content_type: string; size_bytes: number; uploaded_at: Date; by_id: string; by_name: string }[] =
+    await manager.query(
+      `SELECT ph.id, ph.file_name, ph.content_type, ph.size_bytes, ph.uploaded_at, u.id AS by_id, u.display_name AS by_name
+       FROM intake_photo ph JOIN app_user u ON u.id = ph.uploaded_by_user_id
+       WHERE ph.lab_id = $1 AND ph.sample_id = $2 ORDER BY ph.uploaded_at, ph.id`,
+      [labId, sampleId],
+    );
+  return rows.map((p) => ({
+    id: p.id,
+    fileName: p.file_name,
+    contentType: p.content_type,
+    sizeBytes: p.size_bytes,
+    uploadedAt: p.uploaded_at.toISOString(),
+    uploadedBy: { id: p.by_id, displayName: p.by_name },
+  }));
+}
