@@ -22,7 +22,7 @@ export interface MdsGoodnessOfFit {
 }
 
 export interface MdsResult {
-  /** One row per point, `dims` columns, in the distances' unit; an axis with λ ≤ 0 is all zeros. */
+  /** One row per point, `dims` columns, in the distances' unit; an axis with λ ≤ 0 (to rounding) is all zeros. */
   readonly coordinates: number[][];
   /** Descending: all n eigenvalues (`full`), or the `dims` largest (`iterative`); unit squared. */
   readonly eigenvalues: number[];
@@ -87,11 +87,14 @@ export function classicalMds(distances: readonly (readonly number[])[], dims: nu
     // B always has the eigenvalue 0 (the centring direction), so the smallest is at most 0.
     smallestEigenvalue = Math.min(0, top.smallest);
   }
+  // Rounding leaves ±1e-15-sized eigenvalues where the true value is 0: such an axis is flat, not a direction.
+  const scale = Math.max(...eigenvalues.map(Math.abs));
+  const carries = (lambda: number) => lambda > ZERO_TOLERANCE * scale;
   const columns = axes.map((v, k) => {
     const lambda = eigenvalues[k];
-    return lambda > 0 ? fixSign(v).map((x) => x * Math.sqrt(lambda)) : new Float64Array(n);
+    return carries(lambda) ? fixSign(v).map((x) => x * Math.sqrt(lambda)) : new Float64Array(n);
   });
   const coordinates = Array.from({ length: n }, (_, i) => columns.map((c) => c[i]));
-  const positiveAxes = eigenvalues.slice(0, dims).filter((x) => x > 0).length;
+  const positiveAxes = eigenvalues.slice(0, dims).filter(carries).length;
   return { coordinates, eigenvalues, method, positiveAxes, goodnessOfFit, negativeEigenvalues, smallestEigenvalue };
 }

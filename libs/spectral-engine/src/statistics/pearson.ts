@@ -48,7 +48,8 @@ export function pearson(x: ArrayLike<number>, y: ArrayLike<number>): PearsonResu
   let dot = 0;
   for (let i = 0; i < n; i++) dot += (xc[i] / nx) * (yc[i] / ny);
   const r = Math.max(-1, Math.min(1, dot));
-  if (n === 2) return { r, p: 1, n };
+  // Two points always lie on a line; SciPy returns the exact sign rather than a rounded ±0.9999….
+  if (n === 2) return { r: Math.sign(x[1] - x[0]) * Math.sign(y[1] - y[0]), p: 1, n };
   const halfDf = n / 2 - 1;
   const p = Math.min(1, 2 * regularisedIncompleteBeta(halfDf, halfDf, (1 - Math.abs(r)) / 2));
   return { r, p, n };
