@@ -1,11 +1,23 @@
 import { Router } from 'express';
 import { authRouter } from './auth/router';
+import { clientOrganisationsRouter } from './client-organisations/router';
+import { clientTeamRouter } from './client-team/router';
 import { healthRouter } from './health/router';
+import { invitationsRouter } from './invitations/router';
+import { meRouter } from './me/router';
+import { operatorLabsRouter } from './operator-labs/router';
+import { staffRouter } from './staff/router';
 
 /** Every feature's router, one line each. Paths are under /api. */
 export function apiRoutes(): Router {
   const api = Router();
   api.use('/health', healthRouter());
   api.use('/auth', authRouter());
+  api.use('/invitations', invitationsRouter());
+  api.use('/me', meRouter());
+  api.use('/lab/staff', staffRouter());
+  api.use('/lab/client-organisations', clientOrganisationsRouter());
+  api.use('/operator/labs', operatorLabsRouter());
+  api.use('/client/team', clientTeamRouter());
   return api;
 }
