@@ -2,3 +2,4 @@
 export { useTestApp, type TestApp } from './test-app';
 export { demoEmail, DEMO_PASSWORD, type DemoLabKey } from './demo-accounts';
 export { readMailbox, clearMailbox, type CaughtMail } from './mailbox';
+export { latestEmailTo, linkToken } from './outbox';

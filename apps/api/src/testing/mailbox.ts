@@ -1,4 +1,4 @@
-/** What maildev's REST API returns for one caught message (the fields tests read). */
+/** What maildev's REST API (/api/email) returns for one caught message (the fields tests read). */
 export interface CaughtMail {
   id: string;
   subject: string;
@@ -13,7 +13,7 @@ function inboxUrl(): string {
 
 /** Messages caught by maildev for `address` (the mail catcher is shared: filter by recipient). */
 export async function readMailbox(address: string): Promise<CaughtMail[]> {
-  const res = await fetch(`${inboxUrl()}/email`);
+  const res = await fetch(`${inboxUrl()}/api/email`);
   if (!res.ok) throw new Error(`the mail catcher answered ${res.status}`);
   const all = (await res.json()) as CaughtMail[];
   return all.filter((m) => m.to.some((t) => t.address.toLowerCase() === address.toLowerCase()));
@@ -22,6 +22,6 @@ export async function readMailbox(address: string): Promise<CaughtMail[]> {
 /** Deletes the caught messages for `address` only, so parallel test files do not disturb each other. */
 export async function clearMailbox(address: string): Promise<void> {
   for (const mail of await readMailbox(address)) {
-    await fetch(`${inboxUrl()}/email/${mail.id}`, { method: 'DELETE' });
+    await fetch(`${inboxUrl()}/api/email/${mail.id}`, { method: 'DELETE' });
   }
 }

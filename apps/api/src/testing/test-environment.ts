@@ -24,4 +24,5 @@ export function loadTestEnvironment(): void {
   env.OUTBOX_WORKER = 'false';
   env.LOG_LEVEL ??= 'silent';
   env.PORTALS_DIR = join(ROOT, '.data', 'no-portals-under-test');
+  env.PUBLIC_BASE_URL = 'http://127.0.0.1:4300';
 }
