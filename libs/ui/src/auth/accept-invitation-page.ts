@@ -8,11 +8,13 @@ import { Router, RouterLink } from '@angular/router';
 import type { InvitationPreview } from '@ohmprint/contracts';
 import { ApiProblem } from '../errors/api-problem';
 import { showFieldErrors } from '../errors/form-problems';
+import { Notifier } from '../errors/notifier';
 import { Notice } from '../feedback/notice';
 import { AuthApi } from './auth-api';
 import { AuthFrame } from './auth-frame';
 import { PASSWORD_MIN, passwordValidators, passwordsMatch } from './password-rules';
 import { roleList } from './role-labels';
+import { Session } from './session';
 
 @Component({
   selector: 'ohm-accept-invitation-page',
@@ -24,6 +26,8 @@ import { roleList } from './role-labels';
 export class AcceptInvitationPage implements OnInit {
   private readonly api = inject(AuthApi);
   private readonly router = inject(Router);
+  private readonly session = inject(Session);
+  private readonly notifier = inject(Notifier);
   /** From the e-mailed link `?token=`. */
   readonly token = input<string>();
   protected readonly minLength = PASSWORD_MIN;
@@ -72,7 +76,16 @@ export class AcceptInvitationPage implements OnInit {
     this.saving.set(true);
     this.problem.set(null);
     this.api.acceptInvitation({ token, displayName, password }).subscribe({
-      next: () => void this.router.navigate(['/sign-in'], { queryParams: { joined: 1, email: invitation.email } }),
+      next: (response) => {
+        try {
+          const me = this.session.adopt(response);
+          this.notifier.success(`Welcome, ${me.displayName}. Your account is ready.`);
+          void this.router.navigate(['/']);
+        } catch {
+          // The sign-in screen explains which portal this account belongs to.
+          void this.router.navigate(['/sign-in'], { queryParams: { email: invitation.email } });
+        }
+      },
       error: (error: unknown) => {
         const problem = ApiProblem.from(error);
         this.saving.set(false);

@@ -51,8 +51,11 @@ export class AuthApi {
       .pipe(map((r) => InvitationPreviewSchema.parse(r)));
   }
 
-  acceptInvitation(body: AcceptInvitationRequest): Observable<unknown> {
-    return this.http.post('/api/invitations/accept', body, { context: authEndpoint() });
+  /** Accepting signs the new user in (and sets the refresh cookie). */
+  acceptInvitation(body: AcceptInvitationRequest): Observable<SessionResponse> {
+    return this.http
+      .post('/api/invitations/accept', body, { context: authEndpoint(), withCredentials: true })
+      .pipe(map((r) => SessionResponseSchema.parse(r)));
   }
 
   me(): Observable<Me> {
@@ -63,7 +66,10 @@ export class AuthApi {
     return this.http.patch('/api/me', body, { context: quietRequest() }).pipe(map((r) => MeSchema.parse(r)));
   }
 
-  changePassword(body: ChangePasswordRequest): Observable<unknown> {
-    return this.http.post('/api/me/password', body, { context: quietRequest() });
+  /** Every other sign-in ends; this one continues with the fresh session returned. */
+  changePassword(body: ChangePasswordRequest): Observable<SessionResponse> {
+    return this.http
+      .post('/api/me/password', body, { context: quietRequest(), withCredentials: true })
+      .pipe(map((r) => SessionResponseSchema.parse(r)));
   }
 }

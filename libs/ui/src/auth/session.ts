@@ -1,6 +1,6 @@
 import { Injectable, computed, inject, signal } from '@angular/core';
 import { Router } from '@angular/router';
-import type { Me, Role } from '@ohmprint/contracts';
+import type { Me, Role, SessionResponse } from '@ohmprint/contracts';
 import { catchError, finalize, firstValueFrom, map, of, shareReplay, tap, timeout, type Observable } from 'rxjs';
 import { PORTAL } from '../portal/portal-config';
 import { AuthApi } from './auth-api';
@@ -51,16 +51,21 @@ export class Session {
   }
 
   signIn(email: string, password: string): Observable<Me> {
-    return this.api.signIn({ email, password }).pipe(
-      map(({ accessToken, user }) => {
-        if (!this.fitsThisPortal(user)) {
-          this.otherPortalAccount.set(user);
-          throw new WrongPortalError(user);
-        }
-        this.accept(accessToken, user);
-        return user;
-      }),
-    );
+    return this.api.signIn({ email, password }).pipe(map((response) => this.adopt(response)));
+  }
+
+  /**
+   * Takes over a session the API just opened (sign-in, accepted invitation, changed password).
+   * Throws WrongPortalError, keeping nothing, when the account belongs to the other portal.
+   */
+  adopt({ accessToken, user }: SessionResponse): Me {
+    if (!this.fitsThisPortal(user)) {
+      this.otherPortalAccount.set(user);
+      this.forget();
+      throw new WrongPortalError(user);
+    }
+    this.accept(accessToken, user);
+    return user;
   }
 
   /** Called once at start: a valid refresh cookie signs the user back in. Never throws. */
@@ -78,14 +83,9 @@ export class Session {
   refresh(): Observable<string> {
     if (!this.pendingRefresh) {
       this.pendingRefresh = this.api.refresh().pipe(
-        map(({ accessToken, user }) => {
-          if (!this.fitsThisPortal(user)) {
-            this.otherPortalAccount.set(user);
-            this.forget();
-            throw new WrongPortalError(user);
-          }
-          this.accept(accessToken, user);
-          return accessToken;
+        map((response) => {
+          this.adopt(response);
+          return response.accessToken;
         }),
         finalize(() => (this.pendingRefresh = null)),
         shareReplay({ bufferSize: 1, refCount: false }),

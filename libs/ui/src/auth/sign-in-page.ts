@@ -30,7 +30,6 @@ export class SignInPage implements OnInit {
   readonly expired = input<string>();
   readonly signedOut = input<string>();
   readonly passwordReset = input<string>();
-  readonly joined = input<string>();
   readonly email = input<string>();
 
   protected readonly form = inject(NonNullableFormBuilder).group({

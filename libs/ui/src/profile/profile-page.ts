@@ -72,10 +72,11 @@ export class ProfilePage {
     const { currentPassword, password } = this.passwordForm.getRawValue();
     this.savingPassword.set(true);
     this.api.changePassword({ currentPassword, newPassword: password }).subscribe({
-      next: () => {
+      next: (response) => {
+        this.session.adopt(response);
         this.savingPassword.set(false);
         this.passwordForm.reset();
-        this.notifier.success('Your password was changed.');
+        this.notifier.success('Your password was changed. Other devices were signed out.');
       },
       error: (error: unknown) => {
         const problem = ApiProblem.from(error);

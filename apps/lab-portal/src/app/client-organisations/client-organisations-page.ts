@@ -10,7 +10,7 @@ import { MatTableModule } from '@angular/material/table';
 import type { ClientOrganisation } from '@ohmprint/contracts';
 import { EmptyState, Notifier, SearchField, ServerList } from '@ohmprint/ui';
 import { Subject, filter } from 'rxjs';
-import { ClientOrganisationsData } from './client-organisations-data';
+import { ClientOrganisationsData, type OrganisationCreated } from './client-organisations-data';
 import { InviteOrganisationDialog } from './invite-organisation-dialog';
 
 @Component({
@@ -43,11 +43,11 @@ export class ClientOrganisationsPage implements AfterViewInit {
 
   protected openInvite(): void {
     this.dialog
-      .open<InviteOrganisationDialog, void, ClientOrganisation>(InviteOrganisationDialog)
+      .open<InviteOrganisationDialog, void, OrganisationCreated>(InviteOrganisationDialog)
       .afterClosed()
-      .pipe(filter((org): org is ClientOrganisation => !!org))
-      .subscribe((org) => {
-        this.notifier.success(`${org.name} was added and its first admin invited.`);
+      .pipe(filter((created): created is OrganisationCreated => !!created))
+      .subscribe(({ organisation, invitation }) => {
+        this.notifier.success(`${organisation.name} was added; an invitation went to ${invitation.email}.`);
         this.list.reload();
       });
   }

@@ -5,9 +5,9 @@ import { MatDialogModule, MatDialogRef } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
-import type { ClientOrganisation, CreateClientOrganisationRequest } from '@ohmprint/contracts';
+import type { CreateClientOrganisationRequest } from '@ohmprint/contracts';
 import { ApiProblem, Notice, showFieldErrors } from '@ohmprint/ui';
-import { ClientOrganisationsData } from './client-organisations-data';
+import { ClientOrganisationsData, type OrganisationCreated } from './client-organisations-data';
 
 @Component({
   selector: 'ohm-invite-organisation-dialog',
@@ -17,7 +17,7 @@ import { ClientOrganisationsData } from './client-organisations-data';
 })
 export class InviteOrganisationDialog {
   private readonly data = inject(ClientOrganisationsData);
-  private readonly dialogRef = inject<MatDialogRef<InviteOrganisationDialog, ClientOrganisation>>(MatDialogRef);
+  private readonly dialogRef = inject<MatDialogRef<InviteOrganisationDialog, OrganisationCreated>>(MatDialogRef);
   private readonly fb = inject(NonNullableFormBuilder);
   protected readonly form = this.fb.group({
     name: ['', [Validators.required, Validators.minLength(2), Validators.maxLength(160)]],
@@ -44,7 +44,7 @@ export class InviteOrganisationDialog {
     this.saving.set(true);
     this.problem.set(null);
     this.data.create(body).subscribe({
-      next: (organisation) => this.dialogRef.close(organisation),
+      next: (created) => this.dialogRef.close(created),
       error: (error: unknown) => {
         const problem = ApiProblem.from(error);
         this.saving.set(false);

@@ -47,11 +47,11 @@ export class IntakeData {
   }
 
   accept(id: string, body: AcceptSample): Observable<SampleDetail> {
-    return this.http.post(`/api/lab/samples/${id}/acceptance`, body, { context: quietRequest() }).pipe(map((r) => SampleDetailSchema.parse(r)));
+    return this.http.post(`/api/lab/samples/${id}/accept`, body, { context: quietRequest() }).pipe(map((r) => SampleDetailSchema.parse(r)));
   }
 
   reject(id: string, body: RejectSample): Observable<SampleDetail> {
-    return this.http.post(`/api/lab/samples/${id}/rejection`, body, { context: quietRequest() }).pipe(map((r) => SampleDetailSchema.parse(r)));
+    return this.http.post(`/api/lab/samples/${id}/reject`, body, { context: quietRequest() }).pipe(map((r) => SampleDetailSchema.parse(r)));
   }
 
   custody(id: string): Observable<CustodyTimeline> {

@@ -5,9 +5,9 @@ import { MatDialogModule, MatDialogRef } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
-import type { CreateLabRequest, LabSummary } from '@ohmprint/contracts';
+import type { CreateLabRequest } from '@ohmprint/contracts';
 import { ApiProblem, Notice, showFieldErrors } from '@ohmprint/ui';
-import { LabsData } from './labs-data';
+import { LabsData, type LabCreated } from './labs-data';
 
 @Component({
   selector: 'ohm-create-lab-dialog',
@@ -17,7 +17,7 @@ import { LabsData } from './labs-data';
 })
 export class CreateLabDialog {
   private readonly data = inject(LabsData);
-  private readonly dialogRef = inject<MatDialogRef<CreateLabDialog, LabSummary>>(MatDialogRef);
+  private readonly dialogRef = inject<MatDialogRef<CreateLabDialog, LabCreated>>(MatDialogRef);
   private readonly fb = inject(NonNullableFormBuilder);
   protected readonly form = this.fb.group({
     name: ['', [Validators.required, Validators.minLength(2), Validators.maxLength(120)]],
@@ -52,7 +52,7 @@ export class CreateLabDialog {
     this.saving.set(true);
     this.problem.set(null);
     this.data.create(body).subscribe({
-      next: (lab) => this.dialogRef.close(lab),
+      next: (created) => this.dialogRef.close(created),
       error: (error: unknown) => {
         const problem = ApiProblem.from(error);
         this.saving.set(false);

@@ -1,6 +1,7 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import {
+  InvitationSchema,
   LabSummarySchema,
   pageOf,
   type ChangeLabStatusRequest,
@@ -11,8 +12,11 @@ import {
 } from '@ohmprint/contracts';
 import { quietRequest, queryParams } from '@ohmprint/ui';
 import { map, type Observable } from 'rxjs';
+import { z } from 'zod';
 
 const LabPageSchema = pageOf(LabSummarySchema);
+const LabCreatedSchema = z.object({ lab: LabSummarySchema, invitation: InvitationSchema });
+export type LabCreated = z.infer<typeof LabCreatedSchema>;
 
 /** Lab tenants, as the platform operator manages them. */
 @Injectable({ providedIn: 'root' })
@@ -23,11 +27,13 @@ export class LabsData {
     return this.http.get('/api/operator/labs', { params: queryParams(query) }).pipe(map((r) => LabPageSchema.parse(r)));
   }
 
-  create(body: CreateLabRequest): Observable<LabSummary> {
-    return this.http.post('/api/operator/labs', body, { context: quietRequest() }).pipe(map((r) => LabSummarySchema.parse(r)));
+  /** Creates the tenant and e-mails its first admin an invitation. */
+  create(body: CreateLabRequest): Observable<LabCreated> {
+    return this.http.post('/api/operator/labs', body, { context: quietRequest() }).pipe(map((r) => LabCreatedSchema.parse(r)));
   }
 
+  /** Suspend or reactivate; suspension signs all the lab's users out. */
   changeStatus(id: string, body: ChangeLabStatusRequest): Observable<LabSummary> {
-    return this.http.put(`/api/operator/labs/${id}/status`, body, { context: quietRequest() }).pipe(map((r) => LabSummarySchema.parse(r)));
+    return this.http.patch(`/api/operator/labs/${id}`, body, { context: quietRequest() }).pipe(map((r) => LabSummarySchema.parse(r)));
   }
 }

@@ -12,7 +12,7 @@ import { EmptyState, Notifier, SearchField, ServerList } from '@ohmprint/ui';
 import { Subject, filter } from 'rxjs';
 import { ChangeLabStatusDialog } from './change-lab-status-dialog';
 import { CreateLabDialog } from './create-lab-dialog';
-import { LabsData } from './labs-data';
+import { LabsData, type LabCreated } from './labs-data';
 
 @Component({
   selector: 'ohm-labs-page',
@@ -44,11 +44,11 @@ export class LabsPage implements AfterViewInit {
 
   protected openCreate(): void {
     this.dialog
-      .open<CreateLabDialog, void, LabSummary>(CreateLabDialog)
+      .open<CreateLabDialog, void, LabCreated>(CreateLabDialog)
       .afterClosed()
-      .pipe(filter((lab): lab is LabSummary => !!lab))
-      .subscribe((lab) => {
-        this.notifier.success(`${lab.name} was created and its first admin invited.`);
+      .pipe(filter((created): created is LabCreated => !!created))
+      .subscribe(({ lab, invitation }) => {
+        this.notifier.success(`${lab.name} was created; an invitation went to ${invitation.email}.`);
         this.list.reload();
       });
   }

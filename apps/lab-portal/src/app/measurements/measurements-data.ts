@@ -80,7 +80,7 @@ export class MeasurementsData {
 
   exclude(replicateId: string, reason: string): Observable<Replicate> {
     return this.http
-      .post(`/api/lab/replicates/${replicateId}/exclusion`, { reason }, { context: quietRequest() })
+      .post(`/api/lab/replicates/${replicateId}/exclude`, { reason }, { context: quietRequest() })
       .pipe(map((r) => ReplicateSchema.parse(r)));
   }
 }

@@ -12,6 +12,6 @@ export class QueueData {
   list(query: ListQuery, states: readonly SampleState[]): Observable<WorkQueuePage> {
     let params = queryParams(query);
     if (states.length > 0) params = params.set('state', states.join(','));
-    return this.http.get('/api/lab/work-queue', { params }).pipe(map((r) => WorkQueuePageSchema.parse(r)));
+    return this.http.get('/api/lab/samples', { params }).pipe(map((r) => WorkQueuePageSchema.parse(r)));
   }
 }

@@ -36,4 +36,8 @@ export class StaffData {
   deactivate(id: string): Observable<StaffMember> {
     return this.http.post(`/api/lab/staff/${id}/deactivation`, {}).pipe(map((r) => StaffMemberSchema.parse(r)));
   }
+
+  reactivate(id: string): Observable<StaffMember> {
+    return this.http.post(`/api/lab/staff/${id}/reactivation`, {}).pipe(map((r) => StaffMemberSchema.parse(r)));
+  }
 }

@@ -103,4 +103,11 @@ export class StaffPage implements AfterViewInit {
         this.list.reload();
       });
   }
+
+  protected reactivate(member: StaffMember): void {
+    this.data.reactivate(member.id).subscribe(() => {
+      this.notifier.success(`${member.displayName} can sign in again.`);
+      this.list.reload();
+    });
+  }
 }

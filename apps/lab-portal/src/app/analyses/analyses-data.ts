@@ -1,0 +1,72 @@
+import { HttpClient, HttpParams } from '@angular/common/http';
+import { Injectable, inject } from '@angular/core';
+import {
+  AnalysisPageSchema,
+  AnalysisSchema,
+  ApprovalResultSchema,
+  LibraryPageSchema,
+  type Analysis,
+  type AnalysisPage,
+  type ApprovalResult,
+  type LibraryItem,
+  type ListQuery,
+} from '@ohmprint/contracts';
+import { queryParams, quietRequest } from '@ohmprint/ui';
+import { map, type Observable } from 'rxjs';
+
+/** Analyses of a sample against a published library version, and their review. */
+@Injectable({ providedIn: 'root' })
+export class AnalysesData {
+  private readonly http = inject(HttpClient);
+
+  /** The product's library with its versions (only published ones can be analysed against). */
+  libraryFor(productId: string, productName: string): Observable<LibraryItem | null> {
+    const params = new HttpParams().set('q', productName).set('pageSize', 100);
+    return this.http.get('/api/lab/libraries', { params }).pipe(
+      map((r) => LibraryPageSchema.parse(r).items.find((l) => l.product.id === productId) ?? null),
+    );
+  }
+
+  forSample(sampleId: string): Observable<AnalysisPage> {
+    const params = new HttpParams().set('sampleId', sampleId).set('sort', 'createdAt').set('dir', 'desc').set('pageSize', 20);
+    return this.http.get('/api/lab/analyses', { params }).pipe(map((r) => AnalysisPageSchema.parse(r)));
+  }
+
+  /** Analyses waiting for a reviewer, oldest submission first. */
+  awaitingReview(query: ListQuery): Observable<AnalysisPage> {
+    return this.http
+      .get('/api/lab/analyses', { params: queryParams(query).set('status', 'submitted') })
+      .pipe(map((r) => AnalysisPageSchema.parse(r)));
+  }
+
+  get(id: string): Observable<Analysis> {
+    return this.http.get(`/api/lab/analyses/${id}`).pipe(map((r) => AnalysisSchema.parse(r)));
+  }
+
+  run(sampleId: string, libraryVersionId: string): Observable<Analysis> {
+    return this.http
+      .post(`/api/lab/samples/${sampleId}/analyses`, { libraryVersionId }, { context: quietRequest() })
+      .pipe(map((r) => AnalysisSchema.parse(r)));
+  }
+
+  saveRemarks(id: string, remarks: string): Observable<Analysis> {
+    return this.http.put(`/api/lab/analyses/${id}/remarks`, { remarks }).pipe(map((r) => AnalysisSchema.parse(r)));
+  }
+
+  submit(id: string): Observable<Analysis> {
+    return this.http.post(`/api/lab/analyses/${id}/submit`, {}, { context: quietRequest() }).pipe(map((r) => AnalysisSchema.parse(r)));
+  }
+
+  /** Quiet: the four-eyes refusal is explained on the review page itself. */
+  approve(id: string, comments: string): Observable<ApprovalResult> {
+    return this.http
+      .post(`/api/lab/analyses/${id}/approve`, { comments }, { context: quietRequest() })
+      .pipe(map((r) => ApprovalResultSchema.parse(r)));
+  }
+
+  returnToAnalyst(id: string, comments: string): Observable<Analysis> {
+    return this.http
+      .post(`/api/lab/analyses/${id}/return`, { comments }, { context: quietRequest() })
+      .pipe(map((r) => AnalysisSchema.parse(r)));
+  }
+}

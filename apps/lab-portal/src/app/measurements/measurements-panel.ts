@@ -1,0 +1,82 @@
+import { DecimalPipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatDialog } from '@angular/material/dialog';
+import { MatIconModule } from '@angular/material/icon';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import type { Replicate, SampleMeasurements, SpectrumPoints } from '@ohmprint/contracts';
+import { BodeChart, KkResidualChart, NyquistChart, Notice, type KkResiduals, type SpectrumSeries } from '@ohmprint/ui';
+import { forkJoin, of } from 'rxjs';
+import { ExcludeDialog } from './exclude-dialog';
+import { MeasurementUpload } from './measurement-upload';
+import { MeasurementsData } from './measurements-data';
+
+/** The measurements tab of a sample: upload, the replicates overlaid, their checks, and exclusions. */
+@Component({
+  selector: 'ohm-measurements-panel',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  imports: [DecimalPipe, MatButtonModule, MatIconModule, MatProgressBarModule, BodeChart, NyquistChart, KkResidualChart, Notice, MeasurementUpload],
+  templateUrl: './measurements-panel.html',
+  styleUrl: './measurements-panel.scss',
+})
+export class MeasurementsPanel {
+  private readonly data = inject(MeasurementsData);
+  private readonly dialog = inject(MatDialog);
+  readonly sampleId = input.required<string>();
+  /** Analysts may upload and exclude; others look. */
+  readonly canEdit = input(false);
+
+  protected readonly measurements = signal<SampleMeasurements | null>(null);
+  protected readonly spectra = signal<ReadonlyMap<string, SpectrumPoints>>(new Map());
+  protected readonly selected = signal<string | null>(null);
+  protected readonly residuals = signal<KkResiduals | null>(null);
+  protected readonly residualsMissing = signal(false);
+  protected readonly loading = signal(true);
+
+  protected readonly series = computed<SpectrumSeries[]>(() => {
+    const m = this.measurements();
+    if (!m) return [];
+    return m.replicates.flatMap((r) => {
+      const s = this.spectra().get(r.id);
+      return s ? [{ label: `Replicate ${r.replicateNumber}`, ...s, muted: r.excluded }] : [];
+    });
+  });
+  protected readonly selectedReplicate = computed(() => this.measurements()?.replicates.find((r) => r.id === this.selected()) ?? null);
+
+  constructor() {
+    effect(() => this.load(this.sampleId()));
+  }
+
+  protected load(sampleId: string): void {
+    this.loading.set(true);
+    this.data.forSample(sampleId).subscribe((m) => {
+      this.measurements.set(m);
+      this.loading.set(false);
+      const missing = m.replicates.filter((r) => !this.spectra().has(r.id));
+      const wanted = missing.length ? forkJoin(Object.fromEntries(missing.map((r) => [r.id, this.data.spectrum(r.id)]))) : of({});
+      wanted.subscribe((got: Record<string, SpectrumPoints>) => {
+        this.spectra.update((cur) => new Map([...cur, ...Object.entries(got)]));
+      });
+      if (!this.selected() && m.replicates.length > 0) this.select(m.replicates[0]);
+    });
+  }
+
+  protected select(r: Replicate): void {
+    this.selected.set(r.id);
+    this.residuals.set(null);
+    this.residualsMissing.set(false);
+    this.data.kkResiduals(r.id).subscribe({
+      next: (k) => this.residuals.set(k),
+      error: () => this.residualsMissing.set(true),
+    });
+  }
+
+  protected exclude(r: Replicate): void {
+    this.dialog
+      .open<ExcludeDialog, Replicate, Replicate>(ExcludeDialog, { data: r })
+      .afterClosed()
+      .subscribe((updated) => {
+        if (updated) this.load(this.sampleId());
+      });
+  }
+}

@@ -1,0 +1,66 @@
+import { DatePipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, DestroyRef, inject, signal, viewChild, type AfterViewInit } from '@angular/core';
+import { FormsModule } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatButtonToggleModule } from '@angular/material/button-toggle';
+import { MatDialog } from '@angular/material/dialog';
+import { MatIconModule } from '@angular/material/icon';
+import { MatMenuModule } from '@angular/material/menu';
+import { MatPaginator, MatPaginatorModule } from '@angular/material/paginator';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSort, MatSortModule } from '@angular/material/sort';
+import { MatTableModule } from '@angular/material/table';
+import type { ReportDetail, ReportStatus, ReportSummary } from '@ohmprint/contracts';
+import { EmptyState, Notifier, SearchField, ServerList, Session, VerdictChip } from '@ohmprint/ui';
+import { Subject } from 'rxjs';
+import { ReasonDialog, type ReasonDialogData } from './reason-dialog';
+import { ReportFiles } from './report-files';
+import { ReportStatusChip } from './report-status-chip';
+import { ReportsData } from './reports-data';
+
+@Component({
+  selector: 'ohm-reports-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  imports: [DatePipe, FormsModule, MatTableModule, MatSortModule, MatPaginatorModule, MatProgressBarModule, MatButtonModule, MatButtonToggleModule, MatIconModule, MatMenuModule, SearchField, EmptyState, VerdictChip, ReportStatusChip],
+  templateUrl: './reports-page.html',
+  styles: `.number { font-family: ui-monospace, monospace; font-weight: 600; } .filters { display: flex; flex-wrap: wrap; gap: 8px 16px; align-items: center; } .replaces { display: block; font: var(--mat-sys-body-small); color: var(--mat-sys-on-surface-variant); }`,
+})
+export class ReportsPage implements AfterViewInit {
+  private readonly data = inject(ReportsData);
+  private readonly files = inject(ReportFiles);
+  private readonly dialog = inject(MatDialog);
+  private readonly notifier = inject(Notifier);
+  private readonly destroyRef = inject(DestroyRef);
+  private readonly sort = viewChild.required(MatSort);
+  private readonly paginator = viewChild.required(MatPaginator);
+  protected readonly canChange = inject(Session).hasAnyRole(['reviewer', 'lab-admin']);
+  protected readonly columns = ['number', 'status', 'sample', 'client', 'verdict', 'issuedAt', 'actions'];
+  protected readonly list = new ServerList<ReportSummary>();
+  protected readonly search = new Subject<string>();
+  protected readonly status = signal<ReportStatus | null>(null);
+
+  ngAfterViewInit(): void {
+    this.list.connect({ sort: this.sort(), paginator: this.paginator(), search: this.search, fetch: (q) => this.data.list(q, this.status()), destroyRef: this.destroyRef });
+  }
+
+  protected filter(status: ReportStatus | null): void {
+    this.status.set(status);
+    this.paginator().pageIndex = 0;
+    this.list.reload();
+  }
+
+  protected download(r: ReportSummary): void {
+    this.files.download(r.id, `${r.number}.pdf`);
+  }
+
+  protected change(report: ReportSummary, action: ReasonDialogData['action']): void {
+    this.dialog
+      .open<ReasonDialog, ReasonDialogData, ReportDetail>(ReasonDialog, { data: { report, action }, width: '560px' })
+      .afterClosed()
+      .subscribe((r) => {
+        if (!r) return;
+        this.notifier.success(action === 'amend' ? `Amendment ${r.number} issued; ${report.number} now reads as superseded.` : `${r.number} revoked.`);
+        this.list.reload();
+      });
+  }
+}

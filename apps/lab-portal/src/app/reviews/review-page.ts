@@ -1,0 +1,126 @@
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal } from '@angular/core';
+import { FormControl, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { RouterLink } from '@angular/router';
+import type { Analysis, ApprovalResult } from '@ohmprint/contracts';
+import { ApiProblem, Notice, Notifier, Session } from '@ohmprint/ui';
+import { AnalysesData } from '../analyses/analyses-data';
+import { AnalysisResult } from '../analyses/analysis-result';
+import { ReportFiles } from '../reports/report-files';
+import { reviewRefusal } from './review-refusal';
+
+/** The reviewer reads the analysis as submitted and approves (issuing the report) or returns it. */
+@Component({
+  selector: 'ohm-review-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  imports: [ReactiveFormsModule, RouterLink, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatProgressBarModule, Notice, AnalysisResult],
+  template: `
+    @if (analysis(); as a) {
+      <header class="ohm-page-header">
+        <div>
+          <h1>Review of <a class="code" [routerLink]="['/samples', a.sample.id]">{{ a.sample.code }}</a></h1>
+          <p>Analysed by {{ a.analyst.displayName }} against {{ a.libraryVersion.productName }} library version {{ a.libraryVersion.version }}. Status: {{ a.status }}.</p>
+        </div>
+      </header>
+      @if (ownAnalysis()) {
+        <ohm-notice tone="error" icon="group">You ran this analysis, so you cannot review it: a second person must (four-eyes rule).</ohm-notice>
+      }
+      @if (refusal(); as r) {
+        <ohm-notice tone="error" icon="block">{{ r }}</ohm-notice>
+      }
+      <ohm-analysis-result [analysis]="a" />
+      @if (a.remarks) {
+        <h2 class="title">Analyst's remarks</h2>
+        <p>{{ a.remarks }}</p>
+      }
+      @if (issued(); as done) {
+        <ohm-notice tone="success" icon="verified">
+          Report <strong>{{ done.report.number }}</strong> issued, signed and sent to the client.
+          <button mat-button type="button" (click)="download(done)"><mat-icon>download</mat-icon>Download the PDF</button>
+        </ohm-notice>
+      } @else if (a.status === 'submitted') {
+        <section class="decide" aria-labelledby="decide-heading">
+          <h2 id="decide-heading" class="title">Your decision</h2>
+          <mat-form-field class="comments">
+            <mat-label>Comments (required to return; kept with the review)</mat-label>
+            <textarea matInput rows="3" [formControl]="comments"></textarea>
+          </mat-form-field>
+          @if (working(); as w) {
+            <mat-progress-bar mode="indeterminate" [attr.aria-label]="w" />
+            <p class="ohm-muted">{{ w }}</p>
+          }
+          <div class="buttons">
+            <button mat-flat-button type="button" [disabled]="!!working() || ownAnalysis()" (click)="approve(a)"><mat-icon>verified</mat-icon>Approve and issue the report</button>
+            <button mat-stroked-button type="button" [disabled]="!!working() || ownAnalysis() || comments.value.trim().length < 5" (click)="sendBack(a)"><mat-icon>undo</mat-icon>Return to the analyst</button>
+          </div>
+        </section>
+      }
+    } @else {
+      <mat-progress-bar mode="indeterminate" aria-label="Loading the analysis" />
+    }
+  `,
+  styles: `
+    .code { font-family: ui-monospace, monospace; }
+    .title { font: var(--mat-sys-title-medium); margin: 16px 0 4px; }
+    .comments { width: 100%; }
+    .buttons { display: flex; gap: 8px; flex-wrap: wrap; }
+  `,
+})
+export class ReviewPage {
+  private readonly data = inject(AnalysesData);
+  private readonly files = inject(ReportFiles);
+  private readonly notifier = inject(Notifier);
+  private readonly session = inject(Session);
+  readonly id = input.required<string>();
+
+  protected readonly analysis = signal<Analysis | null>(null);
+  protected readonly working = signal<string | null>(null);
+  protected readonly refusal = signal<string | null>(null);
+  protected readonly issued = signal<ApprovalResult | null>(null);
+  protected readonly comments = new FormControl('', { nonNullable: true, validators: [Validators.maxLength(5000)] });
+  protected readonly ownAnalysis = computed(() => this.analysis()?.analyst.id === this.session.user()?.id);
+
+  constructor() {
+    effect(() => this.data.get(this.id()).subscribe((a) => this.analysis.set(a)));
+  }
+
+  protected approve(a: Analysis): void {
+    this.refusal.set(null);
+    this.working.set('Issuing the report: numbering, rendering the PDF, signing it and e-mailing the client…');
+    this.data.approve(a.id, this.comments.value).subscribe({
+      next: (result) => {
+        this.working.set(null);
+        this.issued.set(result);
+        this.notifier.success(`Report ${result.report.number} issued.`);
+      },
+      error: (e: unknown) => {
+        this.working.set(null);
+        this.refusal.set(reviewRefusal(ApiProblem.from(e)));
+      },
+    });
+  }
+
+  protected sendBack(a: Analysis): void {
+    this.refusal.set(null);
+    this.working.set('Returning the analysis…');
+    this.data.returnToAnalyst(a.id, this.comments.value).subscribe({
+      next: (updated) => {
+        this.working.set(null);
+        this.analysis.set(updated);
+        this.notifier.success(`Returned to ${updated.analyst.displayName} with your comments.`);
+      },
+      error: (e: unknown) => {
+        this.working.set(null);
+        this.refusal.set(reviewRefusal(ApiProblem.from(e)));
+      },
+    });
+  }
+
+  protected download(done: ApprovalResult): void {
+    this.files.download(done.report.id, `${done.report.number}.pdf`);
+  }
+}
