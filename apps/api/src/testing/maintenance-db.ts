@@ -25,6 +25,18 @@ export function quoteIdent(name: string): string {
   return `"${name}"`;
 }
 
+/**
+ * Plain DROP (not WITH FORCE): PostgreSQL stops an autovacuum worker by itself, whereas FORCE would
+ * need rights over that worker. A session still closing gets a few retries.
+ */
 export async function dropDatabase(client: Client, name: string): Promise<void> {
-  await client.query(`DROP DATABASE IF EXISTS ${quoteIdent(name)} WITH (FORCE)`);
+  for (let attempt = 1; ; attempt++) {
+    try {
+      await client.query(`DROP DATABASE IF EXISTS ${quoteIdent(name)}`);
+      return;
+    } catch (err) {
+      if (attempt >= 20 || !/being accessed by other users/.test(String((err as Error).message))) throw err;
+      await new Promise((r) => setTimeout(r, 100 * attempt));
+    }
+  }
 }

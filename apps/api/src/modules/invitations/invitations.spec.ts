@@ -1,0 +1,113 @@
+import request from 'supertest';
+import { AuditEvent } from '../audit/audit-event.entity';
+import { Invitation } from './invitation.entity';
+import { latestEmailTo, linkToken, useTestApp } from '../../testing';
+
+const t = useTestApp();
+const PASSWORD = 'invited-person-passphrase';
+
+describe('staff invitations', () => {
+  it('lets a lab admin invite a person with two roles, who accepts, is signed in and holds both roles', async () => {
+    const admin = await t.authFor('lab-admin');
+    const sent = await request(t.app).post('/api/lab/staff/invitations').set(admin).send({ email: 'New.Analyst@Calder.test', roles: ['analyst', 'reviewer'] });
+    expect(sent.status).toBe(201);
+    expect(sent.body).toMatchObject({ email: 'new.analyst@calder.test', roles: ['analyst', 'reviewer'], status: 'pending' });
+    expect(sent.body.token).toBeUndefined();
+
+    const mail = await latestEmailTo(t.db, 'new.analyst@calder.test');
+    expect(mail.subject).toBe('Your invitation to Calder Analytical on Ohmprint');
+    const { url, token } = linkToken(mail.text);
+    expect(url).toMatch(/^http:\/\/127\.0\.0\.1:4300\/lab\/accept-invitation\?token=/);
+
+    const preview = await request(t.app).post('/api/invitations/preview').send({ token });
+    expect(preview.body).toMatchObject({ email: 'new.analyst@calder.test', labName: 'Calder Analytical', clientOrganisationName: null, roles: ['analyst', 'reviewer'] });
+
+    const accepted = await request(t.app).post('/api/invitations/accept').send({ token, displayName: 'Nova Analyst', password: PASSWORD });
+    expect(accepted.status).toBe(201);
+    expect(accepted.body.user).toMatchObject({ email: 'new.analyst@calder.test', displayName: 'Nova Analyst', roles: ['analyst', 'reviewer'], lab: { name: 'Calder Analytical' } });
+    expect(String(accepted.headers['set-cookie'])).toMatch(/ohmprint_refresh=/);
+
+    const again = await request(t.app).post('/api/invitations/accept').send({ token, displayName: 'Someone Else', password: PASSWORD });
+    expect(again.status).toBe(410);
+    expect(again.body.detail).toMatch(/already been accepted/);
+
+    expect(await t.db.manager.count(AuditEvent, { where: { action: 'invitation.sent' } })).toBeGreaterThanOrEqual(1);
+    expect(await t.db.manager.count(AuditEvent, { where: { action: 'invitation.accepted' } })).toBe(1);
+  });
+
+  it('refuses to invite an address that already has an account, naming the field', async () => {
+    const res = await request(t.app).post('/api/lab/staff/invitations').set(await t.authFor('lab-admin')).send({ email: 'analyst@calder.test', roles: ['analyst'] });
+    expect(res.status).toBe(409);
+    expect(res.body.errors).toEqual([{ field: 'email', message: 'already has an Ohmprint account' }]);
+  });
+
+  it('refuses an empty or unknown role list', async () => {
+    const admin = await t.authFor('lab-admin');
+    const none = await request(t.app).post('/api/lab/staff/invitations').set(admin).send({ email: 'x@calder.test', roles: [] });
+    expect(none.body.errors).toEqual([{ field: 'roles', message: 'must name at least one role' }]);
+    const client = await request(t.app).post('/api/lab/staff/invitations').set(admin).send({ email: 'x@calder.test', roles: ['client-admin'] });
+    expect(client.status).toBe(400);
+    expect(client.body.errors[0].field).toBe('roles.0');
+  });
+
+  it('only the newest invitation to an address works; expired ones are refused', async () => {
+    const admin = await t.authFor('lab-admin');
+    await request(t.app).post('/api/lab/staff/invitations').set(admin).send({ email: 'twice@calder.test', roles: ['analyst'] }).expect(201);
+    const first = linkToken((await latestEmailTo(t.db, 'twice@calder.test')).text).token;
+    await request(t.app).post('/api/lab/staff/invitations').set(admin).send({ email: 'twice@calder.test', roles: ['reviewer'] }).expect(201);
+    const second = linkToken((await latestEmailTo(t.db, 'twice@calder.test')).text).token;
+
+    const old = await request(t.app).post('/api/invitations/accept').send({ token: first, displayName: 'Twice', password: PASSWORD });
+    expect(old.status).toBe(410);
+    expect(old.body.detail).toMatch(/replaced or withdrawn/);
+
+    await t.db.manager.update(Invitation, { email: 'twice@calder.test' }, { expiresAt: new Date(Date.now() - 1000) });
+    const late = await request(t.app).post('/api/invitations/accept').send({ token: second, displayName: 'Twice', password: PASSWORD });
+    expect(late.status).toBe(410);
+    expect(late.body.detail).toMatch(/expired/);
+  });
+
+  it('refuses an invalid token with a field error', async () => {
+    const res = await request(t.app).post('/api/invitations/preview').send({ token: 'y'.repeat(43) });
+    expect(res.status).toBe(400);
+    expect(res.body.errors).toEqual([{ field: 'token', message: 'is not a valid invitation token' }]);
+  });
+});
+
+describe('client onboarding', () => {
+  it('a lab admin adds a producer and invites its first admin, who then invites a colleague', async () => {
+    const created = await request(t.app)
+      .post('/api/lab/client-organisations')
+      .set(await t.authFor('lab-admin'))
+      .send({ name: 'Pebblebrook Vinegar Co (demo)', firstAdmin: { email: 'boss@pebblebrook.test', displayName: 'Pip Brook' } });
+    expect(created.status).toBe(201);
+    expect(created.body.organisation).toMatchObject({ name: 'Pebblebrook Vinegar Co (demo)', contactEmail: 'boss@pebblebrook.test', memberCount: 0 });
+    expect(created.body.invitation).toMatchObject({ email: 'boss@pebblebrook.test', roles: ['client-admin'] });
+
+    const { url, token } = linkToken((await latestEmailTo(t.db, 'boss@pebblebrook.test')).text);
+    expect(url).toMatch(/^http:\/\/127\.0\.0\.1:4300\/accept-invitation\?token=/);
+    const accepted = await request(t.app).post('/api/invitations/accept').send({ token, displayName: 'Pip Brook', password: PASSWORD });
+    expect(accepted.body.user).toMatchObject({ roles: ['client-admin'], clientOrganisation: { name: 'Pebblebrook Vinegar Co (demo)' } });
+    const boss = { Authorization: `Bearer ${accepted.body.accessToken}` };
+
+    const invited = await request(t.app).post('/api/client/team/invitations').set(boss).send({ email: 'clerk@pebblebrook.test' });
+    expect(invited.status).toBe(201);
+    expect(invited.body.roles).toEqual(['client-member']);
+    const clerkToken = linkToken((await latestEmailTo(t.db, 'clerk@pebblebrook.test')).text).token;
+    const clerk = await request(t.app).post('/api/invitations/accept').send({ token: clerkToken, displayName: 'Cleo Clerk', password: PASSWORD });
+    expect(clerk.body.user.roles).toEqual(['client-member']);
+
+    const team = await request(t.app).get('/api/client/team?sort=displayName').set(boss);
+    expect(team.body.items.map((m: { displayName: string }) => m.displayName)).toEqual(['Cleo Clerk', 'Pip Brook']);
+    expect(team.body.total).toBe(2);
+  });
+
+  it('refuses a second organisation with the same name in the lab', async () => {
+    const res = await request(t.app)
+      .post('/api/lab/client-organisations')
+      .set(await t.authFor('lab-admin'))
+      .send({ name: 'sunvale juice works', firstAdmin: { email: 'dup@sunvale.test' } });
+    expect(res.status).toBe(409);
+    expect(res.body.errors).toEqual([{ field: 'name', message: 'is already used by another client organisation' }]);
+  });
+});
