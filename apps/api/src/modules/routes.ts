@@ -7,6 +7,10 @@ import { invitationsRouter } from './invitations/router';
 import { meRouter } from './me/router';
 import { operatorLabsRouter } from './operator-labs/router';
 import { staffRouter } from './staff/router';
+import { labReportsRouter } from './reports/lab-reports.router';
+import { clientReportsRouter } from './reports/client-reports.router';
+import { signingCredentialRouter } from './reports/signing/signing-credential.router';
+import { verificationRouter } from './verification/verification.router';
 
 /** Every feature's router, one line each. Paths are under /api. */
 export function apiRoutes(): Router {
@@ -19,5 +23,9 @@ export function apiRoutes(): Router {
   api.use('/lab/client-organisations', clientOrganisationsRouter());
   api.use('/operator/labs', operatorLabsRouter());
   api.use('/client/team', clientTeamRouter());
+  api.use('/lab/reports', labReportsRouter());
+  api.use('/lab/signing-credential', signingCredentialRouter());
+  api.use('/client/reports', clientReportsRouter());
+  api.use('/public/verify', verificationRouter());
   return api;
 }

@@ -1,11 +1,12 @@
 import { readFileSync } from 'node:fs';
 import { join, dirname } from 'node:path';
+import { woffToSfnt } from './woff-to-sfnt';
 
 /**
  * Inter as @fontsource ships it: one file per Unicode subset. Latin lacks Ω, τ and χ (greek has
  * them) and latin-ext holds the accented letters of names and addresses, so text is split into
  * runs by the first subset whose published Unicode range (the package's unicode.json) holds each
- * character. pdfkit embeds .woff (not .woff2).
+ * character. The .woff files (pdfkit cannot read .woff2) are unpacked once per process.
  */
 export type InterWeight = 400 | 600 | 700;
 
@@ -53,12 +54,22 @@ function subsets(): LoadedSubset[] {
   return loaded;
 }
 
+const unpacked = new Map<string, Buffer>();
+
+function fontFile(subset: string, weight: InterWeight): Buffer {
+  const name = fontName(subset, weight);
+  let font = unpacked.get(name);
+  if (!font) {
+    font = woffToSfnt(readFileSync(join(filesDir(), `inter-${subset}-${weight}-normal.woff`)));
+    unpacked.set(name, font);
+  }
+  return font;
+}
+
 /** Registers every subset and weight on a document under the names `fontName()` returns. */
 export function registerInter(doc: PDFKit.PDFDocument): void {
   for (const { subset } of subsets()) {
-    for (const weight of WEIGHTS) {
-      doc.registerFont(fontName(subset, weight), join(filesDir(), `inter-${subset}-${weight}-normal.woff`));
-    }
+    for (const weight of WEIGHTS) doc.registerFont(fontName(subset, weight), fontFile(subset, weight));
   }
 }
 
