@@ -33,3 +33,8 @@ export type { Weighting } from './fitting/weighting';
 export { parseSpectrumFile } from './import/parse-spectrum-file';
 export { SpectrumImportError } from './import/spectrum-import-error';
 export type { ColumnRole, FrequencyUnit, ImpedanceUnit, ImportOptions, PhaseUnit } from './import/import-options';
+export { normaliseSpectrum, type NormalisationSettings } from './normalise/normalise-spectrum';
+export { referConductivity } from './normalise/temperature-referral';
+export { cellConstantFromStandard, conductivityFromResistance, type CellConstant, type CellConstantOptions } from './normalise/cell-constant';
+export { averageReplicates } from './normalise/average-replicates';
+export { linearKramersKronig, type KramersKronigOptions, type KramersKronigResult } from './quality/linear-kramers-kronig';
