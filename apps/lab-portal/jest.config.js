@@ -1,0 +1,1 @@
+module.exports = require('../../libs/ui/jest-angular-project')('lab-portal', 'apps/lab-portal');

@@ -1,0 +1,1 @@
+module.exports = require('./jest-angular-project')('ui', 'libs/ui');
