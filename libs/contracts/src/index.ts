@@ -1,4 +1,5 @@
 // Request/response schemas shared by the API and both portals. One line per file.
+import './error-messages';
 export * from './roles';
 export * from './problem';
 export * from './paging';
