@@ -28,7 +28,9 @@ export function stackEnv(): NodeJS.ProcessEnv {
   return {
     ...process.env,
     ...s,
-    NODE_ENV: 'production',
+    NODE_ENV: 'development',
+    COOKIE_SECURE: 'false',
+    LOG_LEVEL: 'warn',
     DATABASE_HOST: '127.0.0.1',
     DATABASE_PORT: process.env.DATABASE_PORT ?? '54329',
     DATABASE_USER: 'ohmprint',
@@ -38,8 +40,9 @@ export function stackEnv(): NodeJS.ProcessEnv {
     PUBLIC_BASE_URL: BASE_URL,
     SMTP_HOST: '127.0.0.1',
     SMTP_PORT: process.env.SMTP_PORT ?? '1025',
-    OHMPRINT_DATA_DIR: join(ROOT, '.data'),
-    OHMPRINT_DEMO_ACCOUNTS_FILE: join(ROOT, '.data', 'demo-accounts-browser.txt'),
+    // its own data folder, so the demo-accounts list of `npm start` is left alone
+    OHMPRINT_DATA_DIR: join(ROOT, '.data', 'browser'),
+    PORTALS_DIR: join(ROOT, 'dist'),
   };
 }
 
@@ -78,6 +81,7 @@ export async function startStack(): Promise<void> {
   }
   mkdirSync(ARTIFACTS, { recursive: true });
   const env = stackEnv();
+  mkdirSync(join(ROOT, '.data', 'browser'), { recursive: true });
   await recreateDatabase(env);
   execFileSync('node', [join(ROOT, 'dist', 'api', 'apps', 'api', 'src', 'db', 'migrate.js')], { env, stdio: 'pipe' });
   execFileSync('node', [join(ROOT, 'dist', 'api', 'docker-free-scripts', 'seed', 'run.js')], { env, stdio: 'pipe' });
