@@ -10,6 +10,7 @@ export function openApiRouter(): Router {
   });
   router.use('/docs', swaggerUi.serveFiles(undefined, { swaggerUrl: '/api/openapi.json' }), swaggerUi.setup(undefined, {
     customSiteTitle: 'Ohmprint API',
+    customCss: '',
     swaggerUrl: '/api/openapi.json',
     swaggerOptions: { url: '/api/openapi.json' },
   }));
