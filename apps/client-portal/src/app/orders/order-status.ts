@@ -1,0 +1,8 @@
+import type { OrderStatus } from '@ohmprint/contracts';
+
+export const ORDER_STATUS_LOOK: Readonly<Record<OrderStatus, { readonly icon: string; readonly label: string }>> = {
+  placed: { icon: 'shopping_cart_checkout', label: 'Placed, waiting for the samples' },
+  'in-progress': { icon: 'science', label: 'In progress at the lab' },
+  completed: { icon: 'task_alt', label: 'Completed' },
+  cancelled: { icon: 'cancel', label: 'Cancelled' },
+};

@@ -1,0 +1,99 @@
+import { DatePipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, DestroyRef, inject, viewChild, type AfterViewInit } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatIconModule } from '@angular/material/icon';
+import { MatPaginator, MatPaginatorModule } from '@angular/material/paginator';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSort, MatSortModule } from '@angular/material/sort';
+import { MatTableModule } from '@angular/material/table';
+import type { ReportStatus, ReportSummary } from '@ohmprint/contracts';
+import { EmptyState, ScreeningCaution, SearchField, ServerList, VerdictChip } from '@ohmprint/ui';
+import { Subject } from 'rxjs';
+import { ClientReportsData } from './client-reports-data';
+
+const STATUS_LOOK = {
+  issued: { icon: 'verified', label: 'Issued' },
+  superseded: { icon: 'history', label: 'Superseded by a newer revision' },
+  revoked: { icon: 'block', label: 'Revoked by the lab' },
+} as const;
+
+@Component({
+  selector: 'ohm-client-reports-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  imports: [DatePipe, MatTableModule, MatSortModule, MatPaginatorModule, MatProgressBarModule, MatButtonModule, MatIconModule, SearchField, EmptyState, VerdictChip, ScreeningCaution],
+  template: `
+    <header class="ohm-page-header">
+      <div>
+        <h1>Reports</h1>
+        <p>Signed test reports for your samples. Each carries a verification code: anyone you share a report with can check it on the public verification page.</p>
+      </div>
+    </header>
+    <ohm-screening-caution class="caution" />
+    <ohm-search-field label="Search by report number, sample code or product" (search)="search.next($event)" />
+    <div class="ohm-table-card">
+      @if (list.loading()) {
+        <mat-progress-bar mode="indeterminate" aria-label="Loading reports" />
+      }
+      <table mat-table [dataSource]="list.rows()" matSort matSortActive="issuedAt" matSortDirection="desc" matSortDisableClear aria-label="Reports">
+        <ng-container matColumnDef="number">
+          <th mat-header-cell *matHeaderCellDef mat-sort-header>Report</th>
+          <td mat-cell *matCellDef="let r"><span class="number">{{ r.number }}</span>
+            @if (r.replacesNumber) { <span class="note">replaces {{ r.replacesNumber }}</span> }
+          </td>
+        </ng-container>
+        <ng-container matColumnDef="sample">
+          <th mat-header-cell *matHeaderCellDef>Sample</th>
+          <td mat-cell *matCellDef="let r">{{ r.sampleCode }} · {{ r.productName }}</td>
+        </ng-container>
+        <ng-container matColumnDef="verdict">
+          <th mat-header-cell *matHeaderCellDef>Result</th>
+          <td mat-cell *matCellDef="let r"><ohm-verdict-chip [verdict]="r.verdict" [compact]="true" /></td>
+        </ng-container>
+        <ng-container matColumnDef="status">
+          <th mat-header-cell *matHeaderCellDef>Status</th>
+          <td mat-cell *matCellDef="let r"><span class="ohm-status" [class.ohm-warning]="r.status !== 'issued'"><mat-icon aria-hidden="true">{{ statusOf(r.status).icon }}</mat-icon>{{ statusOf(r.status).label }}</span></td>
+        </ng-container>
+        <ng-container matColumnDef="issuedAt">
+          <th mat-header-cell *matHeaderCellDef mat-sort-header>Issued</th>
+          <td mat-cell *matCellDef="let r">{{ r.issuedAt | date: 'd MMM y' }}</td>
+        </ng-container>
+        <ng-container matColumnDef="download">
+          <th mat-header-cell *matHeaderCellDef><span class="cdk-visually-hidden">Download</span></th>
+          <td mat-cell *matCellDef="let r"><button mat-stroked-button type="button" (click)="data.download(r)"><mat-icon>download</mat-icon>PDF</button></td>
+        </ng-container>
+        <tr mat-header-row *matHeaderRowDef="columns"></tr>
+        <tr mat-row *matRowDef="let row; columns: columns"></tr>
+      </table>
+      @if (!list.loading() && list.rows().length === 0) {
+        @if (list.searchText()) {
+          <ohm-empty-state icon="search_off" heading="No report matches “{{ list.searchText() }}”"><p>Try the report number printed at the top of the PDF, or clear the search.</p></ohm-empty-state>
+        } @else {
+          <ohm-empty-state icon="description" heading="No reports yet"><p>A report arrives by e-mail and appears here once the lab has measured your sample and a second person has reviewed the result.</p></ohm-empty-state>
+        }
+      }
+      <mat-paginator [length]="list.total()" [pageSize]="20" [pageSizeOptions]="[10, 20, 50]" aria-label="Report pages" />
+    </div>
+  `,
+  styles: `
+    .number { font-family: ui-monospace, monospace; font-weight: 600; }
+    .note { display: block; font: var(--mat-sys-body-small); color: var(--mat-sys-on-surface-variant); }
+    .caution { margin-bottom: 16px; }
+  `,
+})
+export class ClientReportsPage implements AfterViewInit {
+  protected readonly data = inject(ClientReportsData);
+  private readonly destroyRef = inject(DestroyRef);
+  private readonly sort = viewChild.required(MatSort);
+  private readonly paginator = viewChild.required(MatPaginator);
+  protected readonly columns = ['number', 'sample', 'verdict', 'status', 'issuedAt', 'download'];
+  protected readonly list = new ServerList<ReportSummary>();
+  protected readonly search = new Subject<string>();
+
+  protected statusOf(status: ReportStatus): (typeof STATUS_LOOK)[ReportStatus] {
+    return STATUS_LOOK[status];
+  }
+
+  ngAfterViewInit(): void {
+    this.list.connect({ sort: this.sort(), paginator: this.paginator(), search: this.search, fetch: (q) => this.data.list(q), destroyRef: this.destroyRef });
+  }
+}
