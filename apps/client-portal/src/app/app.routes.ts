@@ -7,6 +7,7 @@ import { AppShell, NotFoundPage, ProfilePage, authRoutes, roleGuard, signedInGua
  */
 export const routes: Routes = [
   ...authRoutes,
+  { path: 'verify', loadChildren: () => import('./verify/verify.routes') },
   {
     path: '',
     component: AppShell,
@@ -15,6 +16,8 @@ export const routes: Routes = [
       { path: '', title: 'Home · Ohmprint', loadComponent: () => import('./home/client-home').then((m) => m.ClientHome) },
       { path: 'profile', title: 'Profile · Ohmprint', component: ProfilePage },
       { path: 'team', canActivate: [roleGuard('client-admin', 'client-member')], loadChildren: () => import('./team/team.routes') },
+      { path: 'orders', canActivate: [roleGuard('client-admin', 'client-member')], loadChildren: () => import('./orders/orders.routes') },
+      { path: 'reports', canActivate: [roleGuard('client-admin', 'client-member')], loadChildren: () => import('./reports/reports.routes') },
       { path: '**', title: 'Not found · Ohmprint', component: NotFoundPage },
     ],
   },

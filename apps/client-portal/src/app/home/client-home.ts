@@ -2,12 +2,14 @@ import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/c
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { RouterLink } from '@angular/router';
-import { EmptyState, ScreeningCaution, Session } from '@ohmprint/ui';
+import { ScreeningCaution, Session } from '@ohmprint/ui';
+import { OpenOrders } from '../orders/open-orders';
+import { LatestReports } from '../reports/latest-reports';
 
 @Component({
   selector: 'ohm-client-home',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [RouterLink, MatButtonModule, MatIconModule, EmptyState, ScreeningCaution],
+  imports: [RouterLink, MatButtonModule, MatIconModule, ScreeningCaution, OpenOrders, LatestReports],
   templateUrl: './client-home.html',
   styleUrl: './client-home.scss',
 })
