@@ -4,11 +4,12 @@ import { MatCardModule } from '@angular/material/card';
 import { MatIconModule } from '@angular/material/icon';
 import { RouterLink } from '@angular/router';
 import { EmptyState, NAV_ITEMS, Session, roleList, visibleNavItems } from '@ohmprint/ui';
+import { WorkQueue } from '../queue/work-queue';
 
 @Component({
   selector: 'ohm-lab-home',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [RouterLink, MatCardModule, MatButtonModule, MatIconModule, EmptyState],
+  imports: [RouterLink, MatCardModule, MatButtonModule, MatIconModule, EmptyState, WorkQueue],
   templateUrl: './lab-home.html',
   styleUrl: './lab-home.scss',
 })

@@ -1,5 +1,5 @@
 import { DecimalPipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, DestroyRef, inject, signal, viewChild, type AfterViewInit } from '@angular/core';
+import { ChangeDetectionStrategy, Component, DestroyRef, inject, input, signal, viewChild, type AfterViewInit } from '@angular/core';
 import { FormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatChipsModule } from '@angular/material/chips';
@@ -33,6 +33,9 @@ export class WorkQueue implements AfterViewInit {
   private readonly session = inject(Session);
   private readonly sort = viewChild.required(MatSort);
   private readonly paginator = viewChild.required(MatPaginator);
+
+  /** On the home page, under its own heading: no page header of its own. */
+  readonly embedded = input(false);
 
   protected readonly allStates = SAMPLE_STATES;
   protected readonly stateLook = SAMPLE_STATE_LOOK;
