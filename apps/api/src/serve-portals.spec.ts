@@ -3,6 +3,7 @@ import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import request from 'supertest';
+import { errorMiddleware } from './core/error-middleware';
 import { servePortals } from './serve-portals';
 
 describe('serving the built portals', () => {
@@ -26,6 +27,17 @@ describe('serving the built portals', () => {
     expect((await request(app).get('/reset-password?token=abc')).text).toBe('<title>client</title>');
     expect((await request(app).get('/lab/queue/42')).text).toBe('<title>lab</title>');
     expect((await request(app).get('/lab/')).text).toBe('<title>lab</title>');
+  });
+
+  it('answers 404 (not 500) when a portal build disappears while the API runs', async () => {
+    const app = express();
+    servePortals(app, dist);
+    app.use(errorMiddleware);
+    rmSync(join(dist, 'client-portal', 'browser', 'index.html'));
+    const res = await request(app).get('/orders');
+    expect(res.status).toBe(404);
+    expect(res.headers['content-type']).toMatch(/application\/problem\+json/);
+    writeFileSync(join(dist, 'client-portal', 'browser', 'index.html'), '<title>client</title>');
   });
 
   it('serves nothing when a portal has not been built', async () => {

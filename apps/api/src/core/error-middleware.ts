@@ -1,3 +1,4 @@
+import { STATUS_CODES } from 'node:http';
 import type { NextFunction, Request, Response } from 'express';
 import type { Problem } from '@ohmprint/contracts';
 import { config } from '../config';
@@ -21,8 +22,16 @@ function fromBodyParser(err: BodyParserError): ApiError | undefined {
     case 'charset.unsupported':
       return new ApiError(415, 'Unsupported encoding', err.message, { type: 'unsupported-encoding' });
     default:
-      return undefined;
+      return fromClientStatus(err);
   }
+}
+
+/** Errors from Express's own helpers (e.g. a static file that vanished) carry a 4xx status. */
+function fromClientStatus(err: BodyParserError & { statusCode?: number; expose?: boolean }): ApiError | undefined {
+  const status = err?.status ?? err?.statusCode;
+  if (typeof status !== 'number' || status < 400 || status > 499) return undefined;
+  const title = STATUS_CODES[status] ?? 'Client error';
+  return new ApiError(status, title, err.expose ? err.message : `${title}.`);
 }
 
 export function notFoundHandler(req: Request, _res: Response, next: NextFunction): void {
