@@ -99,6 +99,10 @@ function freeSymbols(expression: string, root: MathNode): string[] {
   return symbols;
 }
 
+function usesFrequency(root: MathNode): boolean {
+  return root.filter((node) => node.type === 'SymbolNode' && FREQUENCY_SYMBOLS.has((node as unknown as { name: string }).name)).length > 0;
+}
+
 /**
  * Defines an impedance model from an expression in ω (rad/s, also written `omega`) and the
  * imaginary unit j, e.g. `r + 1/(q*(j*ω)^n)`. Every other name is a parameter. The expression is
@@ -107,8 +111,8 @@ function freeSymbols(expression: string, root: MathNode): string[] {
 export function defineExpressionModel(expression: string, options: ExpressionModelOptions = {}): ImpedanceModel {
   const root = parseExpression(expression);
   const names = freeSymbols(expression, root);
-  if (names.length === 0 && !/ω|omega/.test(expression)) {
-    throw new ModelDefinitionError('the expression has neither parameters nor ω: it cannot describe a spectrum');
+  if (!usesFrequency(root)) {
+    throw new ModelDefinitionError('the expression does not use ω (or omega), so it cannot describe a spectrum');
   }
   const given = new Map((options.parameters ?? []).map((p) => [p.name, p]));
   for (const name of given.keys()) {
