@@ -8,13 +8,15 @@ const TOLERANCE = 1e-9;
 export function doubleCentredSquares(distances: readonly (readonly number[])[]): Float64Array {
   const n = distances.length;
   let largest = 0;
-  distances.forEach((row, i) => {
+  for (let i = 0; i < n; i++) {
+    const row = distances[i];
     if (row.length !== n) throw new RangeError(`distance matrix: row ${i + 1} has ${row.length} entries; a ${n}-point matrix needs ${n}`);
-    row.forEach((d, j) => {
-      if (!(Number.isFinite(d) && d >= 0)) throw new RangeError(`distance matrix: entry (${i + 1}, ${j + 1}) is ${d}; distances must be finite and not negative`);
+    for (let j = 0; j < n; j++) {
+      const d = row[j];
+      if (!(d >= 0 && d < Infinity)) throw new RangeError(`distance matrix: entry (${i + 1}, ${j + 1}) is ${d}; distances must be finite and not negative`);
       if (d > largest) largest = d;
-    });
-  });
+    }
+  }
   const slack = TOLERANCE * largest;
   for (let i = 0; i < n; i++) {
     if (distances[i][i] > slack) throw new RangeError(`distance matrix: diagonal entry (${i + 1}, ${i + 1}) is ${distances[i][i]}; a point's distance to itself must be 0`);
@@ -27,13 +29,15 @@ export function doubleCentredSquares(distances: readonly (readonly number[])[]):
   const b = new Float64Array(n * n);
   const rowMean = new Float64Array(n);
   for (let i = 0; i < n; i++) {
-    let sum = 0;
-    for (let j = 0; j < n; j++) {
-      // Average the two triangles so rounding-level asymmetry cannot make B unsymmetric.
+    // Average the two triangles so rounding-level asymmetry cannot make B unsymmetric.
+    for (let j = i; j < n; j++) {
       const d = (distances[i][j] + distances[j][i]) / 2;
-      b[i * n + j] = d * d;
-      sum += d * d;
+      b[i * n + j] = b[j * n + i] = d * d;
     }
+  }
+  for (let i = 0; i < n; i++) {
+    let sum = 0;
+    for (let j = 0; j < n; j++) sum += b[i * n + j];
     rowMean[i] = sum / n;
   }
   let grand = 0;

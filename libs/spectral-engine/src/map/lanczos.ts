@@ -15,9 +15,20 @@ export interface ExtremeEigenpairs {
 
 function multiply(b: Float64Array, n: number, x: Float64Array, out: Float64Array): void {
   for (let i = 0, base = 0; i < n; i++, base += n) {
-    let s = 0;
-    for (let j = 0; j < n; j++) s += b[base + j] * x[j];
-    out[i] = s;
+    // Four running sums let the CPU overlap the multiply–adds of one row.
+    let s0 = 0;
+    let s1 = 0;
+    let s2 = 0;
+    let s3 = 0;
+    let j = 0;
+    for (; j + 3 < n; j += 4) {
+      s0 += b[base + j] * x[j];
+      s1 += b[base + j + 1] * x[j + 1];
+      s2 += b[base + j + 2] * x[j + 2];
+      s3 += b[base + j + 3] * x[j + 3];
+    }
+    for (; j < n; j++) s0 += b[base + j] * x[j];
+    out[i] = s0 + s1 + (s2 + s3);
   }
 }
 
@@ -39,74 +50,76 @@ function startVector(n: number): Float64Array {
   return v.map((x) => x / length);
 }
 
+/** Steps between two looks at the Ritz values: each look costs an eigen-decomposition of the small tridiagonal matrix. */
+const CHECK_EVERY = 8;
+
+function ritzPairs(alpha: number[], beta: number[]) {
+  const m = alpha.length;
+  const t = Matrix.zeros(m, m);
+  for (let i = 0; i < m; i++) {
+    t.set(i, i, alpha[i]);
+    if (i + 1 < m) {
+      t.set(i, i + 1, beta[i]);
+      t.set(i + 1, i, beta[i]);
+    }
+  }
+  const ritz = new EigenvalueDecomposition(t, { assumeSymmetric: true });
+  const theta = ritz.realEigenvalues;
+  const order = theta.map((_, i) => i).sort((i, j) => theta[j] - theta[i]);
+  return { theta, vectors: ritz.eigenvectorMatrix, order };
+}
+
 /**
  * The largest `count` eigenpairs of a symmetric row-major matrix by the Lanczos method with full
  * reorthogonalisation: each step costs one matrix–vector product, so a 2,000-point map needs a
  * few dozen passes over the matrix instead of a full O(n³) decomposition.
  */
 export function largestEigenpairs(b: Float64Array, n: number, count: number): ExtremeEigenpairs {
-  let steps = Math.min(n, Math.max(2 * count + 30, 50));
-  for (;;) {
-    const basis: Float64Array[] = [startVector(n)];
-    const alpha: number[] = [];
-    const beta: number[] = [];
-    const w = new Float64Array(n);
-    let exhausted = false;
-    for (let j = 0; j < steps; j++) {
-      multiply(b, n, basis[j], w);
-      alpha.push(dot(basis[j], w));
-      // Two rounds of Gram–Schmidt keep the basis orthogonal to working precision.
-      for (let round = 0; round < 2; round++) {
-        for (const q of basis) {
-          const c = dot(q, w);
-          for (let i = 0; i < n; i++) w[i] -= c * q[i];
+  const firstCheck = Math.min(n, 2 * count + 12);
+  const basis: Float64Array[] = [startVector(n)];
+  const alpha: number[] = [];
+  const beta: number[] = [];
+  const w = new Float64Array(n);
+  for (let j = 0; ; j++) {
+    multiply(b, n, basis[j], w);
+    alpha.push(dot(basis[j], w));
+    // Two rounds of Gram–Schmidt keep the basis orthogonal to working precision.
+    for (let round = 0; round < 2; round++) {
+      for (const q of basis) {
+        const c = dot(q, w);
+        for (let i = 0; i < n; i++) w[i] -= c * q[i];
+      }
+    }
+    const norm = Math.sqrt(dot(w, w));
+    beta.push(norm);
+    const m = j + 1;
+    const exhausted = norm < 1e-13 * Math.max(1, Math.abs(alpha[0])) || m === n;
+    if (exhausted || (m >= firstCheck && (m - firstCheck) % CHECK_EVERY === 0)) {
+      const { theta, vectors: s, order } = ritzPairs(alpha, beta);
+      const top = order.slice(0, Math.min(count, m));
+      const scale = Math.max(...theta.map(Math.abs), Number.MIN_VALUE);
+      // The residual of a Ritz pair is |β_m · (last component of its tridiagonal eigenvector)|.
+      const converged = top.every((i) => Math.abs(norm * s.get(m - 1, i)) <= RESIDUAL_TOLERANCE * scale);
+      if (exhausted || converged) {
+        const vectors = top.map((i) => {
+          const v = new Float64Array(n);
+          for (let k = 0; k < m; k++) {
+            const c = s.get(k, i);
+            const q = basis[k];
+            for (let r = 0; r < n; r++) v[r] += c * q[r];
+          }
+          const length = Math.sqrt(dot(v, v));
+          return v.map((x) => x / length);
+        });
+        const values = top.map((i) => theta[i]);
+        // A Krylov space that closes early has found every eigenvalue the start reaches; the rest are zero.
+        while (values.length < count) {
+          values.push(0);
+          vectors.push(new Float64Array(n));
         }
-      }
-      const norm = Math.sqrt(dot(w, w));
-      beta.push(norm);
-      if (j === steps - 1) break;
-      if (norm < 1e-13 * Math.max(1, Math.abs(alpha[0]))) {
-        exhausted = true;
-        break;
-      }
-      basis.push(w.map((x) => x / norm));
-    }
-    const m = alpha.length;
-    const t = Matrix.zeros(m, m);
-    for (let i = 0; i < m; i++) {
-      t.set(i, i, alpha[i]);
-      if (i + 1 < m) {
-        t.set(i, i + 1, beta[i]);
-        t.set(i + 1, i, beta[i]);
+        return { values, vectors, smallest: theta[order[order.length - 1]], steps: m };
       }
     }
-    const ritz = new EigenvalueDecomposition(t, { assumeSymmetric: true });
-    const theta = ritz.realEigenvalues;
-    const s = ritz.eigenvectorMatrix;
-    const order = theta.map((_, i) => i).sort((i, j) => theta[j] - theta[i]);
-    const top = order.slice(0, Math.min(count, m));
-    const scale = Math.max(...theta.map(Math.abs), Number.MIN_VALUE);
-    const residualOf = (i: number) => Math.abs(beta[m - 1] * s.get(m - 1, i));
-    const converged = exhausted || top.every((i) => residualOf(i) <= RESIDUAL_TOLERANCE * scale);
-    if (converged || steps >= n) {
-      const vectors = top.map((i) => {
-        const v = new Float64Array(n);
-        for (let k = 0; k < m; k++) {
-          const c = s.get(k, i);
-          const q = basis[k];
-          for (let r = 0; r < n; r++) v[r] += c * q[r];
-        }
-        const length = Math.sqrt(dot(v, v));
-        return v.map((x) => x / length);
-      });
-      const values = top.map((i) => theta[i]);
-      // A Krylov space that closes early has found every eigenvalue the start reaches; the rest are zero.
-      while (values.length < count) {
-        values.push(0);
-        vectors.push(new Float64Array(n));
-      }
-      return { values, vectors, smallest: theta[order[order.length - 1]], steps: m };
-    }
-    steps = Math.min(n, 2 * steps);
+    basis.push(w.map((x) => x / norm));
   }
 }

@@ -18,10 +18,21 @@ export function canberra(x: ArrayLike<number>, y: ArrayLike<number>, weights?: A
       }
     }
   }
+  if (!weights) return canberraUnchecked(x, y);
   let sum = 0;
   for (let i = 0; i < x.length; i++) {
     const denominator = Math.abs(x[i]) + Math.abs(y[i]);
-    if (denominator > 0) sum += ((weights ? weights[i] : 1) * Math.abs(x[i] - y[i])) / denominator;
+    if (denominator > 0) sum += (weights[i] * Math.abs(x[i] - y[i])) / denominator;
+  }
+  return sum;
+}
+
+/** The unweighted sum for inputs already checked (same length, finite): the inner loop of distance matrices. */
+export function canberraUnchecked(x: ArrayLike<number>, y: ArrayLike<number>): number {
+  let sum = 0;
+  for (let i = 0; i < x.length; i++) {
+    const denominator = Math.abs(x[i]) + Math.abs(y[i]);
+    if (denominator > 0) sum += Math.abs(x[i] - y[i]) / denominator;
   }
   return sum;
 }

@@ -32,34 +32,42 @@ const BLOCK = 8;
  */
 const ROUNDING_MARGIN = 1e-12;
 
+/**
+ * The library in term order, split in two contiguous Float64Arrays: the first block of every
+ * spectrum (its sentinel terms, all most spectra ever need) back to back so a search streams
+ * through them, and the remaining terms, read only for spectra that survive the first block.
+ */
 class PackedSpectrumIndex implements SpectrumIndex {
-  readonly size: number;
   private readonly width: number;
   private readonly half: number;
+  private readonly headWidth: number;
+  private readonly tailWidth: number;
 
   constructor(
     readonly frequencyHz: Float64Array,
-    private readonly packed: Float64Array,
+    readonly size: number,
+    private readonly head: Float64Array,
+    private readonly tail: Float64Array,
     private readonly order: Int32Array,
     private readonly position: Int32Array,
-    count: number,
   ) {
-    this.size = count;
     this.width = order.length;
     this.half = this.width / 2;
+    this.headWidth = Math.min(BLOCK, this.width);
+    this.tailWidth = this.width - this.headWidth;
   }
 
   get byteLength(): number {
-    return this.packed.byteLength + this.order.byteLength + this.position.byteLength + this.frequencyHz.byteLength;
+    return this.head.byteLength + this.tail.byteLength + this.order.byteLength + this.position.byteLength + this.frequencyHz.byteLength;
   }
 
   nearest(sample: Spectrum, k: number): Neighbour[] {
     if (!Number.isInteger(k) || k < 1) throw new RangeError(`nearest: k must be a whole number of at least 1, got ${k}`);
-    assertWellFormed(sample, 'sample');
-    assertSameFrequencies(this.frequencyHz, sample.frequencyHz, 'reference library', 'sample');
+    assertWellFormed(sample, 'the sample');
+    assertSameFrequencies(this.frequencyHz, sample.frequencyHz, 'the reference library', 'the sample');
     assertFiniteValues(sample.re, 're', 'sample');
     assertFiniteValues(sample.im, 'im', 'sample');
-    const { width, packed, order, size } = this;
+    const { width, head, tail, headWidth, tailWidth, order, size } = this;
     const wanted = Math.min(k, size);
     const query = new Float64Array(width);
     for (let j = 0; j < width; j++) {
@@ -70,19 +78,27 @@ class PackedSpectrumIndex implements SpectrumIndex {
     const bestSum = new Float64Array(wanted);
     let found = 0;
     let limit = Infinity;
-    for (let r = 0, base = 0; r < size; r++, base += width) {
+    for (let r = 0; r < size; r++) {
       let sum = 0;
-      for (let start = 0; start < width && sum <= limit; start += BLOCK) {
+      const headBase = r * headWidth;
+      for (let j = 0; j < headWidth; j++) {
+        const x = query[j];
+        const y = head[headBase + j];
+        // Both zero only when the difference is zero too, so dividing by 1 then adds the 0 SciPy's convention asks for.
+        sum += Math.abs(x - y) / (Math.abs(x) + Math.abs(y) || 1);
+      }
+      if (sum > limit) continue;
+      const tailBase = r * tailWidth - headWidth;
+      for (let start = headWidth; start < width && sum <= limit; start += BLOCK) {
         const end = start + BLOCK < width ? start + BLOCK : width;
         for (let j = start; j < end; j++) {
           const x = query[j];
-          const y = packed[base + j];
-          // Both zero only when the difference is zero too, so dividing by 1 then adds the 0 SciPy's convention asks for.
+          const y = tail[tailBase + j];
           sum += Math.abs(x - y) / (Math.abs(x) + Math.abs(y) || 1);
         }
       }
       if (sum > limit) continue;
-      const exact = this.canonicalSum(query, base);
+      const exact = this.canonicalSum(query, r);
       if (found === wanted && exact >= bestSum[wanted - 1]) continue;
       let slot = found < wanted ? found++ : wanted - 1;
       while (slot > 0 && bestSum[slot - 1] > exact) {
@@ -94,34 +110,34 @@ class PackedSpectrumIndex implements SpectrumIndex {
       bestIndex[slot] = r;
       if (found === wanted) limit = bestSum[wanted - 1] * (1 + ROUNDING_MARGIN);
     }
-    const terms = width;
-    return Array.from({ length: found }, (_, i) => ({ index: bestIndex[i], distance: bestSum[i] / terms }));
+    return Array.from({ length: found }, (_, i) => ({ index: bestIndex[i], distance: bestSum[i] / width }));
   }
 
   /** The sum in `spectrumDistance`'s own order (real parts, then imaginary), so distances match it to the last bit. */
-  private canonicalSum(query: Float64Array, base: number): number {
-    const { position, packed, half } = this;
+  private canonicalSum(query: Float64Array, r: number): number {
+    const { position, half, head, tail, headWidth, tailWidth } = this;
+    const term = (t: number) => {
+      const j = position[t];
+      const x = query[j];
+      const y = j < headWidth ? head[r * headWidth + j] : tail[r * tailWidth + j - headWidth];
+      const den = Math.abs(x) + Math.abs(y);
+      return den > 0 ? Math.abs(x - y) / den : 0;
+    };
     let re = 0;
-    for (let t = 0; t < half; t++) {
-      const x = query[position[t]];
-      const y = packed[base + position[t]];
-      const den = Math.abs(x) + Math.abs(y);
-      if (den > 0) re += Math.abs(x - y) / den;
-    }
+    for (let t = 0; t < half; t++) re += term(t);
     let im = 0;
-    for (let t = half; t < 2 * half; t++) {
-      const x = query[position[t]];
-      const y = packed[base + position[t]];
-      const den = Math.abs(x) + Math.abs(y);
-      if (den > 0) im += Math.abs(x - y) / den;
-    }
+    for (let t = half; t < 2 * half; t++) im += term(t);
     return re + im;
   }
 }
 
+function firstNonFinite(values: Float64Array): number {
+  return values.findIndex((v) => !Number.isFinite(v));
+}
+
 /**
- * Packs a reference library (spectra on one grid, impedances in Ω) into one contiguous
- * Float64Array for fast top-k search by `spectrumDistance`. The library is copied, so later
+ * Packs a reference library (spectra on one grid, impedances in Ω) into contiguous
+ * Float64Arrays for fast top-k search by `spectrumDistance`. The library is copied, so later
  * changes to the spectra do not reach the index.
  */
 export function createSpectrumIndex(references: readonly Spectrum[]): SpectrumIndex {
@@ -134,20 +150,29 @@ export function createSpectrumIndex(references: readonly Spectrum[]): SpectrumIn
   });
   const n = first.frequencyHz.length;
   const width = 2 * n;
+  const headWidth = Math.min(BLOCK, width);
+  const tailWidth = width - headWidth;
   const order = rankTermsBySpread(references);
   const position = new Int32Array(width);
   order.forEach((t, j) => (position[t] = j));
-  const packed = new Float64Array(references.length * width);
-  for (let r = 0, base = 0; r < references.length; r++, base += width) {
+  const head = new Float64Array(references.length * headWidth);
+  const tail = new Float64Array(references.length * tailWidth);
+  const row = new Float64Array(width);
+  for (let r = 0; r < references.length; r++) {
     const { re, im } = references[r];
-    for (let j = 0; j < width; j++) {
-      const t = order[j];
-      const value = t < n ? re[t] : im[t - n];
-      if (!Number.isFinite(value)) {
-        throw new RangeError(`reference ${r + 1}: ${t < n ? 're' : 'im'}[${t < n ? t : t - n}] is ${value}; every value must be a finite number`);
-      }
-      packed[base + j] = value;
+    // v·0 is 0 for every finite v and NaN otherwise: one test per spectrum instead of one per value.
+    let probe = 0;
+    for (let t = 0; t < n; t++) {
+      probe += re[t] * 0 + im[t] * 0;
+      row[position[t]] = re[t];
+      row[position[n + t]] = im[t];
     }
+    if (probe !== 0) {
+      const bad = firstNonFinite(re) >= 0 ? { part: 're', at: firstNonFinite(re), values: re } : { part: 'im', at: firstNonFinite(im), values: im };
+      throw new RangeError(`reference ${r + 1}: ${bad.part}[${bad.at}] is ${bad.values[bad.at]}; every value must be a finite number`);
+    }
+    head.set(row.subarray(0, headWidth), r * headWidth);
+    tail.set(row.subarray(headWidth), r * tailWidth);
   }
-  return new PackedSpectrumIndex(Float64Array.from(first.frequencyHz), packed, order, position, references.length);
+  return new PackedSpectrumIndex(Float64Array.from(first.frequencyHz), references.length, head, tail, order, position);
 }
