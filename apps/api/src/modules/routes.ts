@@ -11,6 +11,15 @@ import { labReportsRouter } from './reports/lab-reports.router';
 import { clientReportsRouter } from './reports/client-reports.router';
 import { signingCredentialRouter } from './reports/signing/signing-credential.router';
 import { verificationRouter } from './verification/verification.router';
+import { samplesRouter } from './samples/router';
+import { intakeRouter } from './intake/router';
+import { custodyRouter } from './custody/router';
+import { measurementsRouter } from './measurements/router';
+import { instrumentKeysRouter } from './instrument-keys/router';
+import { librariesRouter } from './libraries/router';
+import { analysesRouter } from './analyses/router';
+import { reviewsRouter } from './reviews/router';
+import { clientOrdersRouter } from './orders/router';
 
 /** Every feature's router, one line each. Paths are under /api. */
 export function apiRoutes(): Router {
@@ -27,5 +36,14 @@ export function apiRoutes(): Router {
   api.use('/lab/signing-credential', signingCredentialRouter());
   api.use('/client/reports', clientReportsRouter());
   api.use('/public/verify', verificationRouter());
+  api.use('/lab', samplesRouter());
+  api.use('/lab', intakeRouter());
+  api.use('/lab', custodyRouter());
+  api.use('/lab', measurementsRouter());
+  api.use('/lab', instrumentKeysRouter());
+  api.use('/lab', librariesRouter());
+  api.use('/lab', analysesRouter());
+  api.use('/lab', reviewsRouter());
+  api.use('/client', clientOrdersRouter());
   return api;
 }

@@ -46,20 +46,3 @@ export const ClientOrderListQuerySchema = listQuery(['placedAt', 'status', 'prod
 export type ClientOrderListQuery = z.infer<typeof ClientOrderListQuerySchema>;
 export const OrderPageSchema = pageOf(OrderSummarySchema);
 export type OrderPage = z.infer<typeof OrderPageSchema>;
-
-/** A report as the client portal lists it (download is the reports module's route). */
-export const ClientReportItemSchema = z.object({
-  id: z.uuid(),
-  number: z.string(),
-  revision: z.number().int().min(1),
-  status: z.string(),
-  sampleCode: z.string(),
-  productName: z.string(),
-  verdict: z.string(),
-  issuedAt: z.iso.datetime({ offset: true }),
-});
-export type ClientReportItem = z.infer<typeof ClientReportItemSchema>;
-export const ClientReportListQuerySchema = listQuery(['issuedAt', 'number'], 'desc');
-export type ClientReportListQuery = z.infer<typeof ClientReportListQuerySchema>;
-export const ClientReportPageSchema = pageOf(ClientReportItemSchema);
-export type ClientReportPage = z.infer<typeof ClientReportPageSchema>;

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { listQuery, pageOf } from '../paging';
 import { NamedRefSchema } from '../auth';
 
 export const MATRICES = ['wine', 'milk', 'juice', 'vinegar', 'spirit', 'brine'] as const;
@@ -18,3 +19,8 @@ export const ProductSummarySchema = z.object({
     .nullable(),
 });
 export type ProductSummary = z.infer<typeof ProductSummarySchema>;
+
+export const ProductListQuerySchema = listQuery(['name', 'matrix']);
+export type ProductListQuery = z.infer<typeof ProductListQuerySchema>;
+export const ProductPageSchema = pageOf(ProductSummarySchema);
+export type ProductPage = z.infer<typeof ProductPageSchema>;

@@ -1,0 +1,94 @@
+import type { EntityManager } from 'typeorm';
+import { In } from 'typeorm';
+import { ENGINE_VERSION } from '@ohmprint/spectral-engine';
+import type { ReproduceCheck } from '@ohmprint/contracts';
+import { ApiError } from '../../core/api-error';
+import type { AuthContext } from '../auth/auth-context';
+import { recordAudit } from '../audit/record-audit';
+import { publishedLibrary } from '../libraries/published-library';
+import { Replicate } from '../measurements/replicate.entity';
+import { findLabSample, moveSample, requireSampleState } from '../samples/sample-access';
+import { Analysis } from './analysis.entity';
+import { compareAnalyses } from './compare-analyses';
+import { computeAnalysis } from './compute-analysis';
+
+/** Runs a new analysis of the sample's included replicates; an earlier draft is superseded. */
+export async function runAnalysis(manager: EntityManager, auth: AuthContext, labId: string, sampleId: string, libraryVersionId: string): Promise<string> {
+  const sample = await findLabSample(manager, labId, sampleId, true);
+  requireSampleState(sample, ['measuring', 'analysed', 'returned-for-rework'], 'running an analysis');
+  const library = await publishedLibrary(manager, labId, libraryVersionId);
+  const [order] = await manager.query(`SELECT product_id FROM test_order WHERE id = $1 AND lab_id = $2`, [sample.orderId, labId]);
+  if (order.product_id !== library.productId) {
+    throw ApiError.badRequest(`Library version ${library.version} is of ${library.productName}, not of the product this sample was ordered for.`, [
+      { field: 'libraryVersionId', message: 'belongs to another product' },
+    ]);
+  }
+  const replicates = await manager.find(Replicate, { where: { labId, sampleId, excluded: false }, order: { replicateNumber: 'ASC' } });
+  if (!replicates.length) throw ApiError.conflict(`Sample ${sample.code} has no included replicates; upload measurements first.`);
+  const computed = computeAnalysis(replicates, library);
+  await manager.update(Analysis, { labId, sampleId, status: 'draft' }, { status: 'superseded' });
+  const inserted = await manager.insert(Analysis, {
+    labId,
+    sampleId,
+    libraryVersionId,
+    status: 'draft',
+    verdict: computed.result.verdict,
+    replicateIds: replicates.map((r) => r.id),
+    method: library.method,
+    engineVersion: ENGINE_VERSION,
+    result: computed.result,
+    sampleSpectrum: computed.sampleSpectrum,
+    remarks: '',
+    analystUserId: auth.userId,
+    createdAt: new Date(),
+  });
+  const id = inserted.identifiers[0].id as string;
+  await moveSample(manager, sample, 'analysed');
+  await recordAudit(manager, { labId, actorUserId: auth.userId, action: 'analysis.run', subjectType: 'analysis', subjectId: id, details: { sampleCode: sample.code, libraryVersionId, verdict: computed.result.verdict } });
+  return id;
+}
+
+async function findAnalysis(manager: EntityManager, labId: string, analysisId: string, lock = false): Promise<Analysis> {
+  const a = await manager.findOne(Analysis, { where: { id: analysisId, labId }, ...(lock ? { lock: { mode: 'pessimistic_write' as const } } : {}) });
+  if (!a) throw ApiError.notFound('Analysis');
+  return a;
+}
+
+function requireOwnDraft(a: Analysis, auth: AuthContext, doing: string): void {
+  if (a.status !== 'draft') throw ApiError.conflict(`This analysis is ${a.status}; only a draft allows ${doing}.`);
+  if (a.analystUserId !== auth.userId) throw ApiError.forbidden(`Only the analyst who ran this analysis may do ${doing}.`);
+}
+
+export async function updateRemarks(manager: EntityManager, auth: AuthContext, labId: string, analysisId: string, remarks: string): Promise<void> {
+  const a = await findAnalysis(manager, labId, analysisId, true);
+  requireOwnDraft(a, auth, 'editing the remarks');
+  await manager.update(Analysis, { id: a.id, labId }, { remarks });
+}
+
+/** Draft → submitted, sample → in review. */
+export async function submitForReview(manager: EntityManager, auth: AuthContext, labId: string, analysisId: string): Promise<void> {
+  const a = await findAnalysis(manager, labId, analysisId, true);
+  requireOwnDraft(a, auth, 'submitting it for review');
+  const sample = await findLabSample(manager, labId, a.sampleId, true);
+  await manager.update(Analysis, { id: a.id, labId }, { status: 'submitted', submittedAt: new Date() });
+  await moveSample(manager, sample, 'in-review');
+  await recordAudit(manager, { labId, actorUserId: auth.userId, action: 'analysis.submitted', subjectType: 'analysis', subjectId: a.id, details: { sampleCode: sample.code, verdict: a.verdict } });
+}
+
+/** Recomputes from the stored inputs (same replicates, same frozen library version) and compares. */
+export async function reproduceAnalysis(manager: EntityManager, labId: string, analysisId: string): Promise<ReproduceCheck> {
+  const a = await findAnalysis(manager, labId, analysisId);
+  const library = await publishedLibrary(manager, labId, a.libraryVersionId);
+  const replicates = await manager.find(Replicate, { where: { labId, id: In(a.replicateIds) }, order: { replicateNumber: 'ASC' } });
+  if (replicates.length !== a.replicateIds.length) throw ApiError.conflict('Some replicates this analysis used are no longer stored; it cannot be reproduced.');
+  // Exactly the replicates it ran on, even if one was excluded afterwards.
+  const recomputed = computeAnalysis(replicates, library);
+  const { differences, maxAbsoluteDifference } = compareAnalyses(a.result, recomputed.result);
+  return {
+    reproduced: differences.length === 0,
+    storedEngineVersion: a.engineVersion,
+    currentEngineVersion: ENGINE_VERSION,
+    maxAbsoluteDifference,
+    differences,
+  };
+}

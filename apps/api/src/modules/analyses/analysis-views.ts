@@ -1,0 +1,96 @@
+import type { EntityManager } from 'typeorm';
+import type { Analysis as AnalysisView, AnalysisListItem, AnalysisListQuery, Page } from '@ohmprint/contracts';
+import { ApiError } from '../../core/api-error';
+import { escapeLike, pageParams, toPage } from '../../core/paging';
+
+const iso = (d: Date | null) => d?.toISOString() ?? null;
+
+export async function analysisView(manager: EntityManager, labId: string, analysisId: string): Promise<AnalysisView> {
+  const [a]: {
+    id: string; status: AnalysisView['status']; result: AnalysisView['result']; method: AnalysisView['method']; engine_version: string; remarks: string;
+    created_at: Date; submitted_at: Date | null; sample_id: string; sample_code: string; version_id: string; version: number; product_name: string;
+    analyst_id: string; analyst_name: string;
+  }[] = await manager.query(
+    `SELECT a.id, a.status, a.result, a.method, a.engine_version, a.remarks, a.created_at, a.submitted_at,
+            s.id AS sample_id, s.code AS sample_code, v.id AS version_id, v.version, p.name AS product_name,
+            u.id AS analyst_id, u.display_name AS analyst_name
+     FROM analysis a
+     JOIN sample s ON s.id = a.sample_id
+     JOIN library_version v ON v.id = a.library_version_id
+     JOIN reference_library l ON l.id = v.library_id JOIN product p ON p.id = l.product_id
+     JOIN app_user u ON u.id = a.analyst_user_id
+     WHERE a.id = $1 AND a.lab_id = $2`,
+    [analysisId, labId],
+  );
+  if (!a) throw ApiError.notFound('Analysis');
+  const reviews: { id: string; decision: 'approved' | 'returned'; comments: string; decided_at: Date; reviewer_id: string; reviewer_name: string }[] = await manager.query(
+    `SELECT r.id, r.decision, r.comments, r.decided_at, u.id AS reviewer_id, u.display_name AS reviewer_name
+     FROM analysis_review r JOIN app_user u ON u.id = r.reviewer_user_id
+     WHERE r.analysis_id = $1 AND r.lab_id = $2 ORDER BY r.decided_at`,
+    [analysisId, labId],
+  );
+  return {
+    id: a.id,
+    sample: { id: a.sample_id, code: a.sample_code },
+    libraryVersion: { id: a.version_id, version: a.version, productName: a.product_name },
+    status: a.status,
+    result: a.result,
+    method: a.method,
+    engineVersion: a.engine_version,
+    remarks: a.remarks,
+    analyst: { id: a.analyst_id, displayName: a.analyst_name },
+    createdAt: a.created_at.toISOString(),
+    submittedAt: iso(a.submitted_at),
+    reviews: reviews.map((r) => ({ id: r.id, decision: r.decision, comments: r.comments, reviewer: { id: r.reviewer_id, displayName: r.reviewer_name }, decidedAt: r.decided_at.toISOString() })),
+  };
+}
+
+const SORT: Record<AnalysisListQuery['sort'], string> = { createdAt: 'a.created_at', submittedAt: 'a.submitted_at', sample: 's.code', status: 'a.status' };
+
+/** Analyses of the lab; the review queue is this list filtered to `submitted`. */
+export async function listAnalyses(manager: EntityManager, labId: string, query: AnalysisListQuery): Promise<Page<AnalysisListItem>> {
+  const params: unknown[] = [labId];
+  const where = ['a.lab_id = $1'];
+  if (query.status) {
+    params.push(query.status);
+    where.push(`a.status = $${params.length}`);
+  }
+  if (query.sampleId) {
+    params.push(query.sampleId);
+    where.push(`a.sample_id = $${params.length}`);
+  }
+  if (query.q) {
+    params.push(escapeLike(query.q));
+    where.push(`(s.code ILIKE $${params.length} OR p.name ILIKE $${params.length} OR u.display_name ILIKE $${params.length})`);
+  }
+  const { skip, take } = pageParams(query);
+  params.push(take, skip);
+  const rows: { id: string; sample_id: string; sample_code: string; product_name: string; status: AnalysisListItem['status']; verdict: AnalysisListItem['verdict']; analyst_id: string; analyst_name: string; created_at: Date; submitted_at: Date | null; total: string }[] =
+    await manager.query(
+      `SELECT a.id, s.id AS sample_id, s.code AS sample_code, p.name AS product_name, a.status, a.verdict,
+              u.id AS analyst_id, u.display_name AS analyst_name, a.created_at, a.submitted_at, count(*) OVER () AS total
+       FROM analysis a
+       JOIN sample s ON s.id = a.sample_id
+       JOIN test_order o ON o.id = s.order_id JOIN product p ON p.id = o.product_id
+       JOIN app_user u ON u.id = a.analyst_user_id
+       WHERE ${where.join(' AND ')}
+       ORDER BY ${SORT[query.sort]} ${query.dir === 'asc' ? 'ASC' : 'DESC'} NULLS LAST, a.id
+       LIMIT $${params.length - 1} OFFSET $${params.length}`,
+      params,
+    );
+  return toPage(
+    rows.map((r) => ({
+      id: r.id,
+      sampleId: r.sample_id,
+      sampleCode: r.sample_code,
+      productName: r.product_name,
+      status: r.status,
+      verdict: r.verdict,
+      analyst: { id: r.analyst_id, displayName: r.analyst_name },
+      createdAt: r.created_at.toISOString(),
+      submittedAt: iso(r.submitted_at),
+    })),
+    rows.length ? Number(rows[0].total) : 0,
+    query,
+  );
+}

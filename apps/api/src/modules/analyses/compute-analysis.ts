@@ -1,0 +1,101 @@
+import { averageReplicates, fitModel, judge, MODEL_CATALOG, replicateAgreement, sampleMap, type Spectrum } from '@ohmprint/spectral-engine';
+import type { AnalysisResult, FittedParameter, QualityFlag, SpectrumPoints } from '@ohmprint/contracts';
+import { ApiError } from '../../core/api-error';
+import type { PublishedLibrary } from '../libraries/published-library';
+import { prepareReplicates } from '../measurements/prepared-replicates';
+import type { Replicate } from '../measurements/replicate.entity';
+import { distanceHistogram } from './distance-histogram';
+
+/**
+ * Lots drawn on the map: the sample's nearest ones, so the map stays legible and quick for
+ * libraries of thousands of lots (the engine decomposes up to 150 points exactly).
+ */
+export const MAP_LOTS = 149;
+
+export interface ComputedAnalysis {
+  result: AnalysisResult;
+  sampleSpectrum: SpectrumPoints;
+}
+
+const points = (s: Spectrum): SpectrumPoints => ({ frequencyHz: Array.from(s.frequencyHz), re: Array.from(s.re), im: Array.from(s.im) });
+
+function fittedParameters(model: string, fit: ReturnType<typeof fitModel>): FittedParameter[] {
+  if (!fit.converged) return [];
+  const units = new Map(MODEL_CATALOG.find((m) => m.name === model)?.parameters.map((p) => [p.name, p.unit]) ?? []);
+  return fit.parameterNames.map((name) => ({
+    name,
+    value: fit.parameters[name],
+    standardError: Number.isFinite(fit.standardErrors[name]) ? fit.standardErrors[name] : null,
+    unit: (units.get(name) ?? '').replace('Ω', 'Ω·cm'),
+  }));
+}
+
+/**
+ * Scores a sample against a published library version, every number by the engine: the included
+ * replicates normalised and resampled under the version's frozen method, averaged, then distances,
+ * verdict, typicality, map and model fit, with the quality flags a reviewer needs to see.
+ * Pure given its inputs, which is what lets `reproduce` recompute and compare.
+ */
+export function computeAnalysis(replicates: readonly Replicate[], library: PublishedLibrary): ComputedAnalysis {
+  const method = library.method;
+  const flags: QualityFlag[] = [];
+  const prepared = prepareReplicates(replicates, method, library.grid);
+  for (const p of prepared) if (p.coverageProblem) flags.push({ code: 'band-not-covered', severity: 'warning', message: `${p.coverageProblem}; this replicate was left out.` });
+  const usable = prepared.filter((p) => p.spectrum !== null);
+  if (!usable.length) throw ApiError.conflict('No included replicate covers the method band, so there is nothing to analyse. Re-measure over the full band.');
+  for (const r of replicates) {
+    if (!r.kramersKronig.passed) {
+      flags.push({ code: 'kk-failed', severity: 'warning', message: `Replicate ${r.replicateNumber} (${r.fileName}) fails the Kramers–Kronig test: ${r.kramersKronig.maxResidualPercent.toFixed(2)} % > ${r.kramersKronig.limitPercent} %.` });
+    }
+  }
+  if (usable.length < method.minimumReplicates) {
+    flags.push({ code: 'too-few-replicates', severity: 'warning', message: `${usable.length} usable replicate(s); the method asks for at least ${method.minimumReplicates}.` });
+  }
+  const spectra = usable.map((p) => p.spectrum as Spectrum);
+  if (spectra.length >= 2) {
+    const agreement = replicateAgreement(spectra);
+    if (agreement.maxDistance > method.replicateDistanceLimit) {
+      flags.push({ code: 'poor-replicate-agreement', severity: 'warning', message: `Replicates differ by up to ${agreement.maxDistance.toPrecision(3)} (limit ${method.replicateDistanceLimit}).` });
+    }
+  }
+  const sample = spectra.length === 1 ? spectra[0] : averageReplicates(spectra);
+
+  const judgement = judge(sample, library.spectra, library.calibration);
+  if (judgement.reason) flags.push({ code: 'too-few-lots', severity: 'warning', message: `No verdict: ${judgement.reason}.` });
+  const lotDistance = (i: number) => ({ lotId: library.lots[i].id, lotCode: library.lots[i].lotCode, distance: judgement.distances[i] });
+
+  const byDistance = judgement.distances.map((d, i) => [d, i] as const).sort((a, b) => a[0] - b[0] || a[1] - b[1]);
+  const mapIndices = byDistance.slice(0, MAP_LOTS).map(([, i]) => i);
+  let map: AnalysisResult['map'] = { sample: [0, 0], lots: [] };
+  if (mapIndices.length >= 2) {
+    const m = sampleMap(mapIndices.map((i) => library.spectra[i]), sample);
+    const s = m.points[m.points.length - 1];
+    map = {
+      sample: [s.x, s.y],
+      lots: m.points.slice(0, -1).map((p) => ({ lotId: library.lots[mapIndices[p.index]].id, lotCode: library.lots[mapIndices[p.index]].lotCode, x: p.x, y: p.y })),
+    };
+  }
+
+  const fit = fitModel(sample, method.model);
+  if (!fit.converged) flags.push({ code: 'fit-poor', severity: 'warning', message: `The ${method.model} model did not converge: ${fit.reason}.` });
+
+  const nearest = judgement.nearest ? lotDistance(judgement.nearest.index) : null;
+  return {
+    result: {
+      verdict: judgement.verdict,
+      nearest,
+      t95: library.calibration.lowerThreshold,
+      t99: library.calibration.upperThreshold,
+      typicality: judgement.typicality,
+      distances: judgement.distances.map((_, i) => lotDistance(i)),
+      map,
+      histogram: distanceHistogram(library.calibration.nearestDistances, nearest?.distance ?? null),
+      fit: fit.converged
+        ? { model: method.model, parameters: fittedParameters(method.model, fit), chiSquare: fit.chiSquare, converged: true }
+        : { model: method.model, parameters: [], chiSquare: 0, converged: false },
+      qualityFlags: flags,
+      replicateIds: usable.map((p) => p.id),
+    },
+    sampleSpectrum: points(sample),
+  };
+}

@@ -1,0 +1,8 @@
+import { linearKramersKronig, type Spectrum } from '@ohmprint/spectral-engine';
+import type { KramersKronigSummary } from '@ohmprint/contracts';
+
+/** The engine's linear Kramers–Kronig test of a measured sweep, against the lab's residual limit. */
+export function kramersKronigCheck(s: Spectrum, limitPercent: number): KramersKronigSummary {
+  const kk = linearKramersKronig(s, { limitPct: limitPercent });
+  return { passed: kk.passed, maxResidualPercent: kk.maxAbsResidualPct, elements: kk.elements, mu: kk.mu, limitPercent: kk.limitPct };
+}

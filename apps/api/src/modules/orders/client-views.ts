@@ -1,0 +1,133 @@
+import type { EntityManager } from 'typeorm';
+import type { ClientOrderListQuery, OrderSummary, Page, ProductListQuery, ProductSummary } from '@ohmprint/contracts';
+import { ApiError } from '../../core/api-error';
+import { escapeLike, pageParams, toPage } from '../../core/paging';
+
+/** Whose data a client user sees: their organisation, inside their lab. */
+export interface ClientScope {
+  labId: string;
+  clientOrganisationId: string;
+}
+
+interface OrderRow {
+  id: string;
+  status: OrderSummary['status'];
+  placed_at: Date;
+  credits_reserved: number;
+  product_id: string;
+  product_name: string;
+  matrix: OrderSummary['product']['matrix'];
+  client_id: string;
+  client_name: string;
+  placed_by_id: string;
+  placed_by_name: string;
+  samples: { id: string; code: string; state: OrderSummary['samples'][number]['state']; obtainedWhere: string; obtainedOn: string; labelText: string; claimedLot: string; updatedAt: string }[];
+  total: string;
+}
+
+const ORDER_SQL = `
+  SELECT o.id, o.status, o.placed_at, o.credits_reserved, p.id AS product_id, p.name AS product_name, p.matrix,
+         co.id AS client_id, co.name AS client_name, u.id AS placed_by_id, u.display_name AS placed_by_name,
+         COALESCE((SELECT json_agg(json_build_object('id', s.id, 'code', s.code, 'state', s.state,
+                    'obtainedWhere', s.obtained_where, 'obtainedOn', to_char(s.obtained_on, 'YYYY-MM-DD'),
+                    'labelText', s.label_text, 'claimedLot', s.claimed_lot,
+                    'updatedAt', to_char(s.state_changed_at AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"')) ORDER BY s.code)
+                   FROM sample s WHERE s.order_id = o.id AND s.lab_id = o.lab_id), '[]'::json) AS samples,
+         count(*) OVER () AS total
+  FROM test_order o
+  JOIN product p ON p.id = o.product_id AND p.lab_id = o.lab_id
+  JOIN client_organisation co ON co.id = o.client_organisation_id AND co.lab_id = o.lab_id
+  JOIN app_user u ON u.id = o.placed_by_user_id`;
+
+function orderView(r: OrderRow): OrderSummary {
+  return {
+    id: r.id,
+    product: { id: r.product_id, name: r.product_name, matrix: r.matrix },
+    clientOrganisation: { id: r.client_id, name: r.client_name },
+    status: r.status,
+    placedBy: { id: r.placed_by_id, displayName: r.placed_by_name },
+    placedAt: r.placed_at.toISOString(),
+    creditsReserved: r.credits_reserved,
+    samples: r.samples.map((s) => ({
+      id: s.id,
+      code: s.code,
+      state: s.state,
+      description: { obtainedWhere: s.obtainedWhere, obtainedOn: s.obtainedOn, labelText: s.labelText, claimedLot: s.claimedLot },
+      updatedAt: s.updatedAt,
+    })),
+  };
+}
+
+const ORDER_SORT: Record<ClientOrderListQuery['sort'], string> = { placedAt: 'o.placed_at', status: 'o.status', product: 'lower(p.name)' };
+
+/** The organisation's orders with their samples and states. */
+export async function clientOrders(manager: EntityManager, scope: ClientScope, query: ClientOrderListQuery): Promise<Page<OrderSummary>> {
+  const params: unknown[] = [scope.labId, scope.clientOrganisationId];
+  const where = ['o.lab_id = $1', 'o.client_organisation_id = $2'];
+  if (query.status) {
+    params.push(query.status);
+    where.push(`o.status = $${params.length}`);
+  }
+  if (query.q) {
+    params.push(escapeLike(query.q));
+    const p = `$${params.length}`;
+    where.push(`(p.name ILIKE ${p} OR EXISTS (SELECT 1 FROM sample s WHERE s.order_id = o.id AND (s.code ILIKE ${p} OR s.claimed_lot ILIKE ${p} OR s.label_text ILIKE ${p})))`);
+  }
+  const { skip, take } = pageParams(query);
+  params.push(take, skip);
+  const rows: OrderRow[] = await manager.query(
+    `${ORDER_SQL} WHERE ${where.join(' AND ')}
+     ORDER BY ${ORDER_SORT[query.sort]} ${query.dir === 'asc' ? 'ASC' : 'DESC'}, o.id
+     LIMIT $${params.length - 1} OFFSET $${params.length}`,
+    params,
+  );
+  return toPage(rows.map(orderView), rows.length ? Number(rows[0].total) : 0, query);
+}
+
+export async function clientOrder(manager: EntityManager, scope: ClientScope, orderId: string): Promise<OrderSummary> {
+  const rows: OrderRow[] = await manager.query(`${ORDER_SQL} WHERE o.lab_id = $1 AND o.client_organisation_id = $2 AND o.id = $3`, [scope.labId, scope.clientOrganisationId, orderId]);
+  if (!rows.length) throw ApiError.notFound('Order');
+  return orderView(rows[0]);
+}
+
+const PRODUCT_SORT: Record<ProductListQuery['sort'], string> = { name: 'lower(p.name)', matrix: 'p.matrix' };
+
+/** The organisation's products, each with its newest published library version. */
+export async function clientProducts(manager: EntityManager, scope: ClientScope, query: ProductListQuery): Promise<Page<ProductSummary>> {
+  const params: unknown[] = [scope.labId, scope.clientOrganisationId];
+  let search = '';
+  if (query.q) {
+    params.push(escapeLike(query.q));
+    search = 'AND (p.name ILIKE $3 OR p.description ILIKE $3)';
+  }
+  const { skip, take } = pageParams(query);
+  params.push(take, skip);
+  const rows: { id: string; name: string; matrix: ProductSummary['matrix']; description: string; client_id: string; client_name: string; version_id: string | null; version: number | null; lot_count: number | null; total: string }[] =
+    await manager.query(
+      `SELECT p.id, p.name, p.matrix, p.description, co.id AS client_id, co.name AS client_name,
+              v.id AS version_id, v.version, (SELECT count(*)::int FROM reference_lot r WHERE r.library_version_id = v.id) AS lot_count,
+              count(*) OVER () AS total
+       FROM product p
+       JOIN client_organisation co ON co.id = p.client_organisation_id AND co.lab_id = p.lab_id
+       LEFT JOIN LATERAL (
+         SELECT v.id, v.version FROM library_version v JOIN reference_library l ON l.id = v.library_id
+         WHERE l.product_id = p.id AND v.lab_id = p.lab_id AND v.status = 'published' ORDER BY v.version DESC LIMIT 1
+       ) v ON true
+       WHERE p.lab_id = $1 AND p.client_organisation_id = $2 ${search}
+       ORDER BY ${PRODUCT_SORT[query.sort]} ${query.dir === 'asc' ? 'ASC' : 'DESC'}, p.id
+       LIMIT $${params.length - 1} OFFSET $${params.length}`,
+      params,
+    );
+  return toPage(
+    rows.map((r) => ({
+      id: r.id,
+      name: r.name,
+      matrix: r.matrix,
+      description: r.description,
+      clientOrganisation: { id: r.client_id, name: r.client_name },
+      publishedLibraryVersion: r.version_id ? { id: r.version_id, version: r.version as number, lotCount: r.lot_count ?? 0 } : null,
+    })),
+    rows.length ? Number(rows[0].total) : 0,
+    query,
+  );
+}

@@ -1,0 +1,138 @@
+import type { EntityManager } from 'typeorm';
+import type { Spectrum } from '@ohmprint/spectral-engine';
+import type { ReportContent, ReportPlots } from '../reports/pdf/report-data';
+import type { Analysis } from '../analyses/analysis.entity';
+import { publishedLibrary } from '../libraries/published-library';
+
+/** Spread of the reference lots on the grid: |Z| and phase (degrees) at each frequency. */
+function referenceEnvelope(spectra: readonly Spectrum[], grid: Float64Array): NonNullable<ReportPlots['referenceEnvelope']> {
+  const n = grid.length;
+  const modulusMin = new Array<number>(n).fill(Infinity);
+  const modulusMax = new Array<number>(n).fill(-Infinity);
+  const phaseMinDeg = new Array<number>(n).fill(Infinity);
+  const phaseMaxDeg = new Array<number>(n).fill(-Infinity);
+  for (const s of spectra) {
+    for (let i = 0; i < n; i++) {
+      const m = Math.hypot(s.re[i], s.im[i]);
+      const p = (Math.atan2(s.im[i], s.re[i]) * 180) / Math.PI;
+      modulusMin[i] = Math.min(modulusMin[i], m);
+      modulusMax[i] = Math.max(modulusMax[i], m);
+      phaseMinDeg[i] = Math.min(phaseMinDeg[i], p);
+      phaseMaxDeg[i] = Math.max(phaseMaxDeg[i], p);
+    }
+  }
+  return { frequencyHz: Array.from(grid), modulusMin, modulusMax, phaseMinDeg, phaseMaxDeg };
+}
+
+interface ContextRow {
+  code: string;
+  obtained_where: string;
+  obtained_on: string;
+  label_text: string;
+  claimed_lot: string;
+  received_at: Date | null;
+  product_name: string;
+  matrix: string;
+  client_id: string;
+  client_name: string;
+  client_email: string | null;
+  placed_by_name: string;
+  placed_by_email: string;
+  lab_name: string;
+  lab_address: string;
+  accreditation_body: string | null;
+  accreditation_number: string | null;
+  analyst_name: string;
+  carrier: string | null;
+  seal_intact: boolean | null;
+  container_condition: string | null;
+  volume_ml: number | null;
+  temperature_c: number | null;
+  tested_from: Date;
+  tested_to: Date;
+}
+
+/** What the report says about an approved analysis, read from the workflow's own records. */
+export async function reportContentFor(manager: EntityManager, analysis: Analysis, reviewerName: string): Promise<{ content: ReportContent; clientOrganisationId: string }> {
+  const [c]: ContextRow[] = await manager.query(
+    `SELECT s.code, s.obtained_where, to_char(s.obtained_on, 'YYYY-MM-DD') AS obtained_on, s.label_text, s.claimed_lot, s.received_at,
+            p.name AS product_name, p.matrix, co.id AS client_id, co.name AS client_name, co.contact_email AS client_email,
+            pb.display_name AS placed_by_name, pb.email AS placed_by_email,
+            l.name AS lab_name, l.address AS lab_address, l.accreditation_body, l.accreditation_number,
+            an.display_name AS analyst_name,
+            i.carrier, i.seal_intact, i.container_condition, i.volume_ml, i.temperature_c,
+            (SELECT min(r.uploaded_at) FROM replicate r WHERE r.id = ANY($3::uuid[])) AS tested_from,
+            (SELECT max(r.uploaded_at) FROM replicate r WHERE r.id = ANY($3::uuid[])) AS tested_to
+     FROM sample s
+     JOIN test_order o ON o.id = s.order_id JOIN product p ON p.id = o.product_id
+     JOIN client_organisation co ON co.id = o.client_organisation_id
+     JOIN app_user pb ON pb.id = o.placed_by_user_id
+     JOIN lab l ON l.id = s.lab_id
+     JOIN app_user an ON an.id = $4
+     LEFT JOIN sample_intake i ON i.sample_id = s.id
+     WHERE s.id = $1 AND s.lab_id = $2`,
+    [analysis.sampleId, analysis.labId, analysis.result.replicateIds, analysis.analystUserId],
+  );
+  const library = await publishedLibrary(manager, analysis.labId, analysis.libraryVersionId);
+  const r = analysis.result;
+  const m = analysis.method;
+  const condition = c.container_condition
+    ? `Seal ${c.seal_intact ? 'intact' : 'broken'}; container ${c.container_condition}; ${c.volume_ml} ml; ${c.temperature_c} °C on arrival${c.carrier ? ` (${c.carrier})` : ''}`
+    : 'Not recorded';
+  const content: ReportContent = {
+    lab: {
+      name: c.lab_name,
+      address: c.lab_address.split(/\s*(?:\n|,)\s*/).filter(Boolean),
+      accreditation: c.accreditation_body && c.accreditation_number ? { body: c.accreditation_body, number: c.accreditation_number } : null,
+    },
+    client: { name: c.client_name, contactName: c.placed_by_name, contactEmail: c.client_email ?? c.placed_by_email },
+    sample: {
+      code: c.code,
+      productName: c.product_name,
+      matrix: c.matrix,
+      claimedLot: c.claimed_lot || null,
+      obtainedWhere: c.obtained_where || null,
+      obtainedOn: c.obtained_on,
+      labelText: c.label_text || null,
+      receivedAt: (c.received_at ?? analysis.createdAt).toISOString(),
+      conditionOnReceipt: condition,
+    },
+    method: {
+      name: 'Impedance fingerprint screening against a reference library (Canberra distance)',
+      bandHz: { min: m.bandMinHz, max: m.bandMaxHz },
+      gridPoints: m.gridPoints,
+      referenceTemperatureC: m.referenceTemperatureC,
+      temperatureCoefficientPerC: m.temperatureCoefficientPerC,
+      modelName: m.model,
+      quantiles: { lower: m.lowerQuantile, upper: m.upperQuantile },
+      library: { productName: library.productName, version: String(library.version), lotCount: library.lots.length, publishedAt: library.publishedAt.toISOString() },
+      engineVersion: analysis.engineVersion,
+      replicateCount: r.replicateIds.length,
+      deviations: r.qualityFlags.filter((f) => f.code === 'too-few-replicates' || f.code === 'band-not-covered').map((f) => f.message),
+    },
+    results: {
+      verdict: r.verdict,
+      nearestDistance: r.nearest?.distance ?? null,
+      nearestLot: r.nearest?.lotCode ?? null,
+      t95: r.t95,
+      t99: r.t99,
+      typicality: r.typicality,
+      fittedParameters: r.fit?.parameters ?? [],
+      goodnessOfFit: r.fit?.converged ? r.fit.chiSquare : null,
+      qualityFlags: r.qualityFlags.map((f) => ({ severity: 'warning' as const, message: f.message })),
+    },
+    plots: {
+      impedanceUnit: 'Ω·cm',
+      sample: analysis.sampleSpectrum,
+      referenceEnvelope: referenceEnvelope(library.spectra, library.grid),
+      calibrationDistances: [...library.calibration.nearestDistances],
+      map: r.map.lots.length ? { lots: r.map.lots.map((l) => ({ label: l.lotCode, x: l.x, y: l.y })), sample: { x: r.map.sample[0], y: r.map.sample[1] } } : null,
+    },
+    testedFrom: (c.tested_from ?? analysis.createdAt).toISOString().slice(0, 10),
+    testedTo: (c.tested_to ?? analysis.createdAt).toISOString().slice(0, 10),
+    analyst: { name: c.analyst_name, role: 'Analyst' },
+    authorisedBy: { name: reviewerName, role: 'Reviewer' },
+    remarks: analysis.remarks || null,
+  };
+  return { content, clientOrganisationId: c.client_id };
+}
