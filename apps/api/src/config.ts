@@ -1,5 +1,6 @@
 import { z } from 'zod';
 
+const REQUIRED_SECRET = 'is required (the local scripts export it from .data/secrets.env)';
 const bool = z.enum(['true', 'false', '1', '0']).transform((v) => v === 'true' || v === '1');
 
 /**
@@ -9,17 +10,17 @@ const bool = z.enum(['true', 'false', '1', '0']).transform((v) => v === 'true' |
 const EnvSchema = z.object({
   NODE_ENV: z.enum(['development', 'test', 'production']).default('development'),
   HOST: z.string().default('127.0.0.1'),
-  PORT: z.coerce.number().int().min(1).max(65535).default(4300),
+  PORT: z.coerce.number({ error: 'must be a port number' }).int().min(1).max(65535).default(4300),
   PUBLIC_BASE_URL: z.url().default('http://127.0.0.1:4300'),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   BODY_LIMIT: z.string().regex(/^\d+(b|kb|mb)$/i, 'like 256kb or 2mb').default('256kb'),
   DATABASE_HOST: z.string().default('127.0.0.1'),
   DATABASE_PORT: z.coerce.number().int().default(54329),
   DATABASE_USER: z.string().default('ohmprint'),
-  DATABASE_PASSWORD: z.string().min(1, 'is required (the local scripts export it from .data/secrets.env)'),
+  DATABASE_PASSWORD: z.string({ error: REQUIRED_SECRET }).min(1, REQUIRED_SECRET),
   DATABASE_NAME: z.string().default('ohmprint'),
   DATABASE_POOL_SIZE: z.coerce.number().int().min(1).max(100).default(10),
-  JWT_ACCESS_SECRET: z.string().min(32, 'must be at least 32 characters'),
+  JWT_ACCESS_SECRET: z.string({ error: REQUIRED_SECRET }).min(32, 'must be at least 32 characters'),
   ACCESS_TOKEN_TTL_SECONDS: z.coerce.number().int().min(30).max(86400).default(900),
   REFRESH_TOKEN_TTL_DAYS: z.coerce.number().int().min(1).max(90).default(14),
   COOKIE_SECURE: bool.optional(),
@@ -37,6 +38,9 @@ const EnvSchema = z.object({
   OUTBOX_POLL_MS: z.coerce.number().int().min(100).default(2000),
   OUTBOX_MAX_ATTEMPTS: z.coerce.number().int().min(1).default(12),
   OUTBOX_WORKER: bool.default(true),
+  STRIPE_API_BASE: z.url().default('http://127.0.0.1:12111'),
+  STRIPE_SECRET_KEY: z.string().min(1).default('sk_test_ohmprint_local'),
+  PAYMENT_WEBHOOK_SECRET: z.string().optional(),
   SHUTDOWN_TIMEOUT_MS: z.coerce.number().int().min(100).default(10000),
   OHMPRINT_DATA_DIR: z.string().default('.data'),
   PORTALS_DIR: z.string().default('dist'),
@@ -92,6 +96,11 @@ function buildConfig(env: Env) {
       pollMs: env.OUTBOX_POLL_MS,
       maxAttempts: env.OUTBOX_MAX_ATTEMPTS,
       workerEnabled: env.OUTBOX_WORKER,
+    },
+    payments: {
+      apiBase: env.STRIPE_API_BASE,
+      secretKey: env.STRIPE_SECRET_KEY,
+      webhookSecret: env.PAYMENT_WEBHOOK_SECRET,
     },
     shutdownTimeoutMs: env.SHUTDOWN_TIMEOUT_MS,
     dataDir: env.OHMPRINT_DATA_DIR,
