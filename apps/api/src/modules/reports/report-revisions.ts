@@ -59,24 +59,8 @@ export async function amendReport(
 ): Promise<TestReport> {
   const previous = await lockCurrent(manager, labId, reportId);
   const lab = await manager.findOneByOrFail(Lab, { id: labId });
-  const stored = previous.content;
-  const content: ReportContent = applyCorrections(
-    {
-      lab: stored.lab,
-      client: stored.client,
-      sample: stored.sample,
-      method: stored.method,
-      results: stored.results,
-      plots: stored.plots,
-      testedFrom: stored.testedFrom,
-      testedTo: stored.testedTo,
-      analyst: stored.analyst,
-      authorisedBy: stored.authorisedBy,
-      remarks: stored.remarks,
-    },
-    request.corrections,
-    { name: auth.displayName, role: authorisingRole(auth) },
-  );
+  const { reportNumber: _number, issuedAt: _issuedAt, replaces: _replaces, verification: _verification, ...stored } = previous.content;
+  const content = applyCorrections(stored, request.corrections, { name: auth.displayName, role: authorisingRole(auth) });
   const revision = previous.revision + 1;
   const amended = await storeSignedReport(manager, lab, {
     content,

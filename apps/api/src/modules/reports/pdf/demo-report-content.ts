@@ -98,6 +98,7 @@ export function demoReportContent(overrides: Partial<ReportContent> = {}): Repor
     analyst: { name: 'Demo Analyst', role: 'analyst' },
     authorisedBy: { name: 'Demo Reviewer', role: 'reviewer' },
     remarks: 'Three replicates agreed within 0.3 % of |Z|. Invented demo data.',
+    demo: true,
     ...overrides,
   };
 }

@@ -7,7 +7,7 @@ import { drawBode, drawNyquist } from './spectrum-plots';
 import { drawDistanceHistogram, drawLotMap } from './library-plots';
 import { drawVerdict } from './verdict-badge';
 import { drawQr } from './qr-vector';
-import { ITEMS_TESTED, REPRODUCTION, SAFETY_NOTE, SCREENING_CAUTION, decisionRule } from './report-wording';
+import { DEMO_MARK, ITEMS_TESTED, REPRODUCTION, SAFETY_NOTE, SCREENING_CAUTION, decisionRule } from './report-wording';
 import { formatDate, formatDateTime, formatNumber, formatPercent } from './report-formats';
 
 /**
@@ -185,8 +185,10 @@ function writePlots(flow: Flow, data: ReportData): void {
   if (data.plots.map) drawLotMap(flow.doc, { x: PAGE.left + 38 + w2 + 50, y: top2, w: w2, h: 170 }, data.plots);
   flow.y = top2 + 170 + 26;
   flow.paragraph(
-    'Left: how far each reference lot lies from its nearest other lot, with the thresholds and this sample\'s nearest distance. ' +
-      'Right: classical multidimensional scaling of the distances between the lots and the sample; closeness on the map mirrors closeness of the spectra.',
+    "Left: how far each reference lot lies from its nearest other lot, with the thresholds and this sample's nearest distance. " +
+      (data.plots.map
+        ? 'Right: classical multidimensional scaling of the distances between the lots and the sample; closeness on the map mirrors closeness of the spectra.'
+        : 'No map is drawn: the library holds too few lots for one.'),
     7.5,
     INK.muted,
   );
@@ -255,6 +257,10 @@ function writePageFrames(doc: PDFKit.PDFDocument, data: ReportData): void {
     write(doc, data.lab.name, { size: 8, weight: 600, color: INK.teal, lineBreak: false }, PAGE.left, 30);
     const id = `Test report ${data.reportNumber}`;
     write(doc, id, { size: 8, weight: 600, lineBreak: false }, right - widthOf(doc, id, 600, 8), 30);
+    if (data.demo) {
+      const mid = PAGE.left + CONTENT_WIDTH / 2 - widthOf(doc, DEMO_MARK, 700, 7.5) / 2;
+      write(doc, DEMO_MARK, { size: 7.5, weight: 700, color: INK.inconclusive, lineBreak: false }, mid, 31);
+    }
     doc.save().lineWidth(0.6).strokeColor(INK.rule).moveTo(PAGE.left, 44).lineTo(right, 44).stroke().restore();
     const y = PAGE.height - 40;
     doc.save().lineWidth(0.6).strokeColor(INK.rule).moveTo(PAGE.left, y - 6).lineTo(right, y - 6).stroke().restore();

@@ -124,6 +124,8 @@ export interface ReportContent {
   analyst: ReportPerson;
   authorisedBy: ReportPerson;
   remarks: string | null;
+  /** Invented demo data: every page then says so in its header. */
+  demo?: boolean;
 }
 
 /** What the renderer needs: the content plus the identity issuance gives it. */

@@ -12,7 +12,11 @@ export const SAFETY_NOTE =
   'Measurements are made at low voltage, but samples may be alcoholic, flammable or perishable: follow the ' +
   "laboratory's safety and food-handling rules and local regulations when handling retained material.";
 
-export const ITEMS_TESTED = 'The results in this report relate only to the item tested, as received.';
+export const ITEMS_TESTED =
+  'The results in this report relate only to the item tested, as received. The item was obtained and ' +
+  'supplied by the client; the laboratory took no part in sampling.';
+
+export const DEMO_MARK = 'Demonstration report: invented data, not a real test';
 
 export const REPRODUCTION =
   'This report shall not be reproduced except in full. Its authenticity can be checked online with the ' +

@@ -9,6 +9,8 @@ import { signPdf } from '../signing/sign-pdf';
 import { SCREENING_CAUTION } from './report-wording';
 
 // Checks the rendered report with Debian's poppler-utils, the same tools a reader's system uses.
+// Rendering and signing take about a second each here, more under load: the default 5 s is too tight.
+jest.setTimeout(30_000);
 const dir = mkdtempSync(join(tmpdir(), 'ohmprint-report-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
@@ -80,6 +82,24 @@ describe('an amended test report', () => {
     expect(text).toContain('This report replaces report CAL-2026-000042');
     expect(text).toContain('Claimed lot corrected from the label.');
     expect(execFileSync('pdfsig', [file], { encoding: 'utf8' })).toContain('Signature is Valid.');
+  });
+
+  it('renders a library too small for a verdict: no thresholds, map or fitted model, and says so', async () => {
+    const base = demoReportData();
+    const file = await signedReport('no-verdict', {
+      results: { ...base.results, verdict: 'no-verdict', t95: null, t99: null, typicality: null, fittedParameters: [], goodnessOfFit: null, qualityFlags: [] },
+      plots: { ...base.plots, referenceEnvelope: null, calibrationDistances: [], map: null },
+    });
+    const text = flat(pages(file).join(' '));
+    expect(text).toContain('No verdict');
+    expect(text).toContain('T95 = not available');
+    expect(text).toContain('No model was fitted.');
+    expect(execFileSync('pdfsig', [file], { encoding: 'utf8' })).toContain('Signature is Valid.');
+  });
+
+  it('marks invented demo data on every page', async () => {
+    const file = await signedReport('demo');
+    for (const page of pages(file)) expect(page).toContain('Demonstration report: invented data');
   });
 
   it('shows a not-consistent verdict in words', async () => {
