@@ -4,9 +4,14 @@ import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
-import type { Replicate } from '@ohmprint/contracts';
+import type { Replicate, SampleMeasurements } from '@ohmprint/contracts';
 import { ApiProblem } from '@ohmprint/ui';
 import { MeasurementsData } from './measurements-data';
+
+export interface ExcludeRequest {
+  readonly sampleId: string;
+  readonly replicate: Replicate;
+}
 
 /** Excluding keeps the replicate on file (and in the audit log) but out of the analysis. */
 @Component({
@@ -35,8 +40,9 @@ import { MeasurementsData } from './measurements-data';
   styles: `.reason { width: 100%; }`,
 })
 export class ExcludeDialog {
-  protected readonly replicate = inject<Replicate>(MAT_DIALOG_DATA);
-  private readonly ref = inject(MatDialogRef<ExcludeDialog, Replicate>);
+  private readonly request = inject<ExcludeRequest>(MAT_DIALOG_DATA);
+  protected readonly replicate = this.request.replicate;
+  private readonly ref = inject(MatDialogRef<ExcludeDialog, SampleMeasurements>);
   private readonly data = inject(MeasurementsData);
   protected readonly reason = new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.minLength(5), Validators.maxLength(1000)] });
   protected readonly saving = signal(false);
@@ -44,7 +50,7 @@ export class ExcludeDialog {
 
   protected exclude(): void {
     this.saving.set(true);
-    this.data.exclude(this.replicate.id, this.reason.value).subscribe({
+    this.data.exclude(this.request.sampleId, this.replicate.id, this.reason.value).subscribe({
       next: (updated) => this.ref.close(updated),
       error: (e: unknown) => {
         this.saving.set(false);

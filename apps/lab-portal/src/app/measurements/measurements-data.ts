@@ -3,28 +3,16 @@ import { Injectable, inject } from '@angular/core';
 import {
   BenchEquipmentSchema,
   MeasurementUploadResultSchema,
-  ReplicateSchema,
   SampleMeasurementsSchema,
   SpectrumPointsSchema,
   type BenchEquipment,
   type MeasurementUploadFields,
   type MeasurementUploadResult,
-  type Replicate,
   type SampleMeasurements,
   type SpectrumPoints,
 } from '@ohmprint/contracts';
 import { quietRequest } from '@ohmprint/ui';
 import { filter, map, type Observable } from 'rxjs';
-import { z } from 'zod';
-
-/** Kramers–Kronig residuals of one replicate in % of |Z|, for the residual plot. */
-export const KkResidualPointsSchema = z.object({
-  frequencyHz: z.array(z.number()),
-  rePercent: z.array(z.number()),
-  imPercent: z.array(z.number()),
-  limitPercent: z.number(),
-});
-export type KkResidualPoints = z.infer<typeof KkResidualPointsSchema>;
 
 /** Progress of one file's upload: a share of bytes sent, then the API's answer. */
 export type UploadProgress =
@@ -36,7 +24,7 @@ export class MeasurementsData {
   private readonly http = inject(HttpClient);
 
   equipment(): Observable<BenchEquipment> {
-    return this.http.get('/api/lab/bench-equipment').pipe(map((r) => BenchEquipmentSchema.parse(r)));
+    return this.http.get('/api/lab/bench').pipe(map((r) => BenchEquipmentSchema.parse(r)));
   }
 
   forSample(sampleId: string): Observable<SampleMeasurements> {
@@ -68,19 +56,14 @@ export class MeasurementsData {
       );
   }
 
-  spectrum(replicateId: string): Observable<SpectrumPoints> {
-    return this.http.get(`/api/lab/replicates/${replicateId}/spectrum`).pipe(map((r) => SpectrumPointsSchema.parse(r)));
+  spectrum(sampleId: string, replicateId: string): Observable<SpectrumPoints> {
+    return this.http.get(`/api/lab/samples/${sampleId}/replicates/${replicateId}/spectrum`).pipe(map((r) => SpectrumPointsSchema.parse(r)));
   }
 
-  kkResiduals(replicateId: string): Observable<KkResidualPoints> {
+  /** Answers with the sample's measurements as they now stand (agreement recomputed without it). */
+  exclude(sampleId: string, replicateId: string, reason: string): Observable<SampleMeasurements> {
     return this.http
-      .get(`/api/lab/replicates/${replicateId}/kramers-kronig`, { context: quietRequest() })
-      .pipe(map((r) => KkResidualPointsSchema.parse(r)));
-  }
-
-  exclude(replicateId: string, reason: string): Observable<Replicate> {
-    return this.http
-      .post(`/api/lab/replicates/${replicateId}/exclude`, { reason }, { context: quietRequest() })
-      .pipe(map((r) => ReplicateSchema.parse(r)));
+      .post(`/api/lab/samples/${sampleId}/replicates/${replicateId}/exclude`, { reason }, { context: quietRequest() })
+      .pipe(map((r) => SampleMeasurementsSchema.parse(r)));
   }
 }

@@ -7,7 +7,8 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import type { Replicate, SampleMeasurements, SpectrumPoints } from '@ohmprint/contracts';
 import { BodeChart, KkResidualChart, NyquistChart, Notice, type KkResiduals, type SpectrumSeries } from '@ohmprint/ui';
 import { forkJoin, of } from 'rxjs';
-import { ExcludeDialog } from './exclude-dialog';
+import { ExcludeDialog, type ExcludeRequest } from './exclude-dialog';
+import { kkResiduals } from './kk-residuals';
 import { MeasurementUpload } from './measurement-upload';
 import { MeasurementsData } from './measurements-data';
 
@@ -53,30 +54,28 @@ export class MeasurementsPanel {
       this.measurements.set(m);
       this.loading.set(false);
       const missing = m.replicates.filter((r) => !this.spectra().has(r.id));
-      const wanted = missing.length ? forkJoin(Object.fromEntries(missing.map((r) => [r.id, this.data.spectrum(r.id)]))) : of({});
+      const wanted = missing.length ? forkJoin(Object.fromEntries(missing.map((r) => [r.id, this.data.spectrum(sampleId, r.id)]))) : of({});
       wanted.subscribe((got: Record<string, SpectrumPoints>) => {
         this.spectra.update((cur) => new Map([...cur, ...Object.entries(got)]));
+        const first = m.replicates.find((r) => r.id === this.selected()) ?? m.replicates[0];
+        if (first) this.select(first);
       });
-      if (!this.selected() && m.replicates.length > 0) this.select(m.replicates[0]);
     });
   }
 
   protected select(r: Replicate): void {
     this.selected.set(r.id);
-    this.residuals.set(null);
-    this.residualsMissing.set(false);
-    this.data.kkResiduals(r.id).subscribe({
-      next: (k) => this.residuals.set(k),
-      error: () => this.residualsMissing.set(true),
-    });
+    const spectrum = this.spectra().get(r.id);
+    this.residualsMissing.set(!spectrum);
+    this.residuals.set(spectrum ? kkResiduals(spectrum, r.kramersKronig) : null);
   }
 
   protected exclude(r: Replicate): void {
     this.dialog
-      .open<ExcludeDialog, Replicate, Replicate>(ExcludeDialog, { data: r })
+      .open<ExcludeDialog, ExcludeRequest, SampleMeasurements>(ExcludeDialog, { data: { sampleId: this.sampleId(), replicate: r } })
       .afterClosed()
       .subscribe((updated) => {
-        if (updated) this.load(this.sampleId());
+        if (updated) this.measurements.set(updated);
       });
   }
 }
