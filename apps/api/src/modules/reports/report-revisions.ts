@@ -23,7 +23,7 @@ async function lockCurrent(manager: EntityManager, labId: string, reportId: stri
     .getOne();
   if (!report) throw ApiError.notFound('The report');
   if (report.status === 'superseded') {
-    const next = await manager.findOneBy(TestReport, { id: report.supersededByReportId ?? undefined });
+    const next = report.supersededByReportId ? await manager.findOneBy(TestReport, { id: report.supersededByReportId }) : null;
     throw ApiError.conflict(`Report ${report.number} is already superseded by ${next?.number ?? 'a later revision'}; amend or revoke that one instead.`);
   }
   if (report.status === 'revoked') throw ApiError.conflict(`Report ${report.number} was revoked and can no longer be changed.`);
