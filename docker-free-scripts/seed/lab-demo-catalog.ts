@@ -54,7 +54,7 @@ export const DEMO_SAMPLES: DemoSample[] = [
   {
     code: 'OP-4HXT-2B', product: 'ridgeline-red', order: { daysAgo: 6, placedBy: 'client-admin' }, state: 'accepted',
     obtainedWhere: 'Invented online marketplace listing, shipped from Demoville', obtainedOn: '2026-11-18', labelText: 'Ridgeline Red 2024 (label slightly faded)', claimedLot: 'L24-131',
-    files: { adulteration: { kind: 'blended', with: white, fraction: 0.06 }, shape: 'semicolon-kilo-negative-imaginary', replicates: 3, temperatureC: 18.0, expect: 'inconclusive' },
+    files: { adulteration: { kind: 'blended', with: white, fraction: 0.11 }, shape: 'semicolon-kilo-negative-imaginary', replicates: 3, temperatureC: 18.0, expect: 'inconclusive' },
   },
   {
     code: 'OP-9RWD-6F', product: 'ridgeline-red', order: { daysAgo: 6, placedBy: 'client-admin' }, state: 'accepted',

@@ -7,6 +7,7 @@ import { hashPassword } from '../../apps/api/src/modules/auth/passwords';
 import { seedAccounts } from './accounts';
 import { DEMO_PASSWORD } from './accounts-demo-data';
 import { demoAccountsTable } from './demo-accounts-table';
+import { seedLabDemo } from './lab-demo';
 
 /** `npm run db:seed`: the invented demo, idempotent. Each part is one line here. */
 async function seed(): Promise<void> {
@@ -14,6 +15,7 @@ async function seed(): Promise<void> {
   try {
     const passwordHash = await hashPassword(DEMO_PASSWORD);
     await dataSource.transaction((manager) => seedAccounts(manager, passwordHash));
+    await dataSource.transaction((manager) => seedLabDemo(manager));
     mkdirSync(config.dataDir, { recursive: true });
     writeFileSync(join(config.dataDir, 'demo-accounts.txt'), demoAccountsTable(config.publicBaseUrl));
     logger.info('demo seed complete');
