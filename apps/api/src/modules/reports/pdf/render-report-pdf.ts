@@ -259,7 +259,7 @@ function writePageFrames(doc: PDFKit.PDFDocument, data: ReportData): void {
     write(doc, id, { size: 8, weight: 600, lineBreak: false }, right - widthOf(doc, id, 600, 8), 30);
     if (data.demo) {
       const mid = PAGE.left + CONTENT_WIDTH / 2 - widthOf(doc, DEMO_MARK, 700, 7.5) / 2;
-      write(doc, DEMO_MARK, { size: 7.5, weight: 700, color: INK.inconclusive, lineBreak: false }, mid, 31);
+      write(doc, DEMO_MARK, { size: 7.5, weight: 700, color: INK.inconclusive, lineBreak: false }, mid, 16);
     }
     doc.save().lineWidth(0.6).strokeColor(INK.rule).moveTo(PAGE.left, 44).lineTo(right, 44).stroke().restore();
     const y = PAGE.height - 40;
