@@ -4,7 +4,7 @@ import { resolveModel, type ModelReference } from '../models/resolve-model';
 import { angularFrequencies } from '../models/shape-features';
 import type { FitFailure, FitResult } from './fit-result';
 import { minimise, type MinimiserResult } from './levenberg-marquardt';
-import { toModelSpace, toSearchSpace, type Bounds } from './parameter-transform';
+import { modelSpaceSlope, toModelSpace, toSearchSpace, type Bounds } from './parameter-transform';
 import { boundsOf, startingPoint, type FitOptions } from './starting-point';
 import { symmetricInverse } from './symmetric-solve';
 import { inverseSigmas, type Weighting } from './weighting';
@@ -79,6 +79,28 @@ export function fitModel(s: Spectrum, model: ModelReference, options: FitOptions
     return weightedResidual(values, out);
   };
 
+  const derivatives = m.derivatives?.bind(m);
+  const dRe = new Float64Array(n * p);
+  const dIm = new Float64Array(n * p);
+  const searchJacobian = derivatives
+    ? (u: Float64Array, jac: Float64Array): boolean => {
+        for (let j = 0; j < p; j++) values[j] = toModelSpace(u[j], bounds[j]);
+        derivatives(values, omega, re, im, dRe, dIm);
+        for (let j = 0; j < p; j++) {
+          const slope = -modelSpaceSlope(u[j], bounds[j]);
+          const col = j * 2 * n;
+          for (let i = 0; i < n; i++) {
+            const a = dRe[j * n + i] * w[i] * slope;
+            const b = dIm[j * n + i] * w[n + i] * slope;
+            if (!Number.isFinite(a) || !Number.isFinite(b)) return false;
+            jac[col + i] = a;
+            jac[col + n + i] = b;
+          }
+        }
+        return true;
+      }
+    : undefined;
+
   const start = startingPoint(m, s, bounds, options);
   const u0 = Float64Array.from(start, (v, j) => toSearchSpace(v, bounds[j]));
   const minimiserOptions = { maxIterations: options.maxIterations ?? 200, ...TOLERANCES };
@@ -86,11 +108,11 @@ export function fitModel(s: Spectrum, model: ModelReference, options: FitOptions
   let costFloor = 0;
   for (let i = 0; i < n; i++) costFloor += (s.re[i] * w[i]) ** 2 + (s.im[i] * w[n + i]) ** 2;
   costFloor *= 1e-20;
-  const first = minimise(inSearchSpace, u0, 2 * n, minimiserOptions);
+  const first = minimise(inSearchSpace, u0, 2 * n, minimiserOptions, searchJacobian);
   let best: MinimiserResult | null = first.converged ? first : null;
   // Restarts stop once a second start lands on the best minimum found: that minimum is then confirmed.
   for (let k = 0; k < (options.restarts ?? 3); k++) {
-    const run = minimise(inSearchSpace, perturbed(u0, bounds, k), 2 * n, minimiserOptions);
+    const run = minimise(inSearchSpace, perturbed(u0, bounds, k), 2 * n, minimiserOptions, searchJacobian);
     if (!run.converged || !Number.isFinite(run.cost)) continue;
     if (best && Math.abs(run.cost - best.cost) <= 1e-7 * best.cost + costFloor) break;
     if (!best || run.cost < best.cost) best = run;

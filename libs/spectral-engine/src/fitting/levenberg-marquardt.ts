@@ -3,6 +3,9 @@ import { cholesky, choleskySolve } from './symmetric-solve';
 /** Writes the residual vector for the search point u; returns false if any value is not finite. */
 export type ResidualFunction = (u: Float64Array, out: Float64Array) => boolean;
 
+/** Writes ∂r/∂u column by column (column j at offset j·rows); returns false if any value is not finite. */
+export type JacobianFunction = (u: Float64Array, jac: Float64Array) => boolean;
+
 export interface MinimiserOptions {
   /** Outer iterations (Jacobian evaluations) before giving up. */
   readonly maxIterations: number;
@@ -32,10 +35,16 @@ function sumOfSquares(r: Float64Array): number {
 }
 
 /**
- * Levenberg–Marquardt with Marquardt's diagonal scaling and Nielsen's damping update, on a
- * forward-difference Jacobian. Column-major storage keeps each Jacobian column contiguous.
+ * Levenberg–Marquardt with Marquardt's diagonal scaling and Nielsen's damping update, on the
+ * given Jacobian or else a forward-difference one. Column-major storage keeps each Jacobian column contiguous.
  */
-export function minimise(residual: ResidualFunction, u0: Float64Array, rows: number, options: MinimiserOptions): MinimiserResult {
+export function minimise(
+  residual: ResidualFunction,
+  u0: Float64Array,
+  rows: number,
+  options: MinimiserOptions,
+  jacobian?: JacobianFunction,
+): MinimiserResult {
   const p = u0.length;
   const u = Float64Array.from(u0);
   const trial = new Float64Array(p);
@@ -56,7 +65,10 @@ export function minimise(residual: ResidualFunction, u0: Float64Array, rows: num
   let nu = 2;
 
   for (let iteration = 1; iteration <= options.maxIterations; iteration++) {
-    for (let j = 0; j < p; j++) {
+    if (jacobian) {
+      if (!jacobian(u, jac)) return { u, cost, iterations: iteration, converged: false, reason: 'the model gives non-finite derivatives near the current parameters' };
+    }
+    for (let j = 0; j < p && !jacobian; j++) {
       const h = SQRT_EPS * Math.max(Math.abs(u[j]), 1);
       trial.set(u);
       trial[j] += h;

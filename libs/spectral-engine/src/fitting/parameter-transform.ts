@@ -32,3 +32,13 @@ export function toSearchSpace(p: number, b: Bounds): number {
   if (upperFinite) return Math.log(Math.max(b.upper - p, tiny));
   return p;
 }
+
+/** dp/du at u. */
+export function modelSpaceSlope(u: number, b: Bounds): number {
+  const lowerFinite = Number.isFinite(b.lower);
+  const upperFinite = Number.isFinite(b.upper);
+  if (lowerFinite && upperFinite) return ((b.upper - b.lower) * Math.cos(u)) / 2;
+  if (lowerFinite) return Math.exp(u);
+  if (upperFinite) return -Math.exp(u);
+  return 1;
+}

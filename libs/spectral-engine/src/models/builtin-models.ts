@@ -152,6 +152,47 @@ const coleColeModel: ImpedanceModel = {
       im[i] = -k * di;
     }
   },
+  derivatives(p, omega, re, im, dRe, dIm) {
+    // With D = 1 + (jωτ)^α: ∂Z/∂R∞ = 1 − 1/D, ∂Z/∂R0 = 1/D, ∂Z/∂τ = −Δ(α/τ)(D − 1)/D²,
+    // ∂Z/∂α = −Δ(D − 1)(ln ωτ + jπ/2)/D².
+    const n = omega.length;
+    const rInf = p[0];
+    const delta = p[1] - p[0];
+    const tau = p[2];
+    const alpha = p[3];
+    const c = Math.cos((alpha * Math.PI) / 2);
+    const sn = Math.sin((alpha * Math.PI) / 2);
+    for (let i = 0; i < n; i++) {
+      const x = omega[i] * tau;
+      const logX = Math.log(x);
+      const m = Math.exp(alpha * logX);
+      const er = m * c;
+      const ei = m * sn;
+      const dr = 1 + er;
+      const di = ei;
+      const mod2 = dr * dr + di * di;
+      const ir = dr / mod2;
+      const ii = -di / mod2;
+      re[i] = rInf + delta * ir;
+      im[i] = delta * ii;
+      dRe[i] = 1 - ir;
+      dIm[i] = -ii;
+      dRe[n + i] = ir;
+      dIm[n + i] = ii;
+      // (D − 1)/D² = e·inv², with e = D − 1.
+      const inv2r = ir * ir - ii * ii;
+      const inv2i = 2 * ir * ii;
+      const qr = er * inv2r - ei * inv2i;
+      const qi = er * inv2i + ei * inv2r;
+      const k = -delta * (alpha / tau);
+      dRe[2 * n + i] = k * qr;
+      dIm[2 * n + i] = k * qi;
+      const lr = logX;
+      const li = Math.PI / 2;
+      dRe[3 * n + i] = -delta * (qr * lr - qi * li);
+      dIm[3 * n + i] = -delta * (qr * li + qi * lr);
+    }
+  },
   initialGuess(s) {
     const g = arcGuess(s);
     return Float64Array.of(g.high, g.low, g.tau, g.alpha);

@@ -1,6 +1,7 @@
 import { impedance } from './impedance';
 import { MODEL_CATALOG } from './model-catalog';
 import { ModelDefinitionError } from './model-definition-error';
+import { BUILTIN_MODELS } from './builtin-models';
 import { defineExpressionModel } from './expression-model';
 
 const f = Float64Array.of(0.1, 1, 10, 100, 1000, 1e4);
@@ -78,6 +79,38 @@ describe('model catalog', () => {
       const p = Object.fromEntries(m.parameters.map((q) => [q.name, q.upper === 1 ? 0.8 : q.name.startsWith('q') ? 1e-5 : q.name === 'tau' ? 1e-3 : 100]));
       const s = impedance(m.name, p, wide);
       expect([...s.re, ...s.im].every(Number.isFinite)).toBe(true);
+    }
+  });
+});
+
+describe('analytic derivatives', () => {
+  it('agree with central differences wherever a built-in model provides them', () => {
+    const omega = Float64Array.from({ length: 30 }, (_, i) => 2 * Math.PI * 10 ** (-1 + (6 * i) / 29));
+    const n = omega.length;
+    const points: Record<string, number[]> = { 'cole-cole': [80, 1200, 3e-4, 0.72] };
+    for (const [name, values] of Object.entries(points)) {
+      const model = BUILTIN_MODELS.get(name)!;
+      const p = Float64Array.from(values);
+      const re = new Float64Array(n);
+      const im = new Float64Array(n);
+      const dRe = new Float64Array(n * p.length);
+      const dIm = new Float64Array(n * p.length);
+      model.derivatives!(p, omega, re, im, dRe, dIm);
+      p.forEach((v, j) => {
+        const h = 1e-6 * v;
+        const up = Float64Array.from(p);
+        const down = Float64Array.from(p);
+        up[j] += h;
+        down[j] -= h;
+        const [ur, ui, lr, li] = [new Float64Array(n), new Float64Array(n), new Float64Array(n), new Float64Array(n)];
+        model.evaluate(up, omega, ur, ui);
+        model.evaluate(down, omega, lr, li);
+        for (let i = 0; i < n; i++) {
+          const scale = Math.hypot(re[i], im[i]) / v;
+          expect(Math.abs(dRe[j * n + i] - (ur[i] - lr[i]) / (2 * h))).toBeLessThan(1e-6 * scale);
+          expect(Math.abs(dIm[j * n + i] - (ui[i] - li[i]) / (2 * h))).toBeLessThan(1e-6 * scale);
+        }
+      });
     }
   });
 });

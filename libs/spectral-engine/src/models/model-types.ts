@@ -25,6 +25,12 @@ export interface ModelDescription {
  */
 export interface ImpedanceModel extends ModelDescription {
   evaluate(parameters: Float64Array, omega: Float64Array, re: Float64Array, im: Float64Array): void;
+  /**
+   * Analytic ∂Z/∂p, when the model has them: column j of `dRe`/`dIm` (offset j·ω.length) holds
+   * the derivative by parameter j. Also writes Z itself into `re`/`im`. Saves the fitter the
+   * extra evaluations of a finite-difference Jacobian.
+   */
+  derivatives?(parameters: Float64Array, omega: Float64Array, re: Float64Array, im: Float64Array, dRe: Float64Array, dIm: Float64Array): void;
   /** A starting point read from the spectrum's shape (parameters in order), when the model has one. */
   initialGuess?(spectrum: Spectrum): Float64Array;
 }

@@ -115,7 +115,8 @@ function fitWith(s: Spectrum, omega: Float64Array, modulus: Float64Array, m: num
 /**
  * Linear Kramers–Kronig test (Boukamp 1995; Schönleber, Klotz & Ivers-Tiffée 2014): fits
  * R0 + Σ R_k/(1 + jωτ_k) (+ jωL) with time constants log-spaced from 1/ω_max to 1/ω_min, rows
- * weighted by 1/|Z|, and raises the number of elements until μ ≤ the criterion.
+ * weighted by 1/|Z|, and raises the number of elements until μ ≤ the criterion (or until the
+ * residuals are within a twentieth of the limit, when the verdict can no longer change).
  *
  * On clean data μ can fall below the criterion early while the fit is still poor (one ideal RC
  * element is the known case); the search therefore looks up to five elements further and moves on
@@ -150,15 +151,22 @@ export function linearKramersKronig(s: Spectrum, options: KramersKronigOptions =
     // At least one time constant per decade of the band, a floor against stopping on a lucky μ.
     const decades = Math.log10(s.frequencyHz[n - 1] / s.frequencyHz[0]);
     let m = Math.max(1, Math.min(maxElements, Math.ceil(decades)));
+    let settled = false;
     for (; m <= maxElements; m++) {
       const trial = fitWith(s, omega, modulus, m, shape);
       if (!trial) break;
       chosen = trial;
       if (trial.mu <= c) break;
+      // Residuals a twentieth of the limit cannot turn into a failure with more elements (each
+      // extra element only lowers them), so clean spectra need not be searched to μ ≤ c.
+      if (trial.maxAbs <= limitPct / 20) {
+        settled = true;
+        break;
+      }
     }
     // Look ahead: on clean data the residual swings with the element count but keeps falling.
     let best = chosen;
-    for (let ahead = m + 1; chosen && ahead <= Math.min(maxElements, best!.elements + LOOK_AHEAD); ahead++) {
+    for (let ahead = m + 1; chosen && !settled && ahead <= Math.min(maxElements, best!.elements + LOOK_AHEAD); ahead++) {
       const trial = fitWith(s, omega, modulus, ahead, shape);
       if (!trial) break;
       if (trial.maxAbs < 0.5 * best!.maxAbs) best = trial;
