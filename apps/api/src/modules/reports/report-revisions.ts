@@ -31,7 +31,7 @@ async function lockCurrent(manager: EntityManager, labId: string, reportId: stri
 }
 
 function authorisingRole(auth: AuthContext): string {
-  return auth.roles.includes('reviewer') ? 'reviewer' : 'lab administrator';
+  return auth.roles.includes('reviewer') ? 'Reviewer' : 'Lab administrator';
 }
 
 /** The stored content with the corrections applied; results are never edited here. */
