@@ -157,22 +157,29 @@ export function createSpectrumIndex(references: readonly Spectrum[]): SpectrumIn
   order.forEach((t, j) => (position[t] = j));
   const head = new Float64Array(references.length * headWidth);
   const tail = new Float64Array(references.length * tailWidth);
-  const row = new Float64Array(width);
-  for (let r = 0; r < references.length; r++) {
+  // Where term t (re 0…N−1, im N…2N−1) of every spectrum goes: the head block or the tail, at which offset.
+  const inHead = Uint8Array.from(position, (p) => (p < headWidth ? 1 : 0));
+  const offset = Int32Array.from(position, (p) => (p < headWidth ? p : p - headWidth));
+  for (let r = 0, headBase = 0, tailBase = 0; r < references.length; r++, headBase += headWidth, tailBase += tailWidth) {
     const { re, im } = references[r];
     // v·0 is 0 for every finite v and NaN otherwise: one test per spectrum instead of one per value.
     let probe = 0;
     for (let t = 0; t < n; t++) {
-      probe += re[t] * 0 + im[t] * 0;
-      row[position[t]] = re[t];
-      row[position[n + t]] = im[t];
+      const v = re[t];
+      probe += v * 0;
+      if (inHead[t]) head[headBase + offset[t]] = v;
+      else tail[tailBase + offset[t]] = v;
+    }
+    for (let t = 0; t < n; t++) {
+      const v = im[t];
+      probe += v * 0;
+      if (inHead[n + t]) head[headBase + offset[n + t]] = v;
+      else tail[tailBase + offset[n + t]] = v;
     }
     if (probe !== 0) {
       const bad = firstNonFinite(re) >= 0 ? { part: 're', at: firstNonFinite(re), values: re } : { part: 'im', at: firstNonFinite(im), values: im };
       throw new RangeError(`reference ${r + 1}: ${bad.part}[${bad.at}] is ${bad.values[bad.at]}; every value must be a finite number`);
     }
-    head.set(row.subarray(0, headWidth), r * headWidth);
-    tail.set(row.subarray(headWidth), r * tailWidth);
   }
   return new PackedSpectrumIndex(Float64Array.from(first.frequencyHz), references.length, head, tail, order, position);
 }
