@@ -10,5 +10,7 @@ export * from './staff';
 export * from './client-organisations';
 export * from './labs';
 export * from './health';
+export * from './lab-profile';
+export * from './audit-log';
 export * from './lab';
 export * from './lab/reports';

@@ -1,9 +1,11 @@
 import { Router } from 'express';
+import { auditLogRouter } from './audit/router';
 import { authRouter } from './auth/router';
 import { clientOrganisationsRouter } from './client-organisations/router';
 import { clientTeamRouter } from './client-team/router';
 import { healthRouter } from './health/router';
 import { invitationsRouter } from './invitations/router';
+import { labProfileRouter } from './labs/router';
 import { meRouter } from './me/router';
 import { operatorLabsRouter } from './operator-labs/router';
 import { staffRouter } from './staff/router';
@@ -28,6 +30,8 @@ export function apiRoutes(): Router {
   api.use('/auth', authRouter());
   api.use('/invitations', invitationsRouter());
   api.use('/me', meRouter());
+  api.use('/lab/profile', labProfileRouter());
+  api.use('/lab/audit-events', auditLogRouter());
   api.use('/lab/staff', staffRouter());
   api.use('/lab/client-organisations', clientOrganisationsRouter());
   api.use('/operator/labs', operatorLabsRouter());

@@ -1,5 +1,5 @@
 import request from 'supertest';
-import { ROLES, type Role } from '@ohmprint/contracts';
+import { LAB_ROLES, ROLES, type Role } from '@ohmprint/contracts';
 import { useTestApp } from '../../testing';
 
 const t = useTestApp();
@@ -18,6 +18,9 @@ const RULES: Rule[] = [
   { method: 'get', path: '/api/me', allowed: signedIn, allowedStatus: 200 },
   { method: 'patch', path: '/api/me', allowed: signedIn, allowedStatus: 400 },
   { method: 'post', path: '/api/me/password', allowed: signedIn, allowedStatus: 400 },
+  { method: 'get', path: '/api/lab/profile', allowed: [...LAB_ROLES], allowedStatus: 200 },
+  { method: 'patch', path: '/api/lab/profile', allowed: ['lab-admin'], allowedStatus: 400 },
+  { method: 'get', path: '/api/lab/audit-events', allowed: ['lab-admin'], allowedStatus: 200 },
   { method: 'get', path: '/api/lab/staff', allowed: ['lab-admin'], allowedStatus: 200 },
   { method: 'get', path: '/api/lab/staff/invitations', allowed: ['lab-admin'], allowedStatus: 200 },
   { method: 'post', path: '/api/lab/staff/invitations', allowed: ['lab-admin'], allowedStatus: 400 },
@@ -82,6 +85,10 @@ describe('a user of another lab sees nothing of this one', () => {
     expect(orgs.body.items.map((o: { name: string }) => o.name)).toEqual(['Greyfield Preserves']);
     const invitations = await request(t.app).get('/api/lab/staff/invitations').set(marlowAdmin);
     expect(invitations.body.total).toBe(0);
+    const audit = await request(t.app).get('/api/lab/audit-events?action=invitation.sent').set(marlowAdmin);
+    expect(audit.body.total).toBe(0);
+    const profile = await request(t.app).get('/api/lab/profile').set(marlowAdmin);
+    expect(profile.body.name).toBe('Marlow Test House');
   });
 
   it('keeps a client user to their own organisation, even within the same lab', async () => {
