@@ -70,7 +70,7 @@ export const DEMO_SAMPLES: DemoSample[] = [
     obtainedWhere: 'Invented duty-free shop, Demoport airport', obtainedOn: '2026-11-27', labelText: 'Hollin Dry White 2025', claimedLot: 'W25-022',
   },
   {
-    code: 'OP-8MJA-4T', product: 'whole-milk', order: { daysAgo: 9, placedBy: 'client-admin' }, state: 'accepted',
+    code: 'OP-8MJA-4T', product: 'whole-milk', order: { daysAgo: 10, placedBy: 'client-admin' }, state: 'accepted',
     obtainedWhere: 'Invented convenience store, Mill Lane', obtainedOn: '2026-11-21', labelText: 'Brightwater Whole Milk, best before 2026-11-29', claimedLot: 'BW-3318',
     files: { adulteration: { kind: 'watered', waterFraction: 0.08 }, shape: 'comma-real-imaginary', replicates: 2, temperatureC: 19.0, expect: 'not-consistent' },
   },

@@ -1,0 +1,133 @@
+import request from 'supertest';
+import { seedLabDemo } from '../../../../../docker-free-scripts/seed/lab-demo';
+import { useTestApp } from '../../testing';
+
+const t = useTestApp();
+
+beforeAll(async () => {
+  await t.db.transaction((m) => seedLabDemo(m));
+});
+
+const sampleId = async (code: string): Promise<string> => (await t.db.query('SELECT id FROM sample WHERE code = $1', [code]))[0].id;
+
+const arrival = {
+  carrier: 'Invented Courier Co.',
+  trackingNumber: 'DEMO-TRACK-1',
+  arrivedAt: new Date(Date.now() - 3_600_000).toISOString(),
+  temperatureC: 6.5,
+  sealIntact: true,
+  containerCondition: 'intact',
+  volumeMl: 750,
+};
+
+// The smallest valid PNG (1×1 pixel), so the photo check sees a real image signature.
+const PNG = Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mNk+M9QDwADhgGAWjR9awAAAABJRU5ErkJggg==', 'base64');
+
+describe('intake', () => {
+  it('finds a sample by the code a scanner types, whatever the case, with what was ordered', async () => {
+    const res = await request(t.app).get('/api/lab/samples/by-code/%20op-3vnc-8p%0D').set(await t.authFor('intake-technician'));
+    expect(res.status).toBe(200);
+    expect(res.body).toMatchObject({ code: 'OP-3VNC-8P', state: 'awaiting-arrival', product: { name: 'Ridgeline Red (demo)' }, clientOrganisation: { name: 'Hollin Ridge Cellars' } });
+    expect(res.body.description.claimedLot).toBe('L24-140');
+  });
+
+  it('records arrival and photos, accepts into storage, and keeps each step on the custody timeline', async () => {
+    const intake = await t.authFor('intake-technician');
+    const id = await sampleId('OP-3VNC-8P');
+    const arrived = await request(t.app).post(`/api/lab/samples/${id}/arrival`).set(intake).send(arrival);
+    expect(arrived.status).toBe(200);
+    expect(arrived.body).toMatchObject({ state: 'received', intake: { carrier: 'Invented Courier Co.', sealIntact: true, volumeMl: 750 } });
+
+    const photos = await request(t.app).post(`/api/lab/samples/${id}/photos`).set(intake).attach('photos', PNG, 'parcel.png');
+    expect(photos.status).toBe(201);
+    expect(photos.body).toEqual([expect.objectContaining({ fileName: 'parcel.png', contentType: 'image/png', sizeBytes: PNG.length })]);
+    const image = await request(t.app).get(`/api/lab/samples/${id}/photos/${photos.body[0].id}`).set(await t.authFor('analyst'));
+    expect(image.status).toBe(200);
+    expect(image.headers['content-type']).toBe('image/png');
+
+    const accepted = await request(t.app).post(`/api/lab/samples/${id}/accept`).set(intake).send({ storageLocation: 'Cold room 2, shelf A' });
+    expect(accepted.body).toMatchObject({ state: 'accepted', storageLocation: 'Cold room 2, shelf A' });
+
+    const timeline = await request(t.app).get(`/api/lab/samples/${id}/custody`).set(intake);
+    expect(timeline.body.events.map((e: { kind: string; location: string }) => [e.kind, e.location])).toEqual([
+      ['received', 'Intake bench'],
+      ['accepted', 'Intake bench'],
+      ['stored', 'Cold room 2, shelf A'],
+    ]);
+    expect(timeline.body.events[0].actor.displayName).toBe('Ira Intake (demo)');
+  });
+
+  it('refuses a file that is not an image, by name, and saves none of the batch', async () => {
+    const intake = await t.authFor('intake-technician');
+    const id = await sampleId('OP-1PYF-9C');
+    const res = await request(t.app)
+      .post(`/api/lab/samples/${id}/photos`)
+      .set(intake)
+      .attach('photos', PNG, 'good.png')
+      .attach('photos', Buffer.from('not a picture'), 'notes.txt');
+    expect(res.status).toBe(400);
+    expect(res.body.detail).toContain('notes.txt');
+    expect((await t.db.query('SELECT count(*)::int AS n FROM intake_photo WHERE sample_id = $1', [id]))[0].n).toBe(0);
+  });
+
+  it('rejects with a reason and queues an e-mail to every client admin of the ordering organisation', async () => {
+    const id = await sampleId('OP-1PYF-9C');
+    const res = await request(t.app).post(`/api/lab/samples/${id}/reject`).set(await t.authFor('intake-technician')).send({ reason: 'Cap broken in transit; contents leaked.' });
+    expect(res.status).toBe(200);
+    expect(res.body).toMatchObject({ state: 'rejected', rejectionReason: 'Cap broken in transit; contents leaked.' });
+    const mail: { to_address: string; subject: string; text_body: string }[] = await t.db.query(`SELECT to_address, subject, text_body FROM email_outbox WHERE subject LIKE '%OP-1PYF-9C%'`);
+    expect(mail.map((m) => m.to_address)).toEqual(['admin@sunvale.test']);
+    expect(mail[0].text_body).toContain('Cap broken in transit');
+    const again = await request(t.app).post(`/api/lab/samples/${id}/accept`).set(await t.authFor('intake-technician')).send({ storageLocation: 'Shelf' });
+    expect(again.status).toBe(409);
+  });
+
+  it('needs a reason to reject, and says which field is missing', async () => {
+    const id = await sampleId('OP-5QGZ-1M');
+    const res = await request(t.app).post(`/api/lab/samples/${id}/reject`).set(await t.authFor('intake-technician')).send({});
+    expect(res.status).toBe(400);
+    expect(res.body.errors).toEqual([expect.objectContaining({ field: 'reason' })]);
+  });
+
+  it('lists the work queue oldest first, filtered by state and searched', async () => {
+    const res = await request(t.app).get('/api/lab/samples?state=accepted,awaiting-arrival&pageSize=100').set(await t.authFor('analyst'));
+    expect(res.status).toBe(200);
+    const ages = res.body.items.map((i: { ageDays: number }) => i.ageDays);
+    expect(ages).toEqual([...ages].sort((a, b) => b - a));
+    expect(res.body.items.every((i: { state: string }) => ['accepted', 'awaiting-arrival'].includes(i.state))).toBe(true);
+    const milk = await request(t.app).get('/api/lab/samples?q=whole%20milk').set(await t.authFor('analyst'));
+    expect(milk.body.items.map((i: { code: string }) => i.code)).toEqual(['OP-8MJA-4T']);
+    // Seeded as arrived 8 days ago against the lab's 7-day target: a day late.
+    expect(milk.body.items[0]).toMatchObject({ turnaroundDays: 7, overdue: true });
+    expect(milk.body.items[0].ageDays).toBeCloseTo(8, 0);
+  });
+});
+
+describe('chain of custody is append-only', () => {
+  it('appends a movement with who, where and why', async () => {
+    const id = await sampleId('OP-7K3M-Q9');
+    const res = await request(t.app)
+      .post(`/api/lab/samples/${id}/custody`)
+      .set(await t.authFor('analyst'))
+      .send({ kind: 'taken-for-measurement', location: 'Bench 1', reason: 'Replicate sweeps' });
+    expect(res.status).toBe(201);
+    expect(res.body.events.at(-1)).toMatchObject({ kind: 'taken-for-measurement', location: 'Bench 1', reason: 'Replicate sweeps', actor: { displayName: 'Ana Lyst (demo)' } });
+  });
+
+  it('offers no route to change or delete an event', async () => {
+    const id = await sampleId('OP-7K3M-Q9');
+    const [event] = await t.db.query('SELECT id FROM custody_event WHERE sample_id = $1 LIMIT 1', [id]);
+    const admin = await t.authFor('lab-admin');
+    for (const method of ['put', 'patch', 'delete'] as const) {
+      const res = await request(t.app)[method](`/api/lab/samples/${id}/custody/${event.id}`).set(admin).send({ location: 'elsewhere' });
+      expect(res.status).toBe(404);
+      expect(res.body.type).toBe('urn:ohmprint:problem:no-such-route');
+    }
+  });
+
+  it('is protected by the database itself against UPDATE and DELETE', async () => {
+    const [event] = await t.db.query('SELECT id FROM custody_event LIMIT 1');
+    await expect(t.db.query(`UPDATE custody_event SET location = 'forged' WHERE id = $1`, [event.id])).rejects.toThrow(/append-only/);
+    await expect(t.db.query('DELETE FROM custody_event WHERE id = $1', [event.id])).rejects.toThrow(/append-only/);
+  });
+});
