@@ -23,4 +23,11 @@ describe('GET /api/health', () => {
     expect(res.headers['content-type']).toMatch(/^application\/problem\+json/);
     expect(res.body.detail).toBe('There is no GET /api/no-such-thing in this API.');
   });
+
+  it('answers 503 with the database marked unreachable when it cannot be reached', async () => {
+    await t.db.destroy();
+    const res = await request(t.app).get('/api/health');
+    expect(res.status).toBe(503);
+    expect(res.body).toMatchObject({ status: 'degraded', database: 'unreachable' });
+  });
 });

@@ -1,6 +1,7 @@
 import request from 'supertest';
 import { AuditEvent } from '../audit/audit-event.entity';
 import { Invitation } from './invitation.entity';
+import { EmailOutbox } from '../mail/email-outbox.entity';
 import { latestEmailTo, linkToken, useTestApp } from '../../testing';
 
 const t = useTestApp();
@@ -65,6 +66,22 @@ describe('staff invitations', () => {
     const late = await request(t.app).post('/api/invitations/accept').send({ token: second, displayName: 'Twice', password: PASSWORD });
     expect(late.status).toBe(410);
     expect(late.body.detail).toMatch(/expired/);
+  });
+
+  it('refuses malformed, oversized, wrong-typed and unauthenticated invitations with problems, creating nothing', async () => {
+    const admin = await t.authFor('lab-admin');
+    const before = { invitations: await t.db.manager.count(Invitation), mails: await t.db.manager.count(EmailOutbox) };
+    const malformed = await request(t.app).post('/api/lab/staff/invitations').set(admin).set('Content-Type', 'application/json').send('{"email": "a@calder.test", "roles": [');
+    const oversized = await request(t.app).post('/api/lab/staff/invitations').set(admin).send({ email: 'big@calder.test', roles: ['analyst'], padding: 'p'.repeat(300 * 1024) });
+    const wrongType = await request(t.app).post('/api/lab/staff/invitations').set(admin).send({ email: ['a@calder.test'], roles: 'analyst' });
+    const anonymous = await request(t.app).post('/api/lab/staff/invitations').send({ email: 'anon@calder.test', roles: ['analyst'] });
+    expect([malformed.status, oversized.status, wrongType.status, anonymous.status]).toEqual([400, 413, 400, 401]);
+    for (const res of [malformed, oversized, wrongType, anonymous]) expect(res.headers['content-type']).toMatch(/^application\/problem\+json/);
+    expect(wrongType.body.errors).toEqual([
+      { field: 'email', message: 'must be a string (got a list)' },
+      { field: 'roles', message: 'must be a list (got string "analyst")' },
+    ]);
+    expect({ invitations: await t.db.manager.count(Invitation), mails: await t.db.manager.count(EmailOutbox) }).toEqual(before);
   });
 
   it('refuses an invalid token with a field error', async () => {
