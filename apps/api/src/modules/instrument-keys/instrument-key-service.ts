@@ -87,7 +87,8 @@ export async function revokeInstrumentKey(manager: EntityManager, auth: AuthCont
 /** The live key a bench computer presented, with its lab; its last-used time is brought up to date. */
 export async function authenticateInstrumentKey(manager: EntityManager, secret: string): Promise<{ keyId: string; labId: string }> {
   const rows: { id: string; lab_id: string }[] = await manager.query(
-    `UPDATE instrument_key SET last_used_at = now() WHERE secret_sha256 = $1 AND revoked_at IS NULL RETURNING id, lab_id`,
+    `WITH used AS (UPDATE instrument_key SET last_used_at = now() WHERE secret_sha256 = $1 AND revoked_at IS NULL RETURNING id, lab_id)
+     SELECT id, lab_id FROM used`,
     [sha256Hex(secret)],
   );
   if (!rows.length) throw ApiError.unauthorized('This instrument key is unknown or has been revoked; ask a lab admin for a new one.');
