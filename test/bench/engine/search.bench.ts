@@ -10,7 +10,7 @@ import { median, syntheticLibrary } from './synthetic-library';
 const COUNT = 100_000;
 const POINTS = 64;
 const K = 10;
-const REPEATS = 9;
+const REPEATS = 15;
 
 export async function run(): Promise<void> {
   const grid = logGrid(0.1, 1e6, POINTS);
@@ -50,13 +50,15 @@ export async function run(): Promise<void> {
       maxBuffer: 16 << 20,
     });
     const oursMs = median(searchTimes);
-    console.log(JSON.stringify({ figure: 'index top-10 search, median', value: Number(oursMs.toFixed(2)), unit: 'ms', ...common }));
+    const oursFastest = Math.min(...searchTimes);
+    console.log(JSON.stringify({ figure: 'index top-10 search, median', value: Number(oursMs.toFixed(2)), fastest: Number(oursFastest.toFixed(2)), unit: 'ms', ...common }));
     if (python.status !== 0) {
       console.log(JSON.stringify({ figure: 'scipy cdist + argpartition top-10, median', value: null, unit: 'ms', error: python.stderr.trim(), ...common }));
     } else {
-      const scipy = JSON.parse(python.stdout) as { medianMs: number; top: number[]; distances: number[]; versions: string };
-      console.log(JSON.stringify({ figure: 'scipy cdist + argpartition top-10, median', value: Number(scipy.medianMs.toFixed(2)), unit: 'ms', versions: scipy.versions, ...common }));
-      console.log(JSON.stringify({ figure: 'index time / scipy time', value: Number((oursMs / scipy.medianMs).toFixed(3)), unit: 'ratio', aim: '≤ 0.5', ...common }));
+      const scipy = JSON.parse(python.stdout) as { medianMs: number; fastestMs: number; top: number[]; distances: number[]; versions: string };
+      console.log(JSON.stringify({ figure: 'scipy cdist + argpartition top-10, median', value: Number(scipy.medianMs.toFixed(2)), fastest: Number(scipy.fastestMs.toFixed(2)), unit: 'ms', versions: scipy.versions, ...common }));
+      // The fastest of several runs is the figure least disturbed by other work on a shared machine.
+      console.log(JSON.stringify({ figure: 'index time / scipy time', value: Number((oursMs / scipy.medianMs).toFixed(3)), fastestRatio: Number((oursFastest / scipy.fastestMs).toFixed(3)), unit: 'ratio', aim: '≤ 0.5', ...common }));
       const identical = ours.length === scipy.top.length && ours.every((hit, i) => hit.index === scipy.top[i]);
       const largestGap = Math.max(...ours.map((hit, i) => Math.abs(hit.distance - scipy.distances[i])));
       console.log(JSON.stringify({ figure: 'top-10 identical to scipy', value: identical, largestDistanceDifference: largestGap, ...common }));
@@ -66,5 +68,5 @@ export async function run(): Promise<void> {
   }
   const rawBytes = COUNT * width * Float64Array.BYTES_PER_ELEMENT;
   console.log(JSON.stringify({ figure: 'index memory / raw re+im data', value: Number((index.byteLength / rawBytes).toFixed(4)), unit: 'ratio', limit: 1.5, indexBytes: index.byteLength, rawBytes, ...common }));
-  console.log(JSON.stringify({ figure: 'index build, median of 3', value: Math.round(median(buildTimes)), unit: 'ms', limit: 1000, ...common }));
+  console.log(JSON.stringify({ figure: 'index build, median of 3', value: Math.round(median(buildTimes)), fastest: Math.round(Math.min(...buildTimes)), unit: 'ms', limit: 1000, ...common }));
 }

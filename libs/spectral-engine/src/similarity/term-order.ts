@@ -1,29 +1,26 @@
-import type { Spectrum } from '../spectrum';
-
 /** Largest number of library spectra sampled to rank the terms; enough to rank, cheap at any size. */
 const SAMPLE_SIZE = 512;
 
 /**
- * Orders the 2N Canberra terms (0…N−1 the real parts, N…2N−1 the imaginary parts) so the terms
- * that separate library spectra most come first: partial sums then pass the current k-th best
- * distance after few terms, and the first block acts as a set of sentinel frequencies. The order
- * only speeds the search; results do not depend on it.
+ * Ranks the 2N Canberra terms of packed rows (`width` values per spectrum: real parts, then
+ * imaginary) by how much they separate library spectra, largest first. The leading terms make the
+ * index's sentinels: their partial sum passes the current k-th best distance for most spectra.
+ * The ranking only speeds the search; results do not depend on it.
  */
-export function rankTermsBySpread(spectra: readonly Spectrum[]): Int32Array {
-  const n = spectra[0].re.length;
-  const spread = new Float64Array(2 * n);
-  const step = Math.max(1, Math.floor(spectra.length / SAMPLE_SIZE));
-  const add = (offset: number, x: Float64Array, y: Float64Array) => {
-    for (let t = 0; t < n; t++) {
-      const den = Math.abs(x[t]) + Math.abs(y[t]);
-      if (den > 0) spread[offset + t] += Math.abs(x[t] - y[t]) / den;
+export function rankTermsBySpread(packed: Float64Array, count: number, width: number): Int32Array {
+  const spread = new Float64Array(width);
+  const step = Math.max(1, Math.floor(count / SAMPLE_SIZE));
+  for (let r = 0; r + step < count; r += step) {
+    const a = r * width;
+    const b = (r + step) * width;
+    for (let t = 0; t < width; t++) {
+      const x = packed[a + t];
+      const y = packed[b + t];
+      const den = Math.abs(x) + Math.abs(y);
+      if (den > 0) spread[t] += Math.abs(x - y) / den;
     }
-  };
-  for (let r = 0; r + step < spectra.length; r += step) {
-    add(0, spectra[r].re, spectra[r + step].re);
-    add(n, spectra[r].im, spectra[r + step].im);
   }
-  const order = Array.from({ length: 2 * n }, (_, t) => t);
+  const order = Array.from({ length: width }, (_, t) => t);
   order.sort((s, t) => spread[t] - spread[s] || s - t);
   return Int32Array.from(order);
 }
