@@ -1,5 +1,4 @@
-import type { EntityManager } from 'typeorm';
-import type { QueryDeepPartialEntity } from 'typeorm/query-builder/QueryPartialEntity';
+import type { EntityManager, QueryDeepPartialEntity } from 'typeorm';
 import { AuditEvent } from './audit-event.entity';
 
 export interface AuditEntry {
