@@ -1,6 +1,16 @@
 import { impedance } from '@ohmprint/spectral-engine';
 import fixture from '../fixtures/fitting/models.json';
 
+interface NumpyCase {
+  readonly model: string;
+  readonly parameters: Record<string, number>;
+  readonly frequencyHz: number[];
+  readonly re: number[];
+  readonly im: number[];
+}
+// JSON imports type every optional key as possibly undefined; the generator writes each case whole.
+const cases = fixture.cases as unknown as NumpyCase[];
+
 const at = (omega: number) => Float64Array.of(omega / (2 * Math.PI));
 
 function z(model: string, p: Record<string, number>, omega: number): [number, number] {
@@ -41,7 +51,7 @@ describe('model closed forms against numpy', () => {
 
   // Every built-in model at 17 frequencies from 0.01 Hz to 1 MHz: fixtures/fitting/models.json,
   // written by fixtures/fitting/generate.py with numpy's complex arithmetic.
-  it.each(fixture.cases.map((c, i) => [`${c.model} #${i + 1}`, c] as const))('matches numpy for %s', (_label, c) => {
+  it.each(cases.map((c, i) => [`${c.model} #${i + 1}`, c] as const))('matches numpy for %s', (_label, c) => {
     const s = impedance(c.model, c.parameters, Float64Array.from(c.frequencyHz));
     c.re.forEach((re, i) => expectComplex([s.re[i], s.im[i]], re, c.im[i], 1e-9)); // numpy, models.json
   });
