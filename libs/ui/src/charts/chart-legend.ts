@@ -32,7 +32,7 @@ export interface LegendItem {
   styles: `
     .legend { display: flex; flex-wrap: wrap; gap: 4px 16px; margin: 4px 0 0; padding: 0; list-style: none;
       font: var(--mat-sys-body-small); color: var(--mat-sys-on-surface-variant); }
-    li { display: inline-flex; align-items: center; gap: 6px; }
+    li { display: inline-flex; align-items: center; gap: 6px; white-space: nowrap; }
     li.muted { opacity: 0.55; }
     .line { stroke-width: 1.6; }
     .band { fill: var(--mat-sys-primary); fill-opacity: 0.18; }

@@ -24,11 +24,11 @@ let nextId = 0;
         @for (p of layout().points; track p.id) {
           @if (p.kind === 'sample') {
             <svg:path class="sample" [attr.d]="'M' + p.px + ',' + (p.py - 8) + 'l8,8l-8,8l-8,-8z'" />
-            <svg:text class="label strong" dx="11" dy="4" [attr.x]="p.px" [attr.y]="p.py">{{ p.label }}</svg:text>
+            <svg:text class="label strong" dy="4" [attr.dx]="onRight(p.px) ? -11 : 11" [attr.text-anchor]="onRight(p.px) ? 'end' : 'start'" [attr.x]="p.px" [attr.y]="p.py">{{ p.label }}</svg:text>
           } @else {
             <svg:circle class="lot" [class.nearest]="p.nearest" [attr.r]="p.nearest ? 6 : 4.5" [attr.cx]="p.px" [attr.cy]="p.py" />
             @if (p.nearest) {
-              <svg:text class="label" dx="9" dy="-8" [attr.x]="p.px" [attr.y]="p.py">{{ p.label }} (nearest)</svg:text>
+              <svg:text class="label" dy="-8" [attr.dx]="onRight(p.px) ? -9 : 9" [attr.text-anchor]="onRight(p.px) ? 'end' : 'start'" [attr.x]="p.px" [attr.y]="p.py">{{ p.label }} (nearest)</svg:text>
             }
           }
         }
@@ -48,7 +48,7 @@ let nextId = 0;
     .label.strong { font-weight: 600; }
     .key { display: flex; gap: 16px; margin: 4px 0 0; padding: 0; list-style: none; font: var(--mat-sys-body-small);
       color: var(--mat-sys-on-surface-variant); }
-    .key li { display: inline-flex; align-items: center; gap: 6px; }
+    .key li { display: inline-flex; align-items: center; gap: 6px; white-space: nowrap; }
   `,
 })
 export class LibraryMap {
@@ -58,6 +58,12 @@ export class LibraryMap {
 
   protected readonly titleId = `ohm-map-${nextId++}`;
   protected readonly layout = computed(() => libraryMapLayout(this.points(), this.nearestId(), 560, 380));
+  /** Labels of points in the right half go to their left, so they stay inside the plot. */
+  protected onRight(px: number): boolean {
+    const a = this.layout().area;
+    return px > a.left + a.width / 2;
+  }
+
   protected readonly summary = computed(() => {
     const lots = this.points().filter((p) => p.kind === 'reference').length;
     const nearest = this.points().find((p) => p.id === this.nearestId());
