@@ -24,6 +24,7 @@ const RULES: Rule[] = [
   { method: 'get', path: '/api/lab/staff', allowed: ['lab-admin'], allowedStatus: 200 },
   { method: 'get', path: '/api/lab/staff/invitations', allowed: ['lab-admin'], allowedStatus: 200 },
   { method: 'post', path: '/api/lab/staff/invitations', allowed: ['lab-admin'], allowedStatus: 400 },
+  { method: 'delete', path: `/api/lab/staff/invitations/${SOME_ID}`, allowed: ['lab-admin'], allowedStatus: 404 },
   { method: 'put', path: `/api/lab/staff/${SOME_ID}/roles`, allowed: ['lab-admin'], allowedStatus: 400 },
   { method: 'post', path: `/api/lab/staff/${SOME_ID}/deactivation`, allowed: ['lab-admin'], allowedStatus: 404 },
   { method: 'post', path: `/api/lab/staff/${SOME_ID}/reactivation`, allowed: ['lab-admin'], allowedStatus: 404 },
@@ -37,6 +38,7 @@ const RULES: Rule[] = [
   { method: 'get', path: '/api/client/team', allowed: ['client-admin', 'client-member'], allowedStatus: 200 },
   { method: 'get', path: '/api/client/team/invitations', allowed: ['client-admin'], allowedStatus: 200 },
   { method: 'post', path: '/api/client/team/invitations', allowed: ['client-admin'], allowedStatus: 400 },
+  { method: 'delete', path: `/api/client/team/invitations/${SOME_ID}`, allowed: ['client-admin'], allowedStatus: 404 },
   { method: 'delete', path: `/api/client/team/${SOME_ID}`, allowed: ['client-admin'], allowedStatus: 404 },
 ];
 

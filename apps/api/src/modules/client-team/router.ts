@@ -25,6 +25,7 @@ import { ClientOrganisation } from '../client-organisations/client-organisation.
 import { toInvitationDto } from '../invitations/invitation-dto';
 import { Invitation } from '../invitations/invitation.entity';
 import { sendInvitation } from '../invitations/send-invitation';
+import { withdrawInvitation } from '../invitations/withdraw-invitation';
 import { Lab } from '../labs/lab.entity';
 import { findTeamMember, listTeam } from './team-queries';
 
@@ -75,6 +76,14 @@ export function clientTeamRouter(): Router {
       });
     });
     res.status(201).json(toInvitationDto(invitation));
+  });
+
+  registerRoute({ method: 'delete', path: '/client/team/invitations/:id', tag, summary: 'Withdraw an open invitation to my organisation', roles: ['client-admin'], params: IdParamsSchema });
+  router.delete('/invitations/:id', requireRole('client-admin'), validate({ params: IdParamsSchema }), async (_req, res) => {
+    const auth = res.locals.auth;
+    const scope = { labId: labIdOf(auth), clientOrganisationId: clientOrganisationIdOf(auth) };
+    await dataSource.transaction((manager) => withdrawInvitation(manager, scope, (res.locals.params as { id: string }).id, auth.userId));
+    res.status(204).end();
   });
 
   registerRoute({ method: 'delete', path: '/client/team/:id', tag, summary: 'Remove a colleague from my organisation (their account is deactivated)', roles: ['client-admin'], params: IdParamsSchema });

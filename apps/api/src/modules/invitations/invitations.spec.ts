@@ -84,6 +84,19 @@ describe('staff invitations', () => {
     expect({ invitations: await t.db.manager.count(Invitation), mails: await t.db.manager.count(EmailOutbox) }).toEqual(before);
   });
 
+  it('withdraws an open invitation: its link stops working; another lab cannot withdraw it', async () => {
+    const admin = await t.authFor('lab-admin');
+    const sent = await request(t.app).post('/api/lab/staff/invitations').set(admin).send({ email: 'withdrawn@calder.test', roles: ['reviewer'] });
+    const { token } = linkToken((await latestEmailTo(t.db, 'withdrawn@calder.test')).text);
+    expect((await request(t.app).delete(`/api/lab/staff/invitations/${sent.body.id}`).set(await t.authFor('lab-admin', 'marlow'))).status).toBe(404);
+    expect((await request(t.app).delete(`/api/client/team/invitations/${sent.body.id}`).set(await t.authFor('client-admin'))).status).toBe(404);
+    expect((await request(t.app).delete(`/api/lab/staff/invitations/${sent.body.id}`).set(admin)).status).toBe(204);
+    const accept = await request(t.app).post('/api/invitations/accept').send({ token, displayName: 'Too Late', password: PASSWORD });
+    expect(accept.status).toBe(410);
+    const open = await request(t.app).get('/api/lab/staff/invitations').set(admin);
+    expect(open.body.items.map((i: { email: string }) => i.email)).not.toContain('withdrawn@calder.test');
+  });
+
   it('refuses an invalid token with a field error', async () => {
     const res = await request(t.app).post('/api/invitations/preview').send({ token: 'y'.repeat(43) });
     expect(res.status).toBe(400);

@@ -27,6 +27,7 @@ import { requireRole } from '../auth/require-auth';
 import { toInvitationDto } from '../invitations/invitation-dto';
 import { Invitation } from '../invitations/invitation.entity';
 import { sendInvitation } from '../invitations/send-invitation';
+import { withdrawInvitation } from '../invitations/withdraw-invitation';
 import { Lab } from '../labs/lab.entity';
 import { findStaffMember, listStaff, otherActiveAdmins } from './staff-queries';
 
@@ -75,6 +76,13 @@ export function staffRouter(): Router {
       });
     });
     res.status(201).json(toInvitationDto(invitation));
+  });
+
+  registerRoute({ method: 'delete', path: '/lab/staff/invitations/:id', tag, summary: 'Withdraw an open staff invitation (its link stops working)', roles, params: IdParamsSchema });
+  router.delete('/invitations/:id', validate({ params: IdParamsSchema }), async (_req, res) => {
+    const auth = res.locals.auth;
+    await dataSource.transaction((manager) => withdrawInvitation(manager, { labId: labIdOf(auth), clientOrganisationId: null }, (res.locals.params as { id: string }).id, auth.userId));
+    res.status(204).end();
   });
 
   registerRoute({ method: 'put', path: '/lab/staff/:id/roles', tag, summary: 'Replace a staff member’s roles', roles, params: IdParamsSchema, body: ChangeStaffRolesRequestSchema, response: StaffMemberSchema });
