@@ -35,12 +35,12 @@ import { debounceTime, distinctUntilChanged } from 'rxjs';
 })
 export class SearchField {
   readonly label = input('Search');
-  readonly search = output<string>();
+  readonly queryChange = output<string>();
   protected readonly text = new FormControl('', { nonNullable: true });
 
   constructor() {
     this.text.valueChanges
       .pipe(debounceTime(300), distinctUntilChanged(), takeUntilDestroyed())
-      .subscribe((value) => this.search.emit(value));
+      .subscribe((value) => this.queryChange.emit(value));
   }
 }
