@@ -18,6 +18,6 @@ export async function run(): Promise<void> {
     result = classicalMds(d, 2);
     times.push(performance.now() - t0);
   }
-  console.log(JSON.stringify({ figure: 'classical MDS of 2,000 points, median of 3', value: Math.round(median(times)), unit: 'ms', limit: 1000, method: result.method, ...common }));
+  console.log(JSON.stringify({ figure: 'classical MDS of 2,000 points, median of 3', value: Math.round(median(times)), fastest: Math.round(Math.min(...times)), unit: 'ms', limit: 1000, method: result.method, ...common }));
   console.log(JSON.stringify({ figure: 'leading eigenvalues and smallest estimate', value: result.eigenvalues, smallestEigenvalue: result.smallestEigenvalue, ...common }));
 }

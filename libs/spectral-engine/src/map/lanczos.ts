@@ -51,7 +51,7 @@ function startVector(n: number): Float64Array {
 }
 
 /** Steps between two looks at the Ritz values: each look costs an eigen-decomposition of the small tridiagonal matrix. */
-const CHECK_EVERY = 8;
+const CHECK_EVERY = 2;
 
 function ritzPairs(alpha: number[], beta: number[]) {
   const m = alpha.length;
@@ -75,7 +75,7 @@ function ritzPairs(alpha: number[], beta: number[]) {
  * few dozen passes over the matrix instead of a full O(n³) decomposition.
  */
 export function largestEigenpairs(b: Float64Array, n: number, count: number): ExtremeEigenpairs {
-  const firstCheck = Math.min(n, 2 * count + 12);
+  const firstCheck = Math.min(n, count + 4);
   const basis: Float64Array[] = [startVector(n)];
   const alpha: number[] = [];
   const beta: number[] = [];
