@@ -9,13 +9,13 @@ export function demoAccountsTable(baseUrl: string): string {
       for (const member of client.members) rows.push([`${member.role} — ${client.name} (client of ${lab.name})`, member.email, `${baseUrl}/`]);
     }
   }
-  const width = rows.reduce((w, r) => [Math.max(w[0], r[0].length), Math.max(w[1], r[1].length)], [4, 6]);
-  const line = (r: [string, string, string]) => `  ${r[0].padEnd(width[0])}  ${r[1].padEnd(width[1])}  ${r[2]}`;
+  const width = rows.reduce((w, r) => [Math.max(w[0], r[0].length), Math.max(w[1], r[1].length), Math.max(w[2], r[2].length)], [4, 6, 6]);
+  const line = (r: [string, string, string], password = DEMO_PASSWORD) => `  ${r[0].padEnd(width[0])}  ${r[1].padEnd(width[1])}  ${r[2].padEnd(width[2])}  ${password}`;
   return [
-    `  Demo accounts (invented, for demonstration only) — password for every account: ${DEMO_PASSWORD}`,
+    '  Demo accounts (invented, for demonstration only)',
     '',
-    line(['role', 'e-mail', 'portal']),
-    ...rows.map(line),
+    line(['role', 'e-mail', 'portal'], 'password'),
+    ...rows.map((r) => line(r)),
     '',
   ].join('\n');
 }
