@@ -24,7 +24,7 @@ let nextId = 0;
         @for (p of layout().points; track p.id) {
           @if (p.kind === 'sample') {
             <svg:path class="sample" [attr.d]="'M' + p.px + ',' + (p.py - 8) + 'l8,8l-8,8l-8,-8z'" />
-            <svg:text class="label strong" dy="4" [attr.dx]="onRight(p.px) ? -11 : 11" [attr.text-anchor]="onRight(p.px) ? 'end' : 'start'" [attr.x]="p.px" [attr.y]="p.py">{{ p.label }}</svg:text>
+            <svg:text class="label strong" dy="-10" [attr.dx]="onRight(p.px) ? -11 : 11" [attr.text-anchor]="onRight(p.px) ? 'end' : 'start'" [attr.x]="p.px" [attr.y]="p.py">{{ p.label }}</svg:text>
           } @else {
             <svg:circle class="lot" [class.nearest]="p.nearest" [attr.r]="p.nearest ? 6 : 4.5" [attr.cx]="p.px" [attr.cy]="p.py" />
             @if (p.nearest) {

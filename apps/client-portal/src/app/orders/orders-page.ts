@@ -24,7 +24,7 @@ import { OrdersData } from './orders-data';
     .samples { list-style: none; margin: 0; padding: 4px 0; display: flex; flex-direction: column; gap: 4px; }
     .samples li { display: flex; gap: 8px; align-items: center; flex-wrap: wrap; }
     .code { font-family: ui-monospace, monospace; font-weight: 600; }
-    .caution { display: block; margin-top: 16px; }
+    .caution { margin-top: 16px; }
   `,
 })
 export class OrdersPage implements AfterViewInit {

@@ -29,7 +29,7 @@ const STATUS_LOOK = {
       </div>
     </header>
     <ohm-screening-caution class="caution" />
-    <ohm-search-field label="Search by report number, sample code or product" (search)="search.next($event)" />
+    <ohm-search-field label="Search by report number, sample code or product" (queryChange)="search.next($event)" />
     <div class="ohm-table-card">
       @if (list.loading()) {
         <mat-progress-bar mode="indeterminate" aria-label="Loading reports" />

@@ -20,6 +20,7 @@ import { AnalysisResult } from './analysis-result';
   templateUrl: './analysis-panel.html',
   styles: `
     .run { display: flex; flex-wrap: wrap; gap: 12px; align-items: baseline; }
+    .run mat-form-field { width: min(480px, 100%); }
     .history { display: flex; flex-wrap: wrap; gap: 8px; margin: 8px 0 16px; }
     .history button.current { outline: 2px solid var(--mat-sys-primary); }
     .remarks { width: 100%; }

@@ -2,7 +2,7 @@ import { DecimalPipe, PercentPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
 import type { Analysis } from '@ohmprint/contracts';
-import { DistanceHistogram, LibraryMap, ScreeningCaution, VerdictChip, type DistanceHistogramInput, type MapPoint } from '@ohmprint/ui';
+import { DistanceHistogram, LibraryMap, ScreeningCaution, VerdictChip, formatNumber, type DistanceHistogramInput, type MapPoint } from '@ohmprint/ui';
 
 /** Everything behind a verdict, read-only: shared by the analyst's tab and the reviewer's page. */
 @Component({
@@ -15,6 +15,8 @@ import { DistanceHistogram, LibraryMap, ScreeningCaution, VerdictChip, type Dist
 export class AnalysisResult {
   readonly analysis = input.required<Analysis>();
 
+  /** Significant digits, not decimals: fitted time constants run to microseconds. */
+  protected readonly fmt = formatNumber;
   protected readonly result = computed(() => this.analysis().result);
   protected readonly histogram = computed<DistanceHistogramInput>(() => {
     const r = this.result();

@@ -1,7 +1,7 @@
 import { Clipboard } from '@angular/cdk/clipboard';
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
-import { FormControl, ReactiveFormsModule, Validators } from '@angular/forms';
+import { ChangeDetectionStrategy, Component, computed, inject, signal, viewChild } from '@angular/core';
+import { FormControl, FormGroup, FormGroupDirective, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -24,10 +24,10 @@ import { InstrumentKeysData } from './instrument-keys-data';
         <p>A key lets a bench computer post measurement files straight to a sample. The full key is shown once, when issued; only its first characters are kept for you to recognise it.</p>
       </div>
     </header>
-    <form class="issue" (ngSubmit)="issue()">
+    <form class="issue" [formGroup]="issueForm" (ngSubmit)="issue()">
       <mat-form-field>
         <mat-label>Name of the bench computer</mat-label>
-        <input matInput [formControl]="name" placeholder="Bench 2 analyser PC" />
+        <input matInput formControlName="name" placeholder="Bench 2 analyser PC" />
         @if (nameError()) { <mat-error>{{ nameError() }}</mat-error> }
       </mat-form-field>
       <button mat-flat-button type="submit" [disabled]="name.invalid || saving()"><mat-icon>key</mat-icon>Issue a key</button>
@@ -106,6 +106,9 @@ export class InstrumentKeysPage {
   protected readonly saving = signal(false);
   protected readonly nameError = signal<string | null>(null);
   protected readonly name = new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.maxLength(100)] });
+  protected readonly issueForm = new FormGroup({ name: this.name });
+  /** resetForm also clears the submitted flag, so the emptied field does not show as an error. */
+  private readonly formDirective = viewChild.required(FormGroupDirective);
 
   constructor() {
     this.reload();
@@ -117,7 +120,7 @@ export class InstrumentKeysPage {
       next: (k) => {
         this.saving.set(false);
         this.issued.set(k);
-        this.name.reset();
+        this.formDirective().resetForm();
         this.reload();
       },
       error: (e: unknown) => {

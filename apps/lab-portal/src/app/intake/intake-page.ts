@@ -1,6 +1,6 @@
 import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, ElementRef, inject, signal, viewChild, type AfterViewInit, type OnInit } from '@angular/core';
-import { FormBuilder, FormControl, ReactiveFormsModule, Validators } from '@angular/forms';
+import { FormBuilder, FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCardModule } from '@angular/material/card';
 import { MatCheckboxModule } from '@angular/material/checkbox';
@@ -43,6 +43,7 @@ export class IntakePage implements OnInit, AfterViewInit {
 
   protected readonly conditions = CONTAINER_CONDITIONS;
   protected readonly code = new FormControl('', { nonNullable: true });
+  protected readonly scan = new FormGroup({ code: this.code });
   protected readonly codeError = signal<string | null>(null);
   protected readonly looking = signal(false);
   protected readonly saving = signal(false);

@@ -107,7 +107,10 @@ export class MeasurementUpload {
           );
         },
         error: (e: unknown) => {
-          this.patch(row.file, { status: 'rejected', percent: 100, message: `${row.file.name}: ${ApiProblem.from(e).summary}` });
+          // A request with only this file fails as a whole (400); its field errors carry the file, line and column.
+          const p = ApiProblem.from(e);
+          const message = p.fieldErrors.length > 0 ? p.fieldErrors.map((f) => f.message).join(' ') : `${row.file.name}: ${p.summary}`;
+          this.patch(row.file, { status: 'rejected', percent: 100, message });
           next();
         },
         complete: next,

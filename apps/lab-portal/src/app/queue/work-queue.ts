@@ -1,4 +1,4 @@
-import { DecimalPipe } from '@angular/common';
+import { DatePipe, DecimalPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, DestroyRef, inject, input, signal, viewChild, type AfterViewInit } from '@angular/core';
 import { FormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -20,7 +20,7 @@ import { statesForRoles } from './role-states';
   selector: 'ohm-work-queue',
   changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [
-    DecimalPipe, FormsModule, RouterLink, MatTableModule, MatSortModule, MatPaginatorModule, MatProgressBarModule,
+    DatePipe, DecimalPipe, FormsModule, RouterLink, MatTableModule, MatSortModule, MatPaginatorModule, MatProgressBarModule,
     MatChipsModule, MatIconModule, MatButtonModule, SearchField, EmptyState, SampleStateChip,
   ],
   templateUrl: './work-queue.html',

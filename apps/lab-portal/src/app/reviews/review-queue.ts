@@ -23,7 +23,7 @@ import { AnalysesData } from '../analyses/analyses-data';
         <p>Analyses waiting for a second person. Approving issues the signed report; you cannot review an analysis you ran yourself.</p>
       </div>
     </header>
-    <ohm-search-field label="Search by sample code or product" (search)="search.next($event)" />
+    <ohm-search-field label="Search by sample code or product" (queryChange)="search.next($event)" />
     <div class="ohm-table-card">
       @if (list.loading()) {
         <mat-progress-bar mode="indeterminate" aria-label="Loading reviews" />
