@@ -1,0 +1,154 @@
+/**
+ * API figures for the lab workflow, printed as JSON lines (`npm run bench`):
+ *   - one sample's analysis against a published 1,000-lot library, through HTTP (budget 150 ms);
+ *   - a reviewer's approval, which issues the signed PDF report (budget 1.5 s).
+ * Runs against a freshly migrated database of its own, seeded with the invented demo, and drops
+ * it afterwards. Figures, not pass/fail: the budgets are printed beside them.
+ */
+import type { AddressInfo } from 'node:net';
+import { loadavg } from 'node:os';
+import { performance } from 'node:perf_hooks';
+
+process.env.LOG_LEVEL = 'silent';
+process.env.OUTBOX_WORKER = 'false';
+
+const ANALYSIS_RUNS = 20;
+const REPORT_RUNS = 5;
+const LIBRARY_LOTS = 1000;
+
+function stats(ms: number[]) {
+  const s = [...ms].sort((a, b) => a - b);
+  const at = (p: number) => s[Math.min(s.length - 1, Math.ceil(p * s.length) - 1)];
+  return { n: s.length, minMs: round(s[0]), medianMs: round(at(0.5)), p95Ms: round(at(0.95)), maxMs: round(s[s.length - 1]) };
+}
+const round = (v: number) => Math.round(v * 10) / 10;
+/** The machine's load is printed with every figure: the API shares two cores with builds and tests. */
+const line = (o: object) => console.log(JSON.stringify({ ...o, loadAverage1m: round(loadavg()[0]) }));
+
+async function main(): Promise<void> {
+  const { withMaintenanceConnection, quoteIdent } = await import('../../apps/api/src/testing/maintenance-db');
+  const database = `ohmprint_bench_${process.pid}`;
+  await withMaintenanceConnection((c) => c.query(`CREATE DATABASE ${quoteIdent(database)}`));
+  const { dataSource } = await import('../../apps/api/src/db/data-source');
+  dataSource.setOptions({ database, poolSize: 4 });
+  await dataSource.initialize();
+  let server: import('node:http').Server | undefined;
+  try {
+    await dataSource.runMigrations({ transaction: 'each' });
+    const { hashPassword } = await import('../../apps/api/src/modules/auth/passwords');
+    const { seedAccounts } = await import('../../docker-free-scripts/seed/accounts');
+    const { seedLabDemo } = await import('../../docker-free-scripts/seed/lab-demo');
+    const hash = await hashPassword('bench-password-not-secret');
+    await dataSource.transaction((m) => seedAccounts(m, hash));
+    await dataSource.transaction((m) => seedLabDemo(m));
+
+    const { DEMO_PROFILES, demoLots } = await import('../../docker-free-scripts/seed/lab-demo-spectra');
+    const { DEFAULT_METHOD } = await import('../../apps/api/src/modules/libraries/default-method');
+    const { methodGrid } = await import('../../apps/api/src/modules/measurements/prepared-replicates');
+    const { createDraftVersion, libraryOf, publishVersion } = await import('../../apps/api/src/modules/libraries/library-versions');
+    const [ctx] = await dataSource.query(
+      `SELECT p.id AS product_id, p.lab_id, (SELECT id FROM app_user WHERE email = 'admin@calder.test') AS admin_id,
+              (SELECT id FROM app_user WHERE email = 'analyst@calder.test') AS analyst_id,
+              (SELECT id FROM app_user WHERE email = 'reviewer@calder.test') AS reviewer_id
+       FROM product p WHERE p.name = 'Ridgeline Red (demo)'`,
+    );
+    const method = { ...DEFAULT_METHOD, model: DEMO_PROFILES['ridgeline-red'].model };
+    const grid = methodGrid(method);
+    const t0 = performance.now();
+    const versionId = await dataSource.transaction(async (m) => {
+      const library = await libraryOf(m, ctx.lab_id, ctx.product_id);
+      const id = await createDraftVersion(m, ctx.lab_id, library.id, method, grid, demoLots(DEMO_PROFILES['ridgeline-red'], grid, LIBRARY_LOTS, 'bench-ridgeline-red'));
+      await publishVersion(m, ctx.lab_id, id, ctx.admin_id);
+      return id;
+    });
+    line({ bench: 'publish-library', lots: LIBRARY_LOTS, ms: round(performance.now() - t0), note: 'store, calibrate (leave-one-out) and freeze' });
+
+    const { createApp } = await import('../../apps/api/src/app');
+    const { signAccessToken } = await import('../../apps/api/src/modules/auth/access-token');
+    const { demoFiles } = await import('../../docker-free-scripts/seed/lab-demo-files');
+    server = createApp().listen(0, '127.0.0.1');
+    await new Promise((r) => server!.once('listening', r));
+    const base = `http://127.0.0.1:${(server.address() as AddressInfo).port}/api`;
+    const analyst = { Authorization: `Bearer ${signAccessToken(ctx.analyst_id)}` };
+    const reviewer = { Authorization: `Bearer ${signAccessToken(ctx.reviewer_id)}` };
+    const call = async (method: string, path: string, auth: Record<string, string>, body?: unknown) => {
+      const res = await fetch(`${base}${path}`, { method, headers: { ...auth, ...(body ? { 'content-type': 'application/json' } : {}) }, body: body ? JSON.stringify(body) : undefined });
+      const json = await res.json();
+      if (!res.ok) throw new Error(`${method} ${path} answered ${res.status}: ${JSON.stringify(json)}`);
+      return json;
+    };
+    const bench = await call('GET', '/lab/bench', analyst);
+    const files = demoFiles().filter((f) => f.sampleCode === 'OP-7K3M-Q9');
+
+    /** A fresh accepted sample of the product with the authentic-like demo replicates uploaded. */
+    const { newSampleCode } = await import('../../apps/api/src/modules/samples/sample-code');
+    const [order] = await dataSource.query(`SELECT order_id FROM sample WHERE code = 'OP-7K3M-Q9'`);
+    const measuredSample = async (): Promise<string> => {
+      const [s] = await dataSource.query(
+        `INSERT INTO sample (lab_id, order_id, code, state, obtained_where, obtained_on, received_at) VALUES ($1, $2, $3, 'accepted', 'Bench (invented)', '2026-11-30', now()) RETURNING id`,
+        [ctx.lab_id, order.order_id, newSampleCode()],
+      );
+      const form = new FormData();
+      form.set('instrumentId', bench.instruments[0].id);
+      form.set('cellId', bench.cells[0].id);
+      form.set('temperatureC', String(files[0].temperatureC));
+      for (const f of files) form.append('files', new Blob([f.text]), f.fileName);
+      const res = await fetch(`${base}/lab/samples/${s.id}/measurements`, { method: 'POST', headers: analyst, body: form });
+      if (res.status !== 201) throw new Error(`upload answered ${res.status}: ${await res.text()}`);
+      return s.id;
+    };
+
+    const sampleId = await measuredSample();
+    const timings: number[] = [];
+    let first = 0;
+    let verdict = '';
+    for (let i = 0; i <= ANALYSIS_RUNS; i++) {
+      const start = performance.now();
+      const a = await call('POST', `/lab/samples/${sampleId}/analyses`, analyst, { libraryVersionId: versionId });
+      const ms = performance.now() - start;
+      verdict = a.result.verdict;
+      if (i === 0) first = ms;
+      else timings.push(ms);
+    }
+    const analysis = stats(timings);
+    line({ bench: 'analysis-at-api', lots: LIBRARY_LOTS, ...analysis, firstMs: round(first), firstNote: 'includes loading and decoding the library', verdict, budgetMs: 150, withinBudget: analysis.medianMs <= 150 });
+
+    // The same work without HTTP and the database, to show where the time goes.
+    const { computeAnalysis } = await import('../../apps/api/src/modules/analyses/compute-analysis');
+    const { publishedLibrary } = await import('../../apps/api/src/modules/libraries/published-library');
+    const { Replicate } = await import('../../apps/api/src/modules/measurements/replicate.entity');
+    const library = await publishedLibrary(dataSource.manager, ctx.lab_id, versionId);
+    const replicates = await dataSource.manager.find(Replicate, { where: { sampleId, excluded: false } });
+    const engineOnly: number[] = [];
+    for (let i = 0; i < ANALYSIS_RUNS; i++) {
+      const start = performance.now();
+      computeAnalysis(replicates, library);
+      engineOnly.push(performance.now() - start);
+    }
+    line({ bench: 'analysis-computation-only', lots: LIBRARY_LOTS, ...stats(engineOnly), note: 'normalise, resample, average, distances, verdict, map, fit' });
+
+    const reportTimings: number[] = [];
+    let firstReport = 0;
+    for (let i = 0; i <= REPORT_RUNS; i++) {
+      const id = await measuredSample();
+      const a = await call('POST', `/lab/samples/${id}/analyses`, analyst, { libraryVersionId: versionId });
+      await call('POST', `/lab/analyses/${a.id}/submit`, analyst);
+      const start = performance.now();
+      await call('POST', `/lab/analyses/${a.id}/approve`, reviewer, { comments: 'Bench approval' });
+      const ms = performance.now() - start;
+      if (i === 0) firstReport = ms;
+      else reportTimings.push(ms);
+    }
+    const report = stats(reportTimings);
+    line({ bench: 'approve-and-issue-signed-report', ...report, firstMs: round(firstReport), firstNote: "includes creating the lab's development signing credential", budgetMs: 1500, withinBudget: report.medianMs <= 1500 });
+  } finally {
+    await new Promise((r) => (server ? server.close(r) : r(undefined)));
+    await dataSource.destroy();
+    await withMaintenanceConnection((c) => c.query(`DROP DATABASE IF EXISTS ${quoteIdent(database)}`));
+  }
+}
+
+main().catch((err) => {
+  console.error(err);
+  process.exitCode = 1;
+});
