@@ -31,7 +31,7 @@ import { uploadMeasurements } from './upload-measurements';
 const tag = 'Measurements';
 const EXPORT_LIMITS = { fileSizeBytes: 5 * 1048576, files: 20 };
 const ReplicateParamsSchema = z.object({ id: z.uuid(), replicateId: z.uuid() });
-const UploadParamsSchema = z.object({ sample: z.string().trim().min(1).max(60).meta({ description: 'Sample id, or its printed code (OP-XXXX-XX)' }) });
+const UploadParamsSchema = z.object({ id: z.string().trim().min(1).max(60).meta({ description: 'Sample id, or its printed code (OP-XXXX-XX)' }) });
 const UploadBodySchema = z.object({
   ...MeasurementUploadFieldsSchema.shape,
   files: z.array(z.string().meta({ format: 'binary' })).meta({ description: 'One instrument export (text) per replicate, each at most 5 MB' }),
@@ -58,7 +58,7 @@ export function measurementsRouter(): Router {
 
   registerRoute({
     method: 'post',
-    path: '/lab/samples/:sample/measurements',
+    path: '/lab/samples/:id/measurements',
     tag,
     summary:
       'Upload instrument exports, one file per replicate (multipart field "files"). Signed-in analysts, or a bench computer with "Authorization: Bearer ohm_live_…" (an instrument key; this is the only route a key opens). Unreadable files are listed with file name, line and column; the readable ones are still saved.',
@@ -69,10 +69,10 @@ export function measurementsRouter(): Router {
     response: MeasurementUploadResultSchema,
     status: 201,
   });
-  router.post('/samples/:sample/measurements', requireMeasurementUploader, validate({ params: UploadParamsSchema }), upload, validate({ body: MeasurementUploadFieldsSchema }), async (req, res) => {
+  router.post('/samples/:id/measurements', requireMeasurementUploader, validate({ params: UploadParamsSchema }), upload, validate({ body: MeasurementUploadFieldsSchema }), async (req, res) => {
     const files = (req.files as Express.Multer.File[] | undefined) ?? [];
     const result = await dataSource.transaction((m) =>
-      uploadMeasurements(m, res.locals.uploader, res.locals.uploaderLabId, (res.locals.params as { sample: string }).sample, res.locals.body as MeasurementUploadFields, files),
+      uploadMeasurements(m, res.locals.uploader, res.locals.uploaderLabId, (res.locals.params as { id: string }).id, res.locals.body as MeasurementUploadFields, files),
     );
     res.status(201).json(result);
   });

@@ -136,3 +136,27 @@ describe('client orders', () => {
     expect(products.body.items[1].publishedLibraryVersion).toMatchObject({ version: 1, lotCount: 12 });
   });
 });
+
+describe('published library versions are frozen', () => {
+  it('keep their method when the lab changes its settings, and the database refuses edits', async () => {
+    const admin = await t.authFor('lab-admin');
+    const current = await request(t.app).get('/api/lab/method-settings').set(admin);
+    const changed = await request(t.app).put('/api/lab/method-settings').set(admin).send({ ...current.body, bandMaxHz: 200_000, kkResidualLimitPercent: 1 });
+    expect(changed.status).toBe(200);
+    expect((await request(t.app).get('/api/lab/method-settings').set(admin)).body.bandMaxHz).toBe(200_000);
+    const [version] = await t.db.query(`SELECT v.id FROM library_version v JOIN reference_library l ON l.id = v.library_id JOIN product p ON p.id = l.product_id WHERE p.name = 'Ridgeline Red (demo)'`);
+    const detail = await request(t.app).get(`/api/lab/library-versions/${version.id}`).set(admin);
+    expect(detail.body).toMatchObject({ status: 'published', lotCount: 12, method: { bandMaxHz: 500_000 } });
+    expect(detail.body.calibration.t95).toBeLessThanOrEqual(detail.body.calibration.t99);
+    await expect(t.db.query(`UPDATE library_version SET grid_hz = ARRAY[1, 2]::float8[] WHERE id = $1`, [version.id])).rejects.toThrow(/frozen/);
+    await expect(t.db.query(`DELETE FROM reference_lot WHERE library_version_id = $1`, [version.id])).rejects.toThrow(/frozen/);
+  });
+
+  it('refuses method settings whose band is upside down, naming the field', async () => {
+    const admin = await t.authFor('lab-admin');
+    const current = await request(t.app).get('/api/lab/method-settings').set(admin);
+    const res = await request(t.app).put('/api/lab/method-settings').set(admin).send({ ...current.body, bandMinHz: 1000, bandMaxHz: 10 });
+    expect(res.status).toBe(400);
+    expect(res.body.errors).toEqual([expect.objectContaining({ field: 'bandMaxHz' })]);
+  });
+});
