@@ -31,9 +31,11 @@ let nextId = 0;
             <svg:path class="series" [class.muted]="s.muted" [attr.d]="s.d" [attr.stroke]="s.style.stroke" [attr.stroke-dasharray]="s.style.dash || null" />
             <svg:path class="markers" [class.muted]="s.muted" [attr.d]="s.markers" [attr.fill]="s.style.stroke" />
           }
-          @for (m of layout().frequencyMarks; track m.label) {
+          @for (m of layout().frequencyMarks; track $index) {
             <svg:circle class="annotation" r="2" [attr.cx]="m.x" [attr.cy]="m.y" />
-            <svg:text class="tick-label" dx="5" dy="-5" [attr.x]="m.x" [attr.y]="m.y">{{ m.label }}</svg:text>
+            @if (m.label) {
+              <svg:text class="tick-label" dx="5" dy="-5" [attr.x]="m.x" [attr.y]="m.y">{{ m.label }}</svg:text>
+            }
           }
         </svg:g>
       </svg>

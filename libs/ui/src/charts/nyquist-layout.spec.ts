@@ -39,7 +39,8 @@ describe('nyquistLayout', () => {
   });
 
   it('marks whole decades of frequency along the arc', () => {
-    expect(layout.frequencyMarks.map((m) => m.label)).toEqual(['100 mHz', '1 Hz', '10 Hz', '100 Hz', '1 kHz', '10 kHz', '100 kHz']);
+    // τ = RC = 10 ms puts the apex near 16 Hz; 10 kHz and 100 kHz crowd at the origin, so only their dots stay.
+    expect(layout.frequencyMarks.map((m) => m.label)).toEqual(['100 mHz', '1 Hz', '10 Hz', '100 Hz', '1 kHz', '', '']);
   });
 
   it('shades the swept reference region between neighbouring grid points', () => {
@@ -48,5 +49,21 @@ describe('nyquistLayout', () => {
     const withBand = nyquistLayout([rc], band, 640, 400);
     // One closed hull per pair of neighbouring grid points.
     expect(withBand.band.split('Z').filter(Boolean)).toHaveLength(40);
+  });
+});
+
+describe('decade marks where the arc bunches up', () => {
+  it('keeps every dot but drops labels that would overprint their neighbour', () => {
+    // Rs + R‖C: the low decades all sit near Z′ = Rs + R, at the right end of the arc.
+    const f = Array.from({ length: 61 }, (_, i) => 10 ** (-1 + i * 0.1));
+    const re = f.map((hz) => 300 + 150 / (1 + (2 * Math.PI * hz * 150 * 1e-7) ** 2));
+    const im = f.map((hz) => (-150 * (2 * Math.PI * hz * 150 * 1e-7)) / (1 + (2 * Math.PI * hz * 150 * 1e-7) ** 2));
+    const layout = nyquistLayout([{ label: 'x', frequencyHz: f, re, im }], null, 640, 400);
+    const labelled = layout.frequencyMarks.filter((m) => m.label);
+    expect(layout.frequencyMarks).toHaveLength(7);
+    expect(labelled.length).toBeLessThan(7);
+    for (let i = 1; i < labelled.length; i++) {
+      expect(Math.hypot(labelled[i].x - labelled[i - 1].x, labelled[i].y - labelled[i - 1].y)).toBeGreaterThanOrEqual(28);
+    }
   });
 });

@@ -23,6 +23,8 @@ export interface NyquistLayout extends PanelLayout {
 }
 
 const MARGIN = { left: 68, right: 16, top: 12, bottom: 40 };
+/** SVG units between two labelled decade marks. */
+const MIN_LABEL_GAP = 28;
 
 /**
  * −Z″ against Z′ with equal axes. The reference band is the region swept by the library's
@@ -113,5 +115,11 @@ export function decadeMarks(
     }
     if (best >= 0) marks.push({ x: toX(s.re[best]), y: toY(s.im[best]), label: formatHz(10 ** k) });
   }
-  return marks;
+  // Where the arc bunches up (the low-frequency end), neighbouring labels would overprint: keep the dot, drop the word.
+  let last: FrequencyMark | null = null;
+  return marks.map((m) => {
+    if (last && Math.hypot(m.x - last.x, m.y - last.y) < MIN_LABEL_GAP) return { ...m, label: '' };
+    last = m;
+    return m;
+  });
 }

@@ -5,7 +5,7 @@ import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import type { Replicate, SampleMeasurements, SpectrumPoints } from '@ohmprint/contracts';
-import { BodeChart, KkResidualChart, NyquistChart, Notice, type KkResiduals, type SpectrumSeries } from '@ohmprint/ui';
+import { BodeChart, KkResidualChart, NyquistChart, Notice, formatHz, type KkResiduals, type SpectrumSeries } from '@ohmprint/ui';
 import { forkJoin, of } from 'rxjs';
 import { ExcludeDialog, type ExcludeRequest } from './exclude-dialog';
 import { kkResiduals } from './kk-residuals';
@@ -27,6 +27,7 @@ export class MeasurementsPanel {
   /** Analysts may upload and exclude; others look. */
   readonly canEdit = input(false);
 
+  protected readonly hz = formatHz;
   protected readonly measurements = signal<SampleMeasurements | null>(null);
   protected readonly spectra = signal<ReadonlyMap<string, SpectrumPoints>>(new Map());
   protected readonly selected = signal<string | null>(null);
