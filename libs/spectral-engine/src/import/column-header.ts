@@ -29,12 +29,23 @@ export function plainText(text: string): string {
     .replace(/\u2126/g, 'Ω');
 }
 
-/** Splits "Name (unit)", "Name [unit]" and "Name / unit". */
-function splitUnit(cell: string): { name: string; unit: string | null } {
-  const bracket = /^(.*?)\s*[([]\s*([^()[\]]*?)\s*[)\]]\s*$/.exec(cell);
-  if (bracket && bracket[1] !== '') return { name: bracket[1], unit: bracket[2] };
+/**
+ * Splits "Name (unit)", "Name [unit]" and "Name / unit". Plain index searches, no backtracking
+ * regular expression, so a hostile header cannot make the import hang.
+ */
+function splitUnit(raw: string): { name: string; unit: string | null } {
+  const cell = raw.trim();
+  const close = cell.charAt(cell.length - 1);
+  if (close === ')' || close === ']') {
+    const open = cell.lastIndexOf(close === ')' ? '(' : '[');
+    const name = open > 0 ? cell.slice(0, open).trim() : '';
+    const inner = cell.slice(open + 1, -1).trim();
+    // "Re(Z)" and "Phase(Z)" keep their brackets: what they enclose is the quantity, not a unit.
+    if (name !== '' && !/^z'*$/i.test(inner)) return { name, unit: inner };
+    return { name: cell, unit: null };
+  }
   const slash = cell.lastIndexOf('/');
-  if (slash > 0 && !/\)\s*$/.test(cell)) return { name: cell.slice(0, slash).trim(), unit: cell.slice(slash + 1).trim() };
+  if (slash > 0) return { name: cell.slice(0, slash).trim(), unit: cell.slice(slash + 1).trim() };
   return { name: cell, unit: null };
 }
 

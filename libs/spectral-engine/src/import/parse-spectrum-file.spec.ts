@@ -68,6 +68,18 @@ describe('parseSpectrumFile', () => {
     expect(headerless.frequencyHz.length).toBe(5);
   });
 
+  it('reads names that carry their own brackets, such as Re(Z) and Phase(Z)', () => {
+    const s = parseSpectrumFile(['Freq (Hz)\tRe(Z) (Ohm)\t-Im(Z) (Ohm)', '1\t5\t2', '2\t4\t1', '3\t3\t1', '4\t2\t1', '5\t1\t1'].join('\n'));
+    expect([s.re[0], s.im[0]]).toEqual([5, -2]);
+    const polar = parseSpectrumFile(['Frequency (Hz),|Z| (Ohm),Phase(Z) (°)', '1,2,0', '2,2,0', '3,2,0', '4,2,0', '5,2,-90'].join('\n'));
+    expect(polar.im[4]).toBeCloseTo(-2, 12);
+  });
+
+  it('refuses hostile input without stalling: huge lines and unclosed brackets', () => {
+    expect(importError(';'.repeat(1e6)).reason).toMatch(/more than 1000 cells on one line/);
+    expect(importError(`Frequency (${' '.repeat(1e5)}x;Z' (Ω);Z'' (Ω)\n1;2;3`).reason).toMatch(/no header row found/);
+  });
+
   it('rejects an empty file and a binary file', () => {
     expect(importError('').reason).toMatch(/empty/);
     expect(importError(' \r\n\n').reason).toMatch(/empty/);

@@ -29,10 +29,16 @@ type Layout =
   | { readonly kind: 'cartesian'; readonly frequency: Column; readonly real: Column; readonly imaginary: Column; readonly negated: boolean }
   | { readonly kind: 'polar'; readonly frequency: Column; readonly modulus: Column; readonly phase: Column; readonly negated: boolean };
 
-function splitCells(text: string, delimiter: string): Cell[] {
+/** More cells than this on one line is not an impedance export; stops hostile input early. */
+const MAX_CELLS = 1000;
+
+function splitCells(text: string, delimiter: string, line: number): Cell[] {
   const cells: Cell[] = [];
   let start = 0;
   for (;;) {
+    if (cells.length === MAX_CELLS) {
+      throw new SpectrumImportError(`more than ${MAX_CELLS} cells on one line: expected a few columns of numbers`, line);
+    }
     const end = text.indexOf(delimiter, start);
     const raw = end === -1 ? text.slice(start) : text.slice(start, end);
     const lead = raw.length - raw.trimStart().length;
@@ -182,7 +188,7 @@ export function parseSpectrumFile(text: string, options: ImportOptions = {}): Sp
   for (; cursor < lines.length; cursor++) {
     const line = lines[cursor];
     if (line.text.trim() === '' || line.text.trimStart().startsWith('#')) continue;
-    const cells = splitCells(line.text, delimiter);
+    const cells = splitCells(line.text, delimiter, line.number);
     if (isNumericRow(cells, decimalComma)) {
       if (explicit) break;
       if (lastText) {
@@ -215,7 +221,7 @@ export function parseSpectrumFile(text: string, options: ImportOptions = {}): Sp
   for (; cursor < lines.length; cursor++) {
     const line = lines[cursor];
     if (line.text.trim() === '' || line.text.trimStart().startsWith('#')) continue;
-    const cells = splitCells(line.text, delimiter);
+    const cells = splitCells(line.text, delimiter, line.number);
     if (cells.length < needed) {
       throw new SpectrumImportError(
         `too few columns: expected at least ${needed} separated by ${DELIMITER_NAMES[delimiter]}, found ${cells.length}`,
@@ -252,7 +258,7 @@ export function parseSpectrumFile(text: string, options: ImportOptions = {}): Sp
   for (let i = 1; i < rows.length; i++) {
     if (rows[i].f === rows[i - 1].f) {
       const [first, second] = [rows[i - 1].line, rows[i].line].sort((a, b) => a - b);
-      throw new SpectrumImportError(`frequency ${rows[i].f} Hz appears twice (also on line ${first}): expected each frequency once`, second, cellColumn(lines[second - 1].text, delimiter, layout.frequency.index));
+      throw new SpectrumImportError(`frequency ${rows[i].f} Hz appears twice (also on line ${first}): expected each frequency once`, second, cellColumn(lines[second - 1], delimiter, layout.frequency.index));
     }
   }
   return {
@@ -262,6 +268,6 @@ export function parseSpectrumFile(text: string, options: ImportOptions = {}): Sp
   };
 }
 
-function cellColumn(text: string, delimiter: string, index: number): number {
-  return splitCells(text, delimiter)[index].column;
+function cellColumn(line: Line, delimiter: string, index: number): number {
+  return splitCells(line.text, delimiter, line.number)[index].column;
 }
