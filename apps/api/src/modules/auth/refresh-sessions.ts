@@ -36,8 +36,9 @@ export async function revokeAllSessionsOf(manager: EntityManager, userId: string
 }
 
 /**
- * Exchanges a refresh token for a new one in the same family. A token that was already rotated is
- * a copy in someone else's hands: the whole family is revoked (committed before answering 401).
+ * Exchanges a refresh token for a new one in the same family. A token that was already rotated (longer
+ * than the grace period ago) is a copy in someone else's hands: the whole family is revoked
+ * (committed before answering 401).
  */
 type Rotation = { ok: true; token: string; owner: SessionOwner; familyId: string } | { ok: false; error: string };
 
@@ -46,7 +47,10 @@ export async function rotateRefreshToken(token: string, userAgent: string | unde
     const session = await manager.findOne(RefreshSession, { where: { tokenHash: hashToken(token) }, lock: { mode: 'pessimistic_write' } });
     if (!session) return { ok: false, error: 'The sign-in session is not recognised; sign in again.' };
     if (session.revokedAt) return { ok: false, error: 'This sign-in session has ended; sign in again.' };
-    if (session.rotatedAt) {
+    // Two tabs refreshing with the same cookie at once is not theft: within the grace period the late
+    // one gets its own token in the family instead of ending everyone's sign-in.
+    const concurrent = session.rotatedAt && Date.now() - session.rotatedAt.getTime() <= config.auth.refreshReuseGraceSeconds * 1000;
+    if (session.rotatedAt && !concurrent) {
       await revokeFamily(manager, session.familyId, 'reuse-detected');
       await recordAudit(manager, {
         labId: session.labId,
@@ -59,7 +63,7 @@ export async function rotateRefreshToken(token: string, userAgent: string | unde
       return { ok: false, error: 'An old sign-in token was used again, so every token of this sign-in has been revoked. Sign in again.' };
     }
     if (session.expiresAt.getTime() <= Date.now()) return { ok: false, error: 'The sign-in session has expired; sign in again.' };
-    await manager.update(RefreshSession, session.id, { rotatedAt: new Date() });
+    if (!session.rotatedAt) await manager.update(RefreshSession, session.id, { rotatedAt: new Date() });
     const owner = { userId: session.userId, labId: session.labId };
     return { ok: true, token: await issueRefreshToken(manager, owner, userAgent, session.familyId), owner, familyId: session.familyId };
   });

@@ -111,6 +111,9 @@ describe('refresh and sign-out', () => {
     const { cookie } = await t.signIn('reviewer@calder.test');
     const rotated = await request(t.app).post('/api/auth/refresh').set('Cookie', cookie);
     const current = refreshCookie(rotated).split(';')[0];
+    const userId = await t.userIdFor('reviewer');
+    // The copy turns up a minute after the owner's refresh: past the grace for concurrent tabs.
+    await t.db.query(`UPDATE refresh_session SET rotated_at = rotated_at - interval '1 minute' WHERE user_id = $1 AND rotated_at IS NOT NULL`, [userId]);
 
     const replay = await request(t.app).post('/api/auth/refresh').set('Cookie', cookie);
     expect(replay.status).toBe(401);
@@ -118,10 +121,21 @@ describe('refresh and sign-out', () => {
     // The legitimate holder's newer token is revoked too: the thief and the owner both sign in again.
     const afterReplay = await request(t.app).post('/api/auth/refresh').set('Cookie', current);
     expect(afterReplay.status).toBe(401);
-    const userId = await t.userIdFor('reviewer');
     const sessions = await t.db.manager.find(RefreshSession, { where: { userId } });
     expect(sessions.every((s) => s.revokedAt !== null)).toBe(true);
     expect(await t.db.manager.count(AuditEvent, { where: { action: 'auth.refresh-token-reused', subjectId: userId } })).toBe(1);
+  });
+
+  it('lets two tabs refresh with the same cookie at once without ending the sign-in', async () => {
+    const { cookie } = await t.signIn('analyst@calder.test');
+    const [a, b] = await Promise.all([
+      request(t.app).post('/api/auth/refresh').set('Cookie', cookie),
+      request(t.app).post('/api/auth/refresh').set('Cookie', cookie),
+    ]);
+    expect([a.status, b.status]).toEqual([200, 200]);
+    for (const res of [a, b]) {
+      expect((await request(t.app).post('/api/auth/refresh').set('Cookie', refreshCookie(res).split(';')[0])).status).toBe(200);
+    }
   });
 
   it('signs out: the cookie is cleared and the refresh token no longer works', async () => {
