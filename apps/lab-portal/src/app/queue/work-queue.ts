@@ -23,6 +23,7 @@ import { statesForRoles } from './role-states';
     DatePipe, DecimalPipe, FormsModule, RouterLink, MatTableModule, MatSortModule, MatPaginatorModule, MatProgressBarModule,
     MatChipsModule, MatIconModule, MatButtonModule, SearchField, EmptyState, SampleStateChip,
   ],
+  host: { '[class.embedded]': 'embedded()' },
   templateUrl: './work-queue.html',
   styleUrl: './work-queue.scss',
 })

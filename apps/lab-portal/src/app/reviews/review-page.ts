@@ -10,6 +10,7 @@ import type { Analysis, ApprovalResult } from '@ohmprint/contracts';
 import { ApiProblem, Notice, Notifier, Session } from '@ohmprint/ui';
 import { AnalysesData } from '../analyses/analyses-data';
 import { AnalysisResult } from '../analyses/analysis-result';
+import { MeasurementsPanel } from '../measurements/measurements-panel';
 import { ReportFiles } from '../reports/report-files';
 import { reviewRefusal } from './review-refusal';
 
@@ -17,7 +18,7 @@ import { reviewRefusal } from './review-refusal';
 @Component({
   selector: 'ohm-review-page',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [ReactiveFormsModule, RouterLink, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatProgressBarModule, Notice, AnalysisResult],
+  imports: [ReactiveFormsModule, RouterLink, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatProgressBarModule, Notice, AnalysisResult, MeasurementsPanel],
   template: `
     @if (analysis(); as a) {
       <header class="ohm-page-header">
@@ -33,6 +34,10 @@ import { reviewRefusal } from './review-refusal';
         <ohm-notice tone="error" icon="block">{{ r }}</ohm-notice>
       }
       <ohm-analysis-result [analysis]="a" />
+      <details class="spectra">
+        <summary>Measurements behind this analysis (spectra, Kramers–Kronig checks, exclusions)</summary>
+        <ohm-measurements-panel [sampleId]="a.sample.id" [canEdit]="false" />
+      </details>
       @if (a.remarks) {
         <h2 class="title">Analyst's remarks</h2>
         <p>{{ a.remarks }}</p>
@@ -67,6 +72,8 @@ import { reviewRefusal } from './review-refusal';
     .code { font-family: ui-monospace, monospace; }
     .title { font: var(--mat-sys-title-medium); margin: 16px 0 4px; }
     .comments { width: 100%; }
+    .spectra { margin: 12px 0; }
+    .spectra summary { cursor: pointer; font: var(--mat-sys-title-small); padding: 6px 0; }
     .buttons { display: flex; gap: 8px; flex-wrap: wrap; }
   `,
 })
