@@ -1,0 +1,39 @@
+// A person signs into their portal in a fresh browser context of their own, as they would at their desk.
+import type { Browser, BrowserContext, Page } from 'playwright-core';
+import { DEMO_PASSWORD, url } from './browser';
+
+export interface Desk {
+  context: BrowserContext;
+  page: Page;
+}
+
+/** Generous waits: the journey shares two cores with builds and other test runs. */
+const WAIT_MS = 60_000;
+
+export async function signInAt(browser: Browser, portal: 'lab' | 'client', email: string): Promise<Desk> {
+  const context = await browser.newContext({ viewport: { width: 1280, height: 900 }, acceptDownloads: true });
+  const page = await context.newPage();
+  page.setDefaultTimeout(WAIT_MS);
+  await page.goto(url(portal === 'lab' ? '/lab/sign-in' : '/sign-in'));
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password', { exact: true }).fill(DEMO_PASSWORD);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.getByRole('button', { name: /^Account menu for / }).waitFor();
+  return { context, page };
+}
+
+/** The access token a direct API request needs, from a real sign-in. */
+export async function accessTokenFor(email: string): Promise<string> {
+  const res = await fetch(url('/api/auth/sign-in'), {
+    method: 'POST',
+    headers: { 'content-type': 'application/json' },
+    body: JSON.stringify({ email, password: DEMO_PASSWORD }),
+  });
+  if (!res.ok) throw new Error(`Sign-in of ${email} answered ${res.status}: ${await res.text()}`);
+  return ((await res.json()) as { accessToken: string }).accessToken;
+}
+
+/** Opens a screen from the side navigation (home screens repeat some entries as shortcuts). */
+export async function openFromMenu(page: Page, label: string): Promise<void> {
+  await page.getByRole('navigation', { name: 'Main navigation' }).getByRole('link', { name: label, exact: true }).click();
+}

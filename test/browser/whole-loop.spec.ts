@@ -1,0 +1,254 @@
+// The whole loop of one suspect sample, in a real browser: ordered (seeded), received at intake,
+// measured, analysed, reviewed by a second person, reported, downloaded by the client and verified
+// by a visitor. The steps run in order and hand on what the next person needs.
+import { copyFileSync, readFileSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
+import type { Browser } from 'playwright-core';
+import { launchBrowser, screenshot, url } from './support/browser';
+import { pdfPlainText, pdfSignatureReport } from './support/report-pdf-checks';
+import { exportsFor } from './support/replicate-exports';
+import { accessTokenFor, openFromMenu, signInAt, type Desk } from './support/desk';
+import { ARTIFACTS } from './support/stack';
+
+/** A seeded Ridgeline Red (demo) sample of Hollin Ridge Cellars, still awaiting arrival. */
+const SAMPLE = 'OP-3VNC-8P';
+const CLIENT_ADMIN = 'admin@hollinridge.test';
+const INTAKE = 'intake@calder.test';
+const ANALYST = 'analyst@calder.test';
+const ANALYST_NAME = 'Ana Lyst (demo)';
+const REVIEWER = 'reviewer@calder.test';
+const LAB_ADMIN = 'admin@calder.test';
+const REMARKS = 'Three replicates agree; the spectrum matches the library. Invented demo remark.';
+
+/** The caution the product promises on every report, word for word. */
+const CAUTION =
+  "An impedance fingerprint is a screening method: it tells whether a sample is consistent with the producer's reference library " +
+  "under the stated method. It does not prove origin or identity by itself; a 'not consistent' result should be confirmed by an " +
+  'accredited confirmatory method before legal or commercial action. Results relate only to the items tested.';
+
+// The project's testTimeout is a global-only jest option and does not reach a project's tests.
+jest.setTimeout(180_000);
+
+let browser: Browser;
+const desks: Desk[] = [];
+const handOn: { sampleId?: string; analysisId?: string; reportNumber?: string; verificationCode?: string; pdf?: string } = {};
+
+async function deskOf(portal: 'lab' | 'client', email: string): Promise<Desk> {
+  const desk = await signInAt(browser, portal, email);
+  desks.push(desk);
+  return desk;
+}
+
+function needs<K extends keyof typeof handOn>(key: K): NonNullable<(typeof handOn)[K]> {
+  const value = handOn[key];
+  if (value === undefined) throw new Error(`An earlier step did not produce ${key}; see its failure above.`);
+  return value as NonNullable<(typeof handOn)[K]>;
+}
+
+beforeAll(async () => {
+  browser = await launchBrowser();
+});
+
+afterAll(async () => {
+  for (const d of desks) await d.context.close();
+  await browser?.close();
+});
+
+describe('one suspect sample, from order to verified report', () => {
+  it('1. the client admin sees the seeded order with its sample awaiting arrival', async () => {
+    const { page } = await deskOf('client', CLIENT_ADMIN);
+    await openFromMenu(page, 'Orders');
+    const row = page.getByRole('row').filter({ hasText: SAMPLE });
+    await row.waitFor();
+    expect(await row.innerText()).toContain('Ridgeline Red (demo)');
+    expect(await row.innerText()).toContain('Awaiting arrival');
+    await screenshot(page, 'whole-loop-01-client-orders');
+  });
+
+  it('2. the intake technician receives, accepts and stores the sample; custody shows each event', async () => {
+    const { page } = await deskOf('lab', INTAKE);
+    await openFromMenu(page, 'Receive samples');
+    const code = page.getByLabel('Sample code');
+    // a scanner types the code and Enter
+    await code.fill(SAMPLE);
+    await code.press('Enter');
+    await page.getByLabel('Carrier').fill('Invented Courier Co.');
+    await page.getByLabel('Tracking number').fill('DEMO-TRK-3VNC8P');
+    await page.getByLabel('Temperature on arrival').fill('14.5');
+    await page.getByRole('combobox', { name: 'Container condition' }).click();
+    await page.getByRole('option', { name: 'intact' }).click();
+    await page.getByLabel('Volume').fill('750');
+    expect(await page.getByRole('checkbox', { name: 'Seal intact' }).isChecked()).toBe(true);
+    await page.getByLabel('Notes').fill('Invented demo parcel, bottle upright, capsule unbroken.');
+    await screenshot(page, 'whole-loop-02a-intake-arrival-form');
+    await page.getByRole('button', { name: 'Record arrival' }).click();
+
+    await page.getByLabel('Storage location').fill('Wine cellar rack 3 (demo)');
+    await screenshot(page, 'whole-loop-02b-intake-accept');
+    await page.getByRole('button', { name: 'Accept and store' }).click();
+    await page.getByText(`${SAMPLE} accepted and stored at Wine cellar rack 3 (demo).`).first().waitFor();
+
+    await code.fill(SAMPLE);
+    await code.press('Enter');
+    const timeline = page.getByRole('list', { name: 'Chain of custody, oldest first' });
+    await timeline.getByRole('listitem').nth(2).waitFor();
+    const events = await timeline.getByRole('listitem').allInnerTexts();
+    expect(events.map((e) => /Received|Accepted|Stored/.exec(e)?.[0])).toEqual(['Received', 'Accepted', 'Stored']);
+    expect(events.every((e) => e.includes('Ira Intake (demo)'))).toBe(true);
+    expect(events[2]).toContain('Wine cellar rack 3 (demo)');
+    await screenshot(page, 'whole-loop-02c-intake-custody');
+  });
+
+  it('3. the analyst uploads the replicates (a bad file is named with its line), runs the analysis and submits it', async () => {
+    const { page } = await deskOf('lab', ANALYST);
+    await openFromMenu(page, 'Work queue');
+    await page.getByRole('link', { name: SAMPLE }).click();
+    await page.waitForURL(/\/lab\/samples\/[0-9a-f-]{36}$/);
+    handOn.sampleId = new URL(page.url()).pathname.split('/').pop();
+
+    // a select with no options yet does not open, so wait for the bench list as a person waits for the page
+    const bench = page.waitForResponse((r) => r.url().endsWith('/api/lab/bench') && r.ok());
+    await page.getByRole('tab', { name: 'Measurements' }).click();
+    await bench;
+    await page.getByRole('combobox', { name: 'Instrument' }).click();
+    await page.getByRole('option', { name: /Bench analyser 1 \(demo\)/ }).click();
+    await page.getByRole('combobox', { name: 'Cell' }).click();
+    await page.getByRole('option', { name: /Dip cell A \(demo\)/ }).click();
+    await page.getByLabel('Sample temperature').fill('22.5');
+    await page.getByRole('radio', { name: /From the latest KCl calibration/ }).check();
+    const { paths, broken } = exportsFor(SAMPLE);
+    await page.getByLabel('choose files').setInputFiles(paths);
+    await page.getByRole('button', { name: 'Upload 4 files' }).click();
+
+    const refusal = page.getByRole('alert').filter({ hasText: broken });
+    await refusal.waitFor();
+    expect(await refusal.innerText()).toMatch(/line 9/);
+    const files = page.getByRole('list', { name: 'Files to upload' });
+    await files.getByText('Saved as replicate 3.').waitFor();
+    expect(await files.getByText('Saved', { exact: true }).count()).toBe(3);
+
+    const replicates = page.locator('table.replicates tbody tr');
+    await replicates.nth(2).waitFor();
+    expect(await replicates.count()).toBe(3);
+    expect(await replicates.allInnerTexts()).toEqual(paths.filter((p) => !p.endsWith(broken)).map((p) => expect.stringContaining(p.split('/').pop()!)));
+    for (const r of await replicates.allInnerTexts()) expect(r).toMatch(/Pass: [\d.]+ % \(limit/);
+    await page.getByText('Bode plot, replicates overlaid').waitFor();
+    await page.getByText('Nyquist plot, replicates overlaid').waitFor();
+    await replicates.first().getByRole('button', { name: 'Residuals' }).click();
+    await page.getByText('Kramers–Kronig residuals, replicate 1').waitFor();
+    await screenshot(page, 'whole-loop-03a-measurements');
+
+    await page.getByRole('tab', { name: 'Analysis' }).click();
+    await page.getByRole('button', { name: 'Run analysis' }).click();
+    const verdict = page.getByRole('status').filter({ hasText: 'Consistent with the reference library' });
+    await verdict.waitFor();
+    await page.getByText('Sample among the library’s own spread').waitFor();
+    await page.getByText('Map of the sample among the reference lots').waitFor();
+    await page.getByLabel('Analyst\'s remarks (printed on the report)').fill(REMARKS);
+    await screenshot(page, 'whole-loop-03b-analysis');
+    await page.getByRole('button', { name: 'Submit for review' }).click();
+    await page.getByText(`Analysis of ${SAMPLE} submitted for review.`).first().waitFor();
+    await page.getByText(/status submitted/).waitFor();
+    await screenshot(page, 'whole-loop-03c-submitted');
+  });
+
+  it('the analyst may not review their own analysis, even when also given the reviewer role', async () => {
+    const admin = await deskOf('lab', LAB_ADMIN);
+    await openFromMenu(admin.page, 'Staff');
+    await admin.page.getByRole('button', { name: `Actions for ${ANALYST_NAME}` }).click();
+    await admin.page.getByRole('menuitem', { name: 'Change roles' }).click();
+    await admin.page.getByRole('checkbox', { name: /^Reviewer/ }).check();
+    await admin.page.getByRole('button', { name: 'Save roles' }).click();
+    await admin.page.getByRole('row').filter({ hasText: ANALYST_NAME }).filter({ hasText: 'Reviewer' }).waitFor();
+
+    const { page } = await deskOf('lab', ANALYST);
+    await openFromMenu(page, 'Reviews');
+    const mine = page.getByRole('row').filter({ hasText: SAMPLE });
+    expect(await mine.innerText()).toContain('someone else must review');
+    await mine.getByRole('link', { name: SAMPLE }).click();
+    await page.waitForURL(/\/lab\/reviews\/[0-9a-f-]{36}$/);
+    handOn.analysisId = new URL(page.url()).pathname.split('/').pop();
+    await page.getByText('You ran this analysis, so you cannot review it').waitFor();
+    expect(await page.getByRole('button', { name: 'Approve and issue the report' }).isDisabled()).toBe(true);
+    await screenshot(page, 'whole-loop-04a-own-review-refused');
+
+    // the screen only disables the button; the API itself must refuse a direct request
+    const res = await fetch(url(`/api/lab/analyses/${needs('analysisId')}/approve`), {
+      method: 'POST',
+      headers: { authorization: `Bearer ${await accessTokenFor(ANALYST)}`, 'content-type': 'application/json' },
+      body: JSON.stringify({ comments: 'Approving my own work' }),
+    });
+    expect(res.status).toBe(403);
+    expect(((await res.json()) as { title: string }).title).toBe('Four-eyes rule');
+  });
+
+  it('4. the reviewer approves, which issues the signed report with its number', async () => {
+    const { page } = await deskOf('lab', REVIEWER);
+    await openFromMenu(page, 'Reviews');
+    await page.getByRole('row').filter({ hasText: SAMPLE }).getByRole('link', { name: SAMPLE }).click();
+    await page.getByText(REMARKS).waitFor();
+    await page.getByRole('button', { name: 'Approve and issue the report' }).click();
+    const issued = page.getByText(/Report [A-Z]{2,4}-\d{4}-\d{6} issued, signed and sent to the client\./);
+    await issued.waitFor();
+    handOn.reportNumber = /([A-Z]{2,4}-\d{4}-\d{6})/.exec(await issued.innerText())![1];
+    expect(handOn.reportNumber).toMatch(/^CAL-\d{4}-\d{6}$/);
+    await screenshot(page, 'whole-loop-04b-report-issued');
+  });
+
+  it('5. the client admin downloads the report PDF: signature valid, number and caution printed', async () => {
+    const number = needs('reportNumber');
+    const { page } = await deskOf('client', CLIENT_ADMIN);
+    await openFromMenu(page, 'Reports');
+    const row = page.getByRole('row').filter({ hasText: number });
+    expect(await row.innerText()).toContain(SAMPLE);
+    expect(await row.innerText()).toContain('Consistent');
+    await screenshot(page, 'whole-loop-05-client-reports');
+    const [download] = await Promise.all([page.waitForEvent('download'), row.getByRole('button', { name: 'PDF' }).click()]);
+    expect(download.suggestedFilename()).toBe(`${number}.pdf`);
+    const pdf = join(ARTIFACTS, `${number}.pdf`);
+    await download.saveAs(pdf);
+    handOn.pdf = pdf;
+
+    expect(pdfSignatureReport(pdf)).toContain('Signature is Valid.');
+    const text = pdfPlainText(pdf);
+    expect(text).toContain(number);
+    expect(text).toContain(SAMPLE);
+    expect(text).toContain(CAUTION);
+    const code = /Verification code ([2-9A-HJKMNP-TV-Z]{4}-[2-9A-HJKMNP-TV-Z]{4}-[2-9A-HJKMNP-TV-Z]{4})/.exec(text);
+    expect(code).not.toBeNull();
+    handOn.verificationCode = code![1];
+  });
+
+  it('6. a visitor verifies the report by number and code, and by uploading the PDF; an altered copy fails', async () => {
+    const [number, code, pdf] = [needs('reportNumber'), needs('verificationCode'), needs('pdf')];
+    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    desks.push({ context, page: await context.newPage() });
+    const page = desks[desks.length - 1].page;
+    page.setDefaultTimeout(60_000);
+    await page.goto(url('/verify'));
+    await page.getByLabel('Report number').fill(number);
+    await page.getByLabel('Verification code').fill(code);
+    await page.getByRole('button', { name: 'Check' }).click();
+    const outcome = page.getByRole('status').filter({ has: page.getByRole('heading', { name: 'Valid report' }) });
+    await outcome.waitFor();
+    expect(await outcome.innerText()).toContain(SAMPLE);
+    expect(await outcome.innerText()).toContain('Calder Analytical');
+    await screenshot(page, 'whole-loop-06a-verify-by-code');
+
+    await page.getByLabel('choose the file').setInputFiles(pdf);
+    await page.getByText('The uploaded file is byte-identical to the PDF the lab issued').waitFor();
+    await screenshot(page, 'whole-loop-06b-verify-identical-file');
+
+    const altered = join(ARTIFACTS, `${number}-altered.pdf`);
+    copyFileSync(pdf, altered);
+    const bytes = readFileSync(altered);
+    // one byte in the middle of the file, as a careless or deliberate edit would change it
+    const middle = Math.floor(bytes.length / 2);
+    bytes[middle] = bytes[middle] ^ 0x01;
+    writeFileSync(altered, bytes);
+    await page.getByLabel('choose the file').setInputFiles(altered);
+    await page.getByText('The uploaded file differs from every PDF the lab issued').waitFor();
+    expect(await page.getByText('byte-identical').count()).toBe(0);
+    await screenshot(page, 'whole-loop-06c-verify-altered-file');
+  });
+});
