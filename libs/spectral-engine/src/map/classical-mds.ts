@@ -1,4 +1,4 @@
-import { doubleCentredSquares } from './double-centre';
+import { centredProduct, checkedSquares, doubleCentreInPlace } from './double-centre';
 import { allEigenpairs } from './full-eigen';
 import { largestEigenpairs } from './lanczos';
 
@@ -61,7 +61,7 @@ export function classicalMds(distances: readonly (readonly number[])[], dims: nu
   if (!(Number.isInteger(dims) && dims >= 1 && dims <= n - 1)) {
     throw new RangeError(`classical MDS: dims must be a whole number from 1 to n − 1 = ${n - 1}, got ${dims}`);
   }
-  const b = doubleCentredSquares(distances);
+  const squares = checkedSquares(distances);
   const method = options.method === 'full' || options.method === 'iterative' ? options.method : n <= FULL_DECOMPOSITION_LIMIT ? 'full' : 'iterative';
   let eigenvalues: number[];
   let axes: Float64Array[];
@@ -69,7 +69,7 @@ export function classicalMds(distances: readonly (readonly number[])[], dims: nu
   let negativeEigenvalues: MdsResult['negativeEigenvalues'] = null;
   let smallestEigenvalue: number;
   if (method === 'full') {
-    const all = allEigenpairs(b, n);
+    const all = allEigenpairs(doubleCentreInPlace(squares, n), n);
     eigenvalues = all.values;
     axes = all.vectors.slice(0, dims);
     const leading = eigenvalues.slice(0, dims).reduce((s, x) => s + x, 0);
@@ -81,7 +81,7 @@ export function classicalMds(distances: readonly (readonly number[])[], dims: nu
     negativeEigenvalues = { count: negatives.length, sumOfMagnitudes: negatives.reduce((s, x) => s - x, 0) };
     smallestEigenvalue = eigenvalues[n - 1];
   } else {
-    const top = largestEigenpairs(b, n, dims);
+    const top = largestEigenpairs(centredProduct(squares, n), n, dims);
     eigenvalues = top.values;
     axes = top.vectors;
     // B always has the eigenvalue 0 (the centring direction), so the smallest is at most 0.

@@ -3,9 +3,9 @@ const TOLERANCE = 1e-9;
 
 /**
  * Checks a distance matrix (square, finite, non-negative, symmetric, zero diagonal) and returns
- * Torgerson's doubly centred matrix B = −½·J·(D∘D)·J, J = I − 11ᵀ/n, row-major in one array.
+ * its squares A = D∘D, exactly symmetric, row-major in one array.
  */
-export function doubleCentredSquares(distances: readonly (readonly number[])[]): Float64Array {
+export function checkedSquares(distances: readonly (readonly number[])[]): Float64Array {
   const n = distances.length;
   const b = new Float64Array(n * n);
   let largest = 0;
@@ -35,6 +35,53 @@ export function doubleCentredSquares(distances: readonly (readonly number[])[]):
       }
     }
   }
+  return b;
+}
+
+/**
+ * Applies B = −½·J·A·J to x without forming B: B·x = −½·(y − ȳ·1) with y = A·(x − x̄·1), which saves
+ * two passes over the n × n matrix when only matrix–vector products are needed.
+ */
+export function centredProduct(a: Float64Array, n: number): (x: Float64Array, out: Float64Array) => void {
+  const centred = new Float64Array(n);
+  return (x, out) => {
+    let mean = 0;
+    for (let i = 0; i < n; i++) mean += x[i];
+    mean /= n;
+    for (let i = 0; i < n; i++) centred[i] = x[i] - mean;
+    multiply(a, n, centred, out);
+    let outMean = 0;
+    for (let i = 0; i < n; i++) outMean += out[i];
+    outMean /= n;
+    for (let i = 0; i < n; i++) out[i] = -0.5 * (out[i] - outMean);
+  };
+}
+
+/** out = A·x for a row-major n × n matrix. */
+function multiply(a: Float64Array, n: number, x: Float64Array, out: Float64Array): void {
+  for (let i = 0, base = 0; i < n; i++, base += n) {
+    // Four running sums let the CPU overlap the multiply–adds of one row.
+    let s0 = 0;
+    let s1 = 0;
+    let s2 = 0;
+    let s3 = 0;
+    let j = 0;
+    for (; j + 3 < n; j += 4) {
+      s0 += a[base + j] * x[j];
+      s1 += a[base + j + 1] * x[j + 1];
+      s2 += a[base + j + 2] * x[j + 2];
+      s3 += a[base + j + 3] * x[j + 3];
+    }
+    for (; j < n; j++) s0 += a[base + j] * x[j];
+    out[i] = s0 + s1 + (s2 + s3);
+  }
+}
+
+/**
+ * Turns squared distances A (row-major, symmetric) in place into Torgerson's doubly centred
+ * matrix B = −½·J·A·J, J = I − 11ᵀ/n, and returns it.
+ */
+export function doubleCentreInPlace(b: Float64Array, n: number): Float64Array {
   const rowMean = new Float64Array(n);
   let grand = 0;
   for (let i = 0, base = 0; i < n; i++, base += n) {

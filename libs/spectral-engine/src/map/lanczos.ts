@@ -13,25 +13,6 @@ export interface ExtremeEigenpairs {
   readonly steps: number;
 }
 
-function multiply(b: Float64Array, n: number, x: Float64Array, out: Float64Array): void {
-  for (let i = 0, base = 0; i < n; i++, base += n) {
-    // Four running sums let the CPU overlap the multiply–adds of one row.
-    let s0 = 0;
-    let s1 = 0;
-    let s2 = 0;
-    let s3 = 0;
-    let j = 0;
-    for (; j + 3 < n; j += 4) {
-      s0 += b[base + j] * x[j];
-      s1 += b[base + j + 1] * x[j + 1];
-      s2 += b[base + j + 2] * x[j + 2];
-      s3 += b[base + j + 3] * x[j + 3];
-    }
-    for (; j < n; j++) s0 += b[base + j] * x[j];
-    out[i] = s0 + s1 + (s2 + s3);
-  }
-}
-
 function dot(x: Float64Array, y: Float64Array): number {
   let s = 0;
   for (let i = 0; i < x.length; i++) s += x[i] * y[i];
@@ -69,19 +50,22 @@ function ritzPairs(alpha: number[], beta: number[]) {
   return { theta, vectors: ritz.eigenvectorMatrix, order };
 }
 
+/** A symmetric n × n operator given by its product: writes M·x into `out`. */
+export type SymmetricProduct = (x: Float64Array, out: Float64Array) => void;
+
 /**
- * The largest `count` eigenpairs of a symmetric row-major matrix by the Lanczos method with full
+ * The largest `count` eigenpairs of a symmetric operator by the Lanczos method with full
  * reorthogonalisation: each step costs one matrix–vector product, so a 2,000-point map needs a
- * few dozen passes over the matrix instead of a full O(n³) decomposition.
+ * dozen or two passes over the matrix instead of a full O(n³) decomposition.
  */
-export function largestEigenpairs(b: Float64Array, n: number, count: number): ExtremeEigenpairs {
+export function largestEigenpairs(multiply: SymmetricProduct, n: number, count: number): ExtremeEigenpairs {
   const firstCheck = Math.min(n, count + 4);
   const basis: Float64Array[] = [startVector(n)];
   const alpha: number[] = [];
   const beta: number[] = [];
   const w = new Float64Array(n);
   for (let j = 0; ; j++) {
-    multiply(b, n, basis[j], w);
+    multiply(basis[j], w);
     alpha.push(dot(basis[j], w));
     // Two rounds of Gram–Schmidt keep the basis orthogonal to working precision.
     for (let round = 0; round < 2; round++) {
