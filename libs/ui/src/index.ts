@@ -29,3 +29,4 @@ export * from './profile/profile-page';
 export * from './feedback/not-found-page';
 export * from './lists/query-params';
 export * from './charts/public-api';
+export * from './lists/pending-invitations';

@@ -14,6 +14,7 @@ import { quietRequest, queryParams } from '@ohmprint/ui';
 import { map, type Observable } from 'rxjs';
 
 const TeamPageSchema = pageOf(ClientTeamMemberSchema);
+const InvitationPageSchema = pageOf(InvitationSchema);
 
 /** The signed-in user's own organisation's team. */
 @Injectable({ providedIn: 'root' })
@@ -22,6 +23,11 @@ export class TeamData {
 
   list(query: ListQuery): Observable<Page<ClientTeamMember>> {
     return this.http.get('/api/client/team', { params: queryParams(query) }).pipe(map((r) => TeamPageSchema.parse(r)));
+  }
+
+  /** The newest open invitations to this organisation (client admins only). */
+  pendingInvitations(): Observable<Page<Invitation>> {
+    return this.http.get('/api/client/team/invitations', { params: { sort: 'createdAt', dir: 'desc', page: 1, pageSize: 10 } }).pipe(map((r) => InvitationPageSchema.parse(r)));
   }
 
   invite(body: InviteClientMemberRequest): Observable<Invitation> {

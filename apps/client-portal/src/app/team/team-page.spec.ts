@@ -22,6 +22,12 @@ async function open(user: Me) {
   fixture.detectChanges();
   const backend = TestBed.inject(HttpTestingController);
   backend.expectOne((r) => r.url === '/api/client/team').flush({ items: [colleague], total: 1, page: 1, pageSize: 20 });
+  if (user.roles.includes('client-admin')) {
+    backend.expectOne((r) => r.url === '/api/client/team/invitations').flush({ items: [], total: 0, page: 1, pageSize: 10 });
+  } else {
+    // Open invitations are the admins' business; members never ask for them.
+    backend.expectNone((r) => r.url === '/api/client/team/invitations');
+  }
   await fixture.whenStable();
   return { fixture, backend, loader: TestbedHarnessEnvironment.loader(fixture), root: TestbedHarnessEnvironment.documentRootLoader(fixture) };
 }

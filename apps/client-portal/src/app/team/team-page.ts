@@ -1,5 +1,5 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, DestroyRef, computed, inject, viewChild, type AfterViewInit } from '@angular/core';
+import { ChangeDetectionStrategy, Component, DestroyRef, signal, computed, inject, viewChild, type AfterViewInit } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
@@ -8,7 +8,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSort, MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import type { ClientRole, ClientTeamMember, Invitation } from '@ohmprint/contracts';
-import { EmptyState, Notifier, ROLE_LABELS, SearchField, ServerList, Session, confirmAction } from '@ohmprint/ui';
+import { EmptyState, Notifier, PendingInvitations, ROLE_LABELS, SearchField, ServerList, Session, confirmAction } from '@ohmprint/ui';
 import { Subject, filter, switchMap } from 'rxjs';
 import { InviteMemberDialog } from './invite-member-dialog';
 import { TeamData } from './team-data';
@@ -16,7 +16,7 @@ import { TeamData } from './team-data';
 @Component({
   selector: 'ohm-team-page',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [DatePipe, MatTableModule, MatSortModule, MatPaginatorModule, MatProgressBarModule, MatButtonModule, MatIconModule, SearchField, EmptyState],
+  imports: [DatePipe, MatTableModule, MatSortModule, MatPaginatorModule, MatProgressBarModule, MatButtonModule, MatIconModule, SearchField, EmptyState, PendingInvitations],
   templateUrl: './team-page.html',
 })
 export class TeamPage implements AfterViewInit {
@@ -33,6 +33,8 @@ export class TeamPage implements AfterViewInit {
   protected readonly columns = computed(() => ['displayName', 'email', 'role', 'createdAt', ...(this.isAdmin() ? ['actions'] : [])]);
   protected readonly list = new ServerList<ClientTeamMember>();
   protected readonly search = new Subject<string>();
+  protected readonly pending = signal<readonly Invitation[]>([]);
+  protected readonly pendingTotal = signal(0);
 
   ngAfterViewInit(): void {
     this.list.connect({
@@ -41,6 +43,15 @@ export class TeamPage implements AfterViewInit {
       search: this.search,
       fetch: (query) => this.data.list(query),
       destroyRef: this.destroyRef,
+    });
+    this.loadPending();
+  }
+
+  private loadPending(): void {
+    if (!this.isAdmin()) return;
+    this.data.pendingInvitations().subscribe((page) => {
+      this.pending.set(page.items);
+      this.pendingTotal.set(page.total);
     });
   }
 
@@ -60,6 +71,7 @@ export class TeamPage implements AfterViewInit {
       .subscribe((invitation) => {
         this.notifier.success(`Invitation sent to ${invitation.email}.`);
         this.list.reload();
+        this.loadPending();
       });
   }
 

@@ -15,6 +15,7 @@ import { quietRequest, queryParams } from '@ohmprint/ui';
 import { map, type Observable } from 'rxjs';
 
 const StaffPageSchema = pageOf(StaffMemberSchema);
+const InvitationPageSchema = pageOf(InvitationSchema);
 
 /** The lab's staff, as the lab admin manages them. */
 @Injectable({ providedIn: 'root' })
@@ -23,6 +24,11 @@ export class StaffData {
 
   list(query: ListQuery): Observable<Page<StaffMember>> {
     return this.http.get('/api/lab/staff', { params: queryParams(query) }).pipe(map((r) => StaffPageSchema.parse(r)));
+  }
+
+  /** The newest open invitations (not yet accepted or revoked). */
+  pendingInvitations(): Observable<Page<Invitation>> {
+    return this.http.get('/api/lab/staff/invitations', { params: { sort: 'createdAt', dir: 'desc', page: 1, pageSize: 10 } }).pipe(map((r) => InvitationPageSchema.parse(r)));
   }
 
   invite(body: InviteStaffRequest): Observable<Invitation> {

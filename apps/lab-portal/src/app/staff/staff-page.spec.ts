@@ -39,6 +39,19 @@ function expectList(backend: HttpTestingController): TestRequest {
   return backend.expectOne((req) => req.url === '/api/lab/staff');
 }
 
+const openInvitation = {
+  id: '33333333-3333-4333-8333-333333333333',
+  email: 'joining.soon@calder.test',
+  roles: ['intake-technician'],
+  status: 'pending',
+  expiresAt: '2099-01-01T00:00:00.000Z',
+  createdAt: '2026-12-01T09:00:00.000Z',
+};
+
+function flushPending(backend: HttpTestingController, items: unknown[] = []): void {
+  backend.expectOne((req) => req.url === '/api/lab/staff/invitations').flush({ items, total: items.length, page: 1, pageSize: 10 });
+}
+
 describe('StaffPage', () => {
   afterEach(() => TestBed.inject(HttpTestingController).verify());
 
@@ -47,6 +60,7 @@ describe('StaffPage', () => {
     const req = expectList(backend);
     expect(req.request.params.toString()).toBe('sort=displayName&dir=asc&page=1&pageSize=20');
     req.flush(page([member(1, { roles: ['analyst', 'reviewer'] }), member(2, { status: 'deactivated' })]));
+    flushPending(backend);
     await fixture.whenStable();
     const table = await loader.getHarness(MatTableHarness);
     const rows = await table.getCellTextByColumnName();
@@ -61,6 +75,7 @@ describe('StaffPage', () => {
   it('fetches again from the server when a column is sorted, back on the first page', async () => {
     const { fixture, backend, loader } = await open();
     expectList(backend).flush(page([member(1)], 45));
+    flushPending(backend);
     await fixture.whenStable();
     const emailHeader = await loader.getHarness(MatSortHeaderHarness.with({ label: 'E-mail' }));
     await emailHeader.click();
@@ -74,6 +89,7 @@ describe('StaffPage', () => {
   it('says what to do next when the lab has no staff to list', async () => {
     const { fixture, backend } = await open();
     expectList(backend).flush(page([]));
+    flushPending(backend);
     await fixture.whenStable();
     const text = (fixture.nativeElement as HTMLElement).textContent ?? '';
     expect(text).toContain('No staff yet');
@@ -83,7 +99,19 @@ describe('StaffPage', () => {
   it('says the list could not be loaded when the API fails', async () => {
     const { fixture, backend } = await open();
     expectList(backend).flush({ type: 'about:blank', title: 'Server error', status: 500 }, { status: 500, statusText: 'Server Error' });
+    flushPending(backend);
     await fixture.whenStable();
     expect((fixture.nativeElement as HTMLElement).textContent).toContain('The staff list could not be loaded');
+  });
+
+  it('shows people invited but not joined yet, apart from the staff list', async () => {
+    const { fixture, backend } = await open();
+    expectList(backend).flush(page([member(1)]));
+    flushPending(backend, [openInvitation]);
+    await fixture.whenStable();
+    const section = (fixture.nativeElement as HTMLElement).querySelector('ohm-pending-invitations');
+    expect(section?.textContent).toContain('Waiting to join (1)');
+    expect(section?.textContent).toContain('joining.soon@calder.test');
+    expect(section?.textContent).toContain('Intake technician');
   });
 });

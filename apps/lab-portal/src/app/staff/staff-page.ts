@@ -1,5 +1,5 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, DestroyRef, inject, viewChild, type AfterViewInit } from '@angular/core';
+import { ChangeDetectionStrategy, Component, DestroyRef, signal, inject, viewChild, type AfterViewInit } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatChipsModule } from '@angular/material/chips';
 import { MatDialog } from '@angular/material/dialog';
@@ -10,7 +10,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSort, MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import type { Invitation, LabRole, StaffMember } from '@ohmprint/contracts';
-import { EmptyState, Notifier, ROLE_LABELS, SearchField, ServerList, Session, confirmAction } from '@ohmprint/ui';
+import { EmptyState, Notifier, PendingInvitations, ROLE_LABELS, SearchField, ServerList, Session, confirmAction } from '@ohmprint/ui';
 import { Subject, filter, switchMap } from 'rxjs';
 import { ChangeRolesDialog } from './change-roles-dialog';
 import { InviteStaffDialog } from './invite-staff-dialog';
@@ -31,6 +31,7 @@ import { StaffData } from './staff-data';
     MatChipsModule,
     SearchField,
     EmptyState,
+    PendingInvitations,
   ],
   templateUrl: './staff-page.html',
 })
@@ -46,6 +47,8 @@ export class StaffPage implements AfterViewInit {
   protected readonly columns = ['displayName', 'email', 'roles', 'status', 'createdAt', 'actions'];
   protected readonly list = new ServerList<StaffMember>();
   protected readonly search = new Subject<string>();
+  protected readonly pending = signal<readonly Invitation[]>([]);
+  protected readonly pendingTotal = signal(0);
 
   ngAfterViewInit(): void {
     this.list.connect({
@@ -54,6 +57,14 @@ export class StaffPage implements AfterViewInit {
       search: this.search,
       fetch: (query) => this.data.list(query),
       destroyRef: this.destroyRef,
+    });
+    this.loadPending();
+  }
+
+  private loadPending(): void {
+    this.data.pendingInvitations().subscribe((page) => {
+      this.pending.set(page.items);
+      this.pendingTotal.set(page.total);
     });
   }
 
@@ -73,6 +84,7 @@ export class StaffPage implements AfterViewInit {
       .subscribe((invitation) => {
         this.notifier.success(`Invitation sent to ${invitation.email}.`);
         this.list.reload();
+        this.loadPending();
       });
   }
 
