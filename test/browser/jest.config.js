@@ -3,5 +3,4 @@ module.exports = require('../../jest.base.js')('browser', 'test/browser', {
   globalSetup: '<rootDir>/support/global-setup.ts',
   globalTeardown: '<rootDir>/support/global-teardown.ts',
   testTimeout: 120000,
-  maxWorkers: 1,
 });
