@@ -6,7 +6,7 @@ import { join } from 'node:path';
 import { Client } from 'pg';
 
 export const ROOT = join(__dirname, '..', '..', '..');
-export const BROWSER_PORT = 4310;
+export const BROWSER_PORT = Number(process.env.OHMPRINT_BROWSER_PORT ?? 4310);
 export const BASE_URL = `http://127.0.0.1:${BROWSER_PORT}`;
 export const ARTIFACTS = join(ROOT, 'test', 'artifacts', 'browser');
 const DATABASE = 'ohmprint_browser';
