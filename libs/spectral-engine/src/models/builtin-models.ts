@@ -69,12 +69,46 @@ function arcGuess(s: Spectrum): { high: number; low: number; tau: number; alpha:
   };
 }
 
+/**
+ * CPE value and derivatives into columns from `offset`: Z = ω⁻ⁿe^{−jnπ/2}/Q,
+ * ∂Z/∂Q = −Z/Q, ∂Z/∂n = −Z·(ln ω + jπ/2).
+ */
+function cpeDerivatives(
+  q: number,
+  n: number,
+  omega: Float64Array,
+  re: Float64Array,
+  im: Float64Array,
+  dRe: Float64Array,
+  dIm: Float64Array,
+  offset: number,
+): void {
+  const count = omega.length;
+  const c = Math.cos((n * Math.PI) / 2);
+  const sn = Math.sin((n * Math.PI) / 2);
+  for (let i = 0; i < count; i++) {
+    const logW = Math.log(omega[i]);
+    const m = Math.exp(-n * logW) / q;
+    const zr = m * c;
+    const zi = -m * sn;
+    re[i] = zr;
+    im[i] = zi;
+    dRe[offset + i] = -zr / q;
+    dIm[offset + i] = -zi / q;
+    dRe[offset + count + i] = -(zr * logW - zi * (Math.PI / 2));
+    dIm[offset + count + i] = -(zr * (Math.PI / 2) + zi * logW);
+  }
+}
+
 const cpeModel: ImpedanceModel = {
   name: 'cpe',
   label: 'Constant phase element',
   formula: 'Z = 1 / (Q·(jω)ⁿ)',
   parameters: [positive('q', Q_UNIT, 'CPE magnitude Q'), exponent('n', 'CPE exponent n (1 = ideal capacitor)')],
   evaluate: pointwise((p, w) => cpe(p[0], p[1], w)),
+  derivatives(p, omega, re, im, dRe, dIm) {
+    cpeDerivatives(p[0], p[1], omega, re, im, dRe, dIm, 0);
+  },
   initialGuess(s) {
     const { q, n } = cpeFromImaginary(s, shapeFeatures(s).omega);
     return Float64Array.of(q, n);
@@ -94,6 +128,15 @@ const rCpeModel: ImpedanceModel = {
     const z = cpe(p[1], p[2], w);
     return { re: p[0] + z.re, im: z.im };
   }),
+  derivatives(p, omega, re, im, dRe, dIm) {
+    const n = omega.length;
+    cpeDerivatives(p[1], p[2], omega, re, im, dRe, dIm, n);
+    for (let i = 0; i < n; i++) {
+      re[i] += p[0];
+      dRe[i] = 1;
+      dIm[i] = 0;
+    }
+  },
   initialGuess(s) {
     const omega = shapeFeatures(s).omega;
     const { q, n } = cpeFromImaginary(s, omega);
@@ -117,6 +160,38 @@ const rZarcModel: ImpedanceModel = {
     const z = zarc(p[1], p[2], p[3], w);
     return { re: p[0] + z.re, im: z.im };
   }),
+  derivatives(p, omega, re, im, dRe, dIm) {
+    // With E = (jω)ⁿ and D = 1 + RQE: ∂Z/∂R = 1/D², ∂Z/∂Q = −R²E/D², ∂Z/∂n = −R(D − 1)(ln ω + jπ/2)/D².
+    const count = omega.length;
+    const [rs, r, q, n] = [p[0], p[1], p[2], p[3]];
+    const c = Math.cos((n * Math.PI) / 2);
+    const sn = Math.sin((n * Math.PI) / 2);
+    for (let i = 0; i < count; i++) {
+      const logW = Math.log(omega[i]);
+      const m = Math.exp(n * logW);
+      const er = m * c;
+      const ei = m * sn;
+      const dr = 1 + r * q * er;
+      const di = r * q * ei;
+      const mod2 = dr * dr + di * di;
+      const ir = dr / mod2;
+      const ii = -di / mod2;
+      const i2r = ir * ir - ii * ii;
+      const i2i = 2 * ir * ii;
+      re[i] = rs + r * ir;
+      im[i] = r * ii;
+      dRe[i] = 1;
+      dIm[i] = 0;
+      dRe[count + i] = i2r;
+      dIm[count + i] = i2i;
+      dRe[2 * count + i] = -r * r * (er * i2r - ei * i2i);
+      dIm[2 * count + i] = -r * r * (er * i2i + ei * i2r);
+      const xr = (dr - 1) * i2r - di * i2i;
+      const xi = (dr - 1) * i2i + di * i2r;
+      dRe[3 * count + i] = -r * (xr * logW - xi * (Math.PI / 2));
+      dIm[3 * count + i] = -r * (xr * (Math.PI / 2) + xi * logW);
+    }
+  },
   initialGuess(s) {
     const g = arcGuess(s);
     const r = Math.max(g.low - g.high, 1e-9);

@@ -87,7 +87,12 @@ describe('analytic derivatives', () => {
   it('agree with central differences wherever a built-in model provides them', () => {
     const omega = Float64Array.from({ length: 30 }, (_, i) => 2 * Math.PI * 10 ** (-1 + (6 * i) / 29));
     const n = omega.length;
-    const points: Record<string, number[]> = { 'cole-cole': [80, 1200, 3e-4, 0.72] };
+    const points: Record<string, number[]> = {
+      'cole-cole': [80, 1200, 3e-4, 0.72],
+      cpe: [2e-6, 0.83],
+      'r-cpe': [40, 5e-6, 0.9],
+      'r-zarc': [15, 300, 2e-5, 0.85],
+    };
     for (const [name, values] of Object.entries(points)) {
       const model = BUILTIN_MODELS.get(name)!;
       const p = Float64Array.from(values);
