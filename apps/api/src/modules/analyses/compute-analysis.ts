@@ -1,4 +1,4 @@
-import { averageReplicates, fitModel, judge, MODEL_CATALOG, replicateAgreement, sampleMap, type Spectrum } from '@ohmprint/spectral-engine';
+import { averageReplicates, fitModel, judge, MODEL_CATALOG, replicateAgreement, sampleMap, type FitSuccess, type Spectrum } from '@ohmprint/spectral-engine';
 import type { AnalysisResult, FittedParameter, QualityFlag, SpectrumPoints } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
 import type { PublishedLibrary } from '../libraries/published-library';
@@ -26,8 +26,7 @@ export interface ComputedAnalysis {
 
 const points = (s: Spectrum): SpectrumPoints => ({ frequencyHz: Array.from(s.frequencyHz), re: Array.from(s.re), im: Array.from(s.im) });
 
-function fittedParameters(model: string, fit: ReturnType<typeof fitModel>): FittedParameter[] {
-  if (!fit.converged) return [];
+function fittedParameters(model: string, fit: FitSuccess): FittedParameter[] {
   const units = new Map(MODEL_CATALOG.find((m) => m.name === model)?.parameters.map((p) => [p.name, p.unit]) ?? []);
   return fit.parameterNames.map((name) => ({
     name,
@@ -97,9 +96,8 @@ export function computeAnalysis(replicates: readonly Replicate[], library: Publi
       distances: judgement.distances.map((_, i) => lotDistance(i)),
       map,
       histogram: distanceHistogram(library.calibration.nearestDistances, nearest?.distance ?? null),
-      fit: fit.converged
-        ? { model: method.model, parameters: fittedParameters(method.model, fit), chiSquare: fit.chiSquare, converged: true }
-        : { model: method.model, parameters: [], chiSquare: 0, converged: false },
+      // A fit that did not converge offers no numbers at all; the quality flag says why.
+      fit: fit.converged ? { model: method.model, parameters: fittedParameters(method.model, fit), chiSquare: fit.chiSquare, converged: true } : null,
       qualityFlags: flags,
       replicateIds: usable.map((p) => p.id),
     },

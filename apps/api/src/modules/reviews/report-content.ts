@@ -1,28 +1,8 @@
 import type { EntityManager } from 'typeorm';
-import type { Spectrum } from '@ohmprint/spectral-engine';
-import type { ReportContent, ReportPlots } from '../reports/pdf/report-data';
+import type { ReportContent } from '../reports/pdf/report-data';
 import type { Analysis } from '../analyses/analysis.entity';
 import { publishedLibrary } from '../libraries/published-library';
-
-/** Spread of the reference lots on the grid: |Z| and phase (degrees) at each frequency. */
-function referenceEnvelope(spectra: readonly Spectrum[], grid: Float64Array): NonNullable<ReportPlots['referenceEnvelope']> {
-  const n = grid.length;
-  const modulusMin = new Array<number>(n).fill(Infinity);
-  const modulusMax = new Array<number>(n).fill(-Infinity);
-  const phaseMinDeg = new Array<number>(n).fill(Infinity);
-  const phaseMaxDeg = new Array<number>(n).fill(-Infinity);
-  for (const s of spectra) {
-    for (let i = 0; i < n; i++) {
-      const m = Math.hypot(s.re[i], s.im[i]);
-      const p = (Math.atan2(s.im[i], s.re[i]) * 180) / Math.PI;
-      modulusMin[i] = Math.min(modulusMin[i], m);
-      modulusMax[i] = Math.max(modulusMax[i], m);
-      phaseMinDeg[i] = Math.min(phaseMinDeg[i], p);
-      phaseMaxDeg[i] = Math.max(phaseMaxDeg[i], p);
-    }
-  }
-  return { frequencyHz: Array.from(grid), modulusMin, modulusMax, phaseMinDeg, phaseMaxDeg };
-}
+import { referenceEnvelope } from './reference-envelope';
 
 interface ContextRow {
   code: string;
