@@ -1,5 +1,5 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, output, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, output, signal, untracked } from '@angular/core';
 import { FormControl, FormsModule, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -47,9 +47,16 @@ export class AnalysisPanel {
   protected readonly published = computed(() => (this.library()?.versions ?? []).filter((v) => v.status === 'published').sort((a, b) => b.version - a.version));
   protected readonly editable = computed(() => this.canEdit() && ['draft', 'returned'].includes(this.current()?.status ?? ''));
 
+  /**
+   * Keyed on the id: the sample page reloads the sample after every run and submission, and
+   * reopening the newest analysis then would overwrite remarks the analyst is already typing.
+   */
+  private readonly sampleId = computed(() => this.sample().id);
+
   constructor() {
     effect(() => {
-      const s = this.sample();
+      this.sampleId();
+      const s = untracked(this.sample);
       this.data.libraryFor(s.product.id, s.product.name).subscribe((lib) => {
         this.library.set(lib);
         this.libraryLoaded.set(true);
