@@ -5,6 +5,7 @@ import type { AuthContext } from '../auth/auth-context';
 import { recordAudit } from '../audit/record-audit';
 import { appendCustody } from '../custody/append-custody';
 import { enqueueEmail } from '../mail/enqueue-email';
+import { refreshOrderStatus } from '../orders/order-progress';
 import { findLabSample, moveSample, requireSampleState } from '../samples/sample-access';
 import { samplePhotos } from '../samples/sample-views';
 import { imageKind } from './image-kind';
@@ -23,6 +24,7 @@ export async function recordArrival(manager: EntityManager, auth: AuthContext, l
   requireSampleState(sample, ['awaiting-arrival'], 'recording its arrival');
   await manager.insert(SampleIntake, { ...arrival, arrivedAt, sampleId, labId, recordedByUserId: auth.userId, recordedAt: new Date() });
   await moveSample(manager, sample, 'received', { receivedAt: arrivedAt });
+  await refreshOrderStatus(manager, labId, sample.orderId);
   await appendCustody(manager, {
     labId,
     sampleId,
@@ -87,6 +89,7 @@ export async function rejectSample(manager: EntityManager, auth: AuthContext, la
   const sample = await findLabSample(manager, labId, sampleId, true);
   requireSampleState(sample, ['received'], 'rejecting it');
   await moveSample(manager, sample, 'rejected', { rejectionReason: body.reason });
+  await refreshOrderStatus(manager, labId, sample.orderId);
   await appendCustody(manager, { labId, sampleId, kind: 'rejected', location: INTAKE_BENCH, reason: body.reason, actorUserId: auth.userId });
   const admins: { email: string; display_name: string; client_name: string; product_name: string; lab_name: string }[] = await manager.query(
     `SELECT u.email, u.display_name, co.name AS client_name, p.name AS product_name, l.name AS lab_name

@@ -37,6 +37,8 @@ describe('intake', () => {
     const arrived = await request(t.app).post(`/api/lab/samples/${id}/arrival`).set(intake).send(arrival);
     expect(arrived.status).toBe(200);
     expect(arrived.body).toMatchObject({ state: 'received', intake: { carrier: 'Invented Courier Co.', sealIntact: true, volumeMl: 750 } });
+    const [order] = await t.db.query('SELECT o.status FROM test_order o JOIN sample s ON s.order_id = o.id WHERE s.id = $1', [id]);
+    expect(order.status).toBe('in-progress');
 
     const photos = await request(t.app).post(`/api/lab/samples/${id}/photos`).set(intake).attach('photos', PNG, 'parcel.png');
     expect(photos.status).toBe(201);

@@ -5,6 +5,7 @@ import type { AuthContext } from '../auth/auth-context';
 import { Analysis } from '../analyses/analysis.entity';
 import { recordAudit } from '../audit/record-audit';
 import { enqueueEmail } from '../mail/enqueue-email';
+import { refreshOrderStatus } from '../orders/order-progress';
 import { issueReport } from '../reports/issue-report';
 import { findLabSample, moveSample } from '../samples/sample-access';
 import { AnalysisReview } from './analysis-review.entity';
@@ -32,6 +33,7 @@ export async function approveAnalysis(manager: EntityManager, auth: AuthContext,
   const review = await manager.insert(AnalysisReview, { labId, analysisId, reviewerUserId: auth.userId, decision: 'approved', comments, reportId: null, decidedAt });
   await manager.update(Analysis, { id: analysisId, labId }, { status: 'approved' });
   await moveSample(manager, sample, 'reported');
+  await refreshOrderStatus(manager, labId, sample.orderId);
   const { content, clientOrganisationId } = await reportContentFor(manager, analysis, auth.displayName);
   const report = await issueReport(manager, { labId, analysisId, sampleId: sample.id, clientOrganisationId, actorUserId: auth.userId, content, issuedAt: decidedAt });
   await manager.update(AnalysisReview, { id: review.identifiers[0].id as string, labId }, { reportId: report.id });
