@@ -4,10 +4,10 @@
 import { copyFileSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Browser } from 'playwright-core';
-import { launchBrowser, screenshot, url } from './support/browser';
+import { launchBrowser, url } from './support/browser';
 import { pdfPlainText, pdfSignatureReport } from './support/report-pdf-checks';
 import { exportsFor } from './support/replicate-exports';
-import { accessTokenFor, openFromMenu, signInAt, type Desk } from './support/desk';
+import { accessTokenFor, openFromMenu, screenshotWhole, signInAt, type Desk } from './support/desk';
 import { ARTIFACTS } from './support/stack';
 
 /** A seeded Ridgeline Red (demo) sample of Hollin Ridge Cellars, still awaiting arrival. */
@@ -62,7 +62,7 @@ describe('one suspect sample, from order to verified report', () => {
     await row.waitFor();
     expect(await row.innerText()).toContain('Ridgeline Red (demo)');
     expect(await row.innerText()).toContain('Awaiting arrival');
-    await screenshot(page, 'whole-loop-01-client-orders');
+    await screenshotWhole(page, 'whole-loop-01-client-orders');
   });
 
   it('2. the intake technician receives, accepts and stores the sample; custody shows each event', async () => {
@@ -80,11 +80,11 @@ describe('one suspect sample, from order to verified report', () => {
     await page.getByLabel('Volume').fill('750');
     expect(await page.getByRole('checkbox', { name: 'Seal intact' }).isChecked()).toBe(true);
     await page.getByLabel('Notes').fill('Invented demo parcel, bottle upright, capsule unbroken.');
-    await screenshot(page, 'whole-loop-02a-intake-arrival-form');
+    await screenshotWhole(page, 'whole-loop-02a-intake-arrival-form');
     await page.getByRole('button', { name: 'Record arrival' }).click();
 
     await page.getByLabel('Storage location').fill('Wine cellar rack 3 (demo)');
-    await screenshot(page, 'whole-loop-02b-intake-accept');
+    await screenshotWhole(page, 'whole-loop-02b-intake-accept');
     await page.getByRole('button', { name: 'Accept and store' }).click();
     await page.getByText(`${SAMPLE} accepted and stored at Wine cellar rack 3 (demo).`).first().waitFor();
 
@@ -96,7 +96,7 @@ describe('one suspect sample, from order to verified report', () => {
     expect(events.map((e) => /Received|Accepted|Stored/.exec(e)?.[0])).toEqual(['Received', 'Accepted', 'Stored']);
     expect(events.every((e) => e.includes('Ira Intake (demo)'))).toBe(true);
     expect(events[2]).toContain('Wine cellar rack 3 (demo)');
-    await screenshot(page, 'whole-loop-02c-intake-custody');
+    await screenshotWhole(page, 'whole-loop-02c-intake-custody');
   });
 
   it('3. the analyst uploads the replicates (a bad file is named with its line), runs the analysis and submits it', async () => {
@@ -136,7 +136,7 @@ describe('one suspect sample, from order to verified report', () => {
     await page.getByText('Nyquist plot, replicates overlaid').waitFor();
     await replicates.first().getByRole('button', { name: 'Residuals' }).click();
     await page.getByText('Kramers–Kronig residuals, replicate 1').waitFor();
-    await screenshot(page, 'whole-loop-03a-measurements');
+    await screenshotWhole(page, 'whole-loop-03a-measurements');
 
     await page.getByRole('tab', { name: 'Analysis' }).click();
     await page.getByRole('button', { name: 'Run analysis' }).click();
@@ -145,11 +145,11 @@ describe('one suspect sample, from order to verified report', () => {
     await page.getByText('Sample among the library’s own spread').waitFor();
     await page.getByText('Map of the sample among the reference lots').waitFor();
     await page.getByLabel('Analyst\'s remarks (printed on the report)').fill(REMARKS);
-    await screenshot(page, 'whole-loop-03b-analysis');
+    await screenshotWhole(page, 'whole-loop-03b-analysis');
     await page.getByRole('button', { name: 'Submit for review' }).click();
     await page.getByText(`Analysis of ${SAMPLE} submitted for review.`).first().waitFor();
     await page.getByText(/status submitted/).waitFor();
-    await screenshot(page, 'whole-loop-03c-submitted');
+    await screenshotWhole(page, 'whole-loop-03c-submitted');
   });
 
   it('the analyst may not review their own analysis, even when also given the reviewer role', async () => {
@@ -170,7 +170,7 @@ describe('one suspect sample, from order to verified report', () => {
     handOn.analysisId = new URL(page.url()).pathname.split('/').pop();
     await page.getByText('You ran this analysis, so you cannot review it').waitFor();
     expect(await page.getByRole('button', { name: 'Approve and issue the report' }).isDisabled()).toBe(true);
-    await screenshot(page, 'whole-loop-04a-own-review-refused');
+    await screenshotWhole(page, 'whole-loop-04a-own-review-refused');
 
     // the screen only disables the button; the API itself must refuse a direct request
     const res = await fetch(url(`/api/lab/analyses/${needs('analysisId')}/approve`), {
@@ -192,7 +192,7 @@ describe('one suspect sample, from order to verified report', () => {
     await issued.waitFor();
     handOn.reportNumber = /([A-Z]{2,4}-\d{4}-\d{6})/.exec(await issued.innerText())![1];
     expect(handOn.reportNumber).toMatch(/^CAL-\d{4}-\d{6}$/);
-    await screenshot(page, 'whole-loop-04b-report-issued');
+    await screenshotWhole(page, 'whole-loop-04b-report-issued');
   });
 
   it('5. the client admin downloads the report PDF: signature valid, number and caution printed', async () => {
@@ -202,7 +202,7 @@ describe('one suspect sample, from order to verified report', () => {
     const row = page.getByRole('row').filter({ hasText: number });
     expect(await row.innerText()).toContain(SAMPLE);
     expect(await row.innerText()).toContain('Consistent');
-    await screenshot(page, 'whole-loop-05-client-reports');
+    await screenshotWhole(page, 'whole-loop-05-client-reports');
     const [download] = await Promise.all([page.waitForEvent('download'), row.getByRole('button', { name: 'PDF' }).click()]);
     expect(download.suggestedFilename()).toBe(`${number}.pdf`);
     const pdf = join(ARTIFACTS, `${number}.pdf`);
@@ -233,11 +233,11 @@ describe('one suspect sample, from order to verified report', () => {
     await outcome.waitFor();
     expect(await outcome.innerText()).toContain(SAMPLE);
     expect(await outcome.innerText()).toContain('Calder Analytical');
-    await screenshot(page, 'whole-loop-06a-verify-by-code');
+    await screenshotWhole(page, 'whole-loop-06a-verify-by-code');
 
     await page.getByLabel('choose the file').setInputFiles(pdf);
     await page.getByText('The uploaded file is byte-identical to the PDF the lab issued').waitFor();
-    await screenshot(page, 'whole-loop-06b-verify-identical-file');
+    await screenshotWhole(page, 'whole-loop-06b-verify-identical-file');
 
     const altered = join(ARTIFACTS, `${number}-altered.pdf`);
     copyFileSync(pdf, altered);
@@ -249,6 +249,6 @@ describe('one suspect sample, from order to verified report', () => {
     await page.getByLabel('choose the file').setInputFiles(altered);
     await page.getByText('The uploaded file differs from every PDF the lab issued').waitFor();
     expect(await page.getByText('byte-identical').count()).toBe(0);
-    await screenshot(page, 'whole-loop-06c-verify-altered-file');
+    await screenshotWhole(page, 'whole-loop-06c-verify-altered-file');
   });
 });

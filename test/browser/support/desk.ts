@@ -1,6 +1,6 @@
 // A person signs into their portal in a fresh browser context of their own, as they would at their desk.
 import type { Browser, BrowserContext, Page } from 'playwright-core';
-import { DEMO_PASSWORD, url } from './browser';
+import { DEMO_PASSWORD, screenshot, url } from './browser';
 
 export interface Desk {
   context: BrowserContext;
@@ -36,4 +36,16 @@ export async function accessTokenFor(email: string): Promise<string> {
 /** Opens a screen from the side navigation (home screens repeat some entries as shortcuts). */
 export async function openFromMenu(page: Page, label: string): Promise<void> {
   await page.getByRole('navigation', { name: 'Main navigation' }).getByRole('link', { name: label, exact: true }).click();
+}
+
+/**
+ * The portals scroll inside the shell, not the document, so a full-page capture stops at the
+ * window: grow the window to the tallest scrolling area for the picture, then put it back.
+ */
+export async function screenshotWhole(page: Page, name: string): Promise<void> {
+  const size = page.viewportSize() ?? { width: 1280, height: 900 };
+  const tallest = await page.evaluate(() => Math.max(...Array.from(document.querySelectorAll('*'), (e) => (e.scrollHeight > e.clientHeight + 1 ? e.scrollHeight : 0)), document.documentElement.scrollHeight));
+  await page.setViewportSize({ width: size.width, height: Math.min(6000, Math.max(size.height, tallest + 80)) });
+  await screenshot(page, name);
+  await page.setViewportSize(size);
 }
