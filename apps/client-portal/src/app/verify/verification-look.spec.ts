@@ -1,5 +1,5 @@
 import type { VerificationResult } from '@ohmprint/contracts';
-import { fileVerdict } from './verification-look';
+import { fileVerdict, outcomeLook } from './verification-look';
 
 const base: VerificationResult = {
   outcome: 'valid',
@@ -24,5 +24,24 @@ describe('fileVerdict', () => {
     const r = { ...base, outcome: 'no-match' as const, file: { sha256: 'b'.repeat(64), identical: false, claimedNumber: 'CAL-2026-000123' } };
     expect(fileVerdict(r)).toContain('differs from every PDF the lab issued');
     expect(fileVerdict(r)).toContain('it claims to be CAL-2026-000123');
+  });
+});
+
+describe('outcomeLook', () => {
+  const altered = { sha256: 'c'.repeat(64), identical: false, claimedNumber: 'CAL-2026-000123' };
+
+  it('reads a report in force as valid when no file was uploaded or the file is identical', () => {
+    expect(outcomeLook(base).heading).toBe('Valid report');
+    expect(outcomeLook({ ...base, file: { ...altered, identical: true } }).tone).toBe('good');
+  });
+
+  it('never reads an altered copy as valid, even with the right number and code', () => {
+    const look = outcomeLook({ ...base, file: altered });
+    expect(look.tone).toBe('bad');
+    expect(look.heading).toBe('This copy is not the PDF the lab issued');
+  });
+
+  it('keeps the revoked heading for a revoked report, even for an altered copy', () => {
+    expect(outcomeLook({ ...base, outcome: 'revoked', file: altered }).heading).toBe('Revoked by the issuing lab');
   });
 });

@@ -11,6 +11,18 @@ export const OUTCOME_LOOK: Readonly<Record<Outcome, { readonly icon: string; rea
   'no-match': { icon: 'gpp_bad', heading: 'This file is not an issued report', tone: 'bad' },
 };
 
+type Look = (typeof OUTCOME_LOOK)[Outcome];
+
+/**
+ * A file that differs from the issued PDF must never read as "valid", even when the number and
+ * code it was checked with are those of a report in force.
+ */
+const ALTERED_COPY: Look = { icon: 'gpp_bad', heading: 'This copy is not the PDF the lab issued', tone: 'bad' };
+
+export function outcomeLook(result: VerificationResult): Look {
+  return result.outcome === 'valid' && result.file && !result.file.identical ? ALTERED_COPY : OUTCOME_LOOK[result.outcome];
+}
+
 /** What the byte comparison says, when a file was uploaded. */
 export function fileVerdict(result: VerificationResult): string | null {
   if (!result.file) return null;

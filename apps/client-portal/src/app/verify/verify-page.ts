@@ -10,7 +10,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { ActivatedRoute } from '@angular/router';
 import { ReportNumberSchema, VerificationCodeSchema, type VerificationResult } from '@ohmprint/contracts';
 import { ApiProblem, ScreeningCaution, VERDICT_LOOK } from '@ohmprint/ui';
-import { OUTCOME_LOOK, fileVerdict } from './verification-look';
+import { fileVerdict, outcomeLook } from './verification-look';
 import { VerifyData } from './verify-data';
 
 /** Anyone holding a report checks it here: from the QR link, by typing number and code, or with the PDF. */
@@ -33,7 +33,7 @@ export class VerifyPage implements OnInit {
   protected readonly problem = signal<string | null>(null);
   protected readonly dragging = signal(false);
   protected readonly fileName = signal<string | null>(null);
-  protected readonly look = computed(() => (this.result() ? OUTCOME_LOOK[this.result()!.outcome] : null));
+  protected readonly look = computed(() => (this.result() ? outcomeLook(this.result()!) : null));
   protected readonly fileText = computed(() => (this.result() ? fileVerdict(this.result()!) : null));
   protected readonly verdictLook = VERDICT_LOOK;
 
