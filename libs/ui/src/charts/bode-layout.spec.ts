@@ -3,7 +3,9 @@ import type { SpectrumSeries } from './chart-types';
 import { referenceEnvelope } from './reference-envelope';
 import { pathPoints } from './test-path';
 
-const sample: SpectrumSeries = { label: 'Replicate 1', frequencyHz: [10, 100, 1000], re: [100, 80, 60], im: [-50, -60, -40] };
+const re = [100, 80, 60];
+const im = [-50, -60, -40];
+const sample: SpectrumSeries = { label: 'Replicate 1', frequencyHz: [10, 100, 1000], re, im };
 
 describe('bodeLayout', () => {
   // 640 × 480: plot x from 68 to 624, the |Z| panel from y 12 to 212.
@@ -38,7 +40,7 @@ describe('bodeLayout', () => {
   });
 
   it('shades the reference band behind the series in both panels', () => {
-    const lots = [0.95, 1, 1.05].map((k, i) => ({ ...sample, label: `Lot ${i}`, re: sample.re.map((v) => v * k), im: sample.im.map((v) => v * k) }));
+    const lots = [0.95, 1, 1.05].map((k, i) => ({ ...sample, label: `Lot ${i}`, re: re.map((v) => v * k), im: im.map((v) => v * k) }));
     const band = referenceEnvelope(lots, { kind: 'range' }, 'range');
     const withBand = bodeLayout([sample], band, 640, 480);
     expect(pathPoints(withBand.magnitude.band)).toHaveLength(6);

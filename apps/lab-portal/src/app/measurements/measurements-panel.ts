@@ -1,5 +1,5 @@
 import { DecimalPipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, output, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
@@ -26,6 +26,8 @@ export class MeasurementsPanel {
   readonly sampleId = input.required<string>();
   /** Analysts may upload and exclude; others look. */
   readonly canEdit = input(false);
+  /** Uploads and exclusions move the sample's state; the page refreshes its header. */
+  readonly changed = output<void>();
 
   protected readonly hz = formatHz;
   protected readonly measurements = signal<SampleMeasurements | null>(null);
@@ -76,7 +78,10 @@ export class MeasurementsPanel {
       .open<ExcludeDialog, ExcludeRequest, SampleMeasurements>(ExcludeDialog, { data: { sampleId: this.sampleId(), replicate: r } })
       .afterClosed()
       .subscribe((updated) => {
-        if (updated) this.measurements.set(updated);
+        if (updated) {
+          this.measurements.set(updated);
+          this.changed.emit();
+        }
       });
   }
 }
