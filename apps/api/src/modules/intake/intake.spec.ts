@@ -2,6 +2,9 @@ import request from 'supertest';
 import { seedLabDemo } from '../../../../../docker-free-scripts/seed/lab-demo';
 import { useTestApp } from '../../testing';
 
+// Seeding the demo libraries in beforeAll takes seconds on a busy two-core machine.
+jest.setTimeout(30_000);
+
 const t = useTestApp();
 
 beforeAll(async () => {

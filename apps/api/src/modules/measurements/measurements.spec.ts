@@ -3,6 +3,9 @@ import { seedLabDemo } from '../../../../../docker-free-scripts/seed/lab-demo';
 import { brokenDemoFile, demoFiles } from '../../../../../docker-free-scripts/seed/lab-demo-files';
 import { useTestApp } from '../../testing';
 
+// Seeding the demo libraries in beforeAll takes seconds on a busy two-core machine.
+jest.setTimeout(30_000);
+
 const t = useTestApp();
 let bench: { instrumentId: string; cellId: string };
 
