@@ -1,6 +1,7 @@
 import request from 'supertest';
 import { seedLabDemo } from '../../../../../docker-free-scripts/seed/lab-demo';
 import { brokenDemoFile, demoFiles } from '../../../../../docker-free-scripts/seed/lab-demo-files';
+import { parseSpectrumFile } from '@ohmprint/spectral-engine';
 import { useTestApp } from '../../testing';
 
 // Seeding the demo libraries in beforeAll takes seconds on a busy two-core machine.
@@ -88,6 +89,37 @@ describe('measurement upload', () => {
     expect(res.body.frequencyHz).toHaveLength(51);
     expect(res.body.frequencyHz[0]).toBe(10);
     expect(res.body.im.every((v: number) => v < 0)).toBe(true);
+  });
+});
+
+/**
+ * A sweep whose sample warmed while it ran: Z′ drifts up by 30 % towards the low frequencies
+ * while Z″ does not, which no causal, stable system produces — so Kramers–Kronig must fail it.
+ */
+function driftingExport(text: string): string {
+  const s = parseSpectrumFile(text);
+  const n = s.re.length;
+  const rows = Array.from(s.frequencyHz, (f, i) => `${f},${s.re[i] * (1 + (0.3 * (n - 1 - i)) / (n - 1))},${s.im[i]}`);
+  return ["Frequency (Hz),Z' (Ohm),Z'' (Ohm)", ...rows].join('\n');
+}
+
+describe('quality of the measurements', () => {
+  it('marks a drifting sweep as failing Kramers–Kronig and flags it, and the disagreement, in the analysis', async () => {
+    const analyst = await t.authFor('analyst');
+    const [good, other] = filesOf('OP-8MJA-4T');
+    const res = await upload('/api/lab/samples/OP-8MJA-4T/measurements', analyst, [good, { fileName: 'drifting.csv', text: driftingExport(other.text) }], '19');
+    expect(res.status).toBe(201);
+    expect(res.body.saved.map((r: { kramersKronig: { passed: boolean } }) => r.kramersKronig.passed)).toEqual([true, false]);
+    expect(res.body.saved[1].kramersKronig.maxResidualPercent).toBeGreaterThan(2);
+    const [row] = await t.db.query(
+      `SELECT s.id AS sample_id, v.id AS version_id FROM sample s JOIN test_order o ON o.id = s.order_id
+       JOIN reference_library l ON l.product_id = o.product_id JOIN library_version v ON v.library_id = l.id WHERE s.code = 'OP-8MJA-4T'`,
+    );
+    const analysis = await request(t.app).post(`/api/lab/samples/${row.sample_id}/analyses`).set(analyst).send({ libraryVersionId: row.version_id });
+    expect(analysis.status).toBe(201);
+    const codes = analysis.body.result.qualityFlags.map((f: { code: string }) => f.code);
+    expect(codes).toEqual(expect.arrayContaining(['kk-failed', 'poor-replicate-agreement']));
+    expect(analysis.body.result.qualityFlags.find((f: { code: string }) => f.code === 'kk-failed').message).toContain('drifting.csv');
   });
 });
 
