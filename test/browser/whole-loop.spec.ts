@@ -58,7 +58,7 @@ describe('one suspect sample, from order to verified report', () => {
   it('1. the client admin sees the seeded order with its sample awaiting arrival', async () => {
     const { page } = await deskOf('client', CLIENT_ADMIN);
     await openFromMenu(page, 'Orders');
-    const row = page.getByRole('row').filter({ hasText: SAMPLE });
+    const row = page.getByRole('table', { name: 'Orders', exact: true }).getByRole('row').filter({ hasText: SAMPLE });
     await row.waitFor();
     expect(await row.innerText()).toContain('Ridgeline Red (demo)');
     expect(await row.innerText()).toContain('Awaiting arrival');
@@ -102,7 +102,7 @@ describe('one suspect sample, from order to verified report', () => {
   it('3. the analyst uploads the replicates (a bad file is named with its line), runs the analysis and submits it', async () => {
     const { page } = await deskOf('lab', ANALYST);
     await openFromMenu(page, 'Work queue');
-    await page.getByRole('link', { name: SAMPLE }).click();
+    await page.getByRole('table', { name: 'Work queue', exact: true }).getByRole('link', { name: SAMPLE }).click();
     await page.waitForURL(/\/lab\/samples\/[0-9a-f-]{36}$/);
     handOn.sampleId = new URL(page.url()).pathname.split('/').pop();
 
@@ -163,7 +163,7 @@ describe('one suspect sample, from order to verified report', () => {
 
     const { page } = await deskOf('lab', ANALYST);
     await openFromMenu(page, 'Reviews');
-    const mine = page.getByRole('row').filter({ hasText: SAMPLE });
+    const mine = page.getByRole('table', { name: 'Analyses awaiting review', exact: true }).getByRole('row').filter({ hasText: SAMPLE });
     expect(await mine.innerText()).toContain('someone else must review');
     await mine.getByRole('link', { name: SAMPLE }).click();
     await page.waitForURL(/\/lab\/reviews\/[0-9a-f-]{36}$/);
@@ -185,7 +185,7 @@ describe('one suspect sample, from order to verified report', () => {
   it('4. the reviewer approves, which issues the signed report with its number', async () => {
     const { page } = await deskOf('lab', REVIEWER);
     await openFromMenu(page, 'Reviews');
-    await page.getByRole('row').filter({ hasText: SAMPLE }).getByRole('link', { name: SAMPLE }).click();
+    await page.getByRole('table', { name: 'Analyses awaiting review', exact: true }).getByRole('link', { name: SAMPLE }).click();
     await page.getByText(REMARKS).waitFor();
     await page.getByRole('button', { name: 'Approve and issue the report' }).click();
     const issued = page.getByText(/Report [A-Z]{2,4}-\d{4}-\d{6} issued, signed and sent to the client\./);
@@ -199,7 +199,7 @@ describe('one suspect sample, from order to verified report', () => {
     const number = needs('reportNumber');
     const { page } = await deskOf('client', CLIENT_ADMIN);
     await openFromMenu(page, 'Reports');
-    const row = page.getByRole('row').filter({ hasText: number });
+    const row = page.getByRole('table', { name: 'Reports', exact: true }).getByRole('row').filter({ hasText: number });
     expect(await row.innerText()).toContain(SAMPLE);
     expect(await row.innerText()).toContain('Consistent');
     await screenshotWhole(page, 'whole-loop-05-client-reports');
@@ -249,6 +249,8 @@ describe('one suspect sample, from order to verified report', () => {
     await page.getByLabel('choose the file').setInputFiles(altered);
     await page.getByText('The uploaded file differs from every PDF the lab issued').waitFor();
     expect(await page.getByText('byte-identical').count()).toBe(0);
+    expect(await page.getByRole('heading', { name: 'Valid report' }).count()).toBe(0);
+    await page.getByRole('heading', { name: 'This copy is not the PDF the lab issued' }).waitFor();
     await screenshotWhole(page, 'whole-loop-06c-verify-altered-file');
   });
 });

@@ -35,7 +35,10 @@ export async function accessTokenFor(email: string): Promise<string> {
 
 /** Opens a screen from the side navigation (home screens repeat some entries as shortcuts). */
 export async function openFromMenu(page: Page, label: string): Promise<void> {
-  await page.getByRole('navigation', { name: 'Main navigation' }).getByRole('link', { name: label, exact: true }).click();
+  const link = page.getByRole('navigation', { name: 'Main navigation' }).getByRole('link', { name: label, exact: true });
+  await link.click();
+  // the menu marks the entry once the router has swapped the screen, so the old one is gone
+  await page.waitForFunction((el) => el?.getAttribute('aria-current') === 'page', await link.elementHandle());
 }
 
 /**
