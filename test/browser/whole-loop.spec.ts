@@ -127,11 +127,13 @@ describe('one suspect sample, from order to verified report', () => {
     await files.getByText('Saved as replicate 3.').waitFor();
     expect(await files.getByText('Saved', { exact: true }).count()).toBe(3);
 
-    const replicates = page.locator('table.replicates tbody tr');
+    const replicateTable = page.getByRole('table').filter({ has: page.getByRole('columnheader', { name: 'Kramers–Kronig' }) });
+    const replicates = replicateTable.getByRole('row').filter({ has: page.getByRole('cell') });
     await replicates.nth(2).waitFor();
     expect(await replicates.count()).toBe(3);
     expect(await replicates.allInnerTexts()).toEqual(paths.filter((p) => !p.endsWith(broken)).map((p) => expect.stringContaining(p.split('/').pop()!)));
     for (const r of await replicates.allInnerTexts()) expect(r).toMatch(/Pass: [\d.]+ % \(limit/);
+    await page.getByRole('heading', { level: 1 }).filter({ hasText: 'Being measured' }).waitFor();
     await page.getByText('Bode plot, replicates overlaid').waitFor();
     await page.getByText('Nyquist plot, replicates overlaid').waitFor();
     await replicates.first().getByRole('button', { name: 'Residuals' }).click();
