@@ -13,12 +13,16 @@ export function drawNyquist(doc: PDFKit.PDFDocument, box: Box, plots: ReportPlot
   const minusIm = im.map((v) => -v);
   const xs = finite(re);
   const ys = finite(minusIm);
-  const xMin = Math.min(0, ...xs);
-  const yMin = Math.min(0, ...ys);
-  const xSpan = Math.max(...xs) - xMin || 1;
-  const ySpan = Math.max(...ys) - yMin || 1;
-  const perPoint = Math.max(xSpan / box.w, ySpan / box.h) * 1.08;
+  // Z′ of a liquid sits far from zero: centre the data rather than start the axis at 0, which
+  // would shrink the arc to a corner of the plot.
+  const xLo = Math.min(...xs);
+  const xHi = Math.max(...xs);
+  const yLo = Math.min(0, ...ys);
+  const yHi = Math.max(...ys);
+  const perPoint = Math.max((xHi - xLo || 1) / box.w, (yHi - yLo || 1) / box.h) * 1.08;
+  const xMin = (xLo + xHi) / 2 - (perPoint * box.w) / 2;
   const xMax = xMin + perPoint * box.w;
+  const yMin = yLo - perPoint * box.h * 0.03;
   const yMax = yMin + perPoint * box.h;
   const step = niceStep(0, Math.max(xMax - xMin, yMax - yMin), 5);
   const x = equalAxis(xMin, xMax, step, `Z′ / ${plots.impedanceUnit}`);
