@@ -30,3 +30,8 @@ export * from './feedback/not-found-page';
 export * from './lists/query-params';
 export * from './charts/public-api';
 export * from './lists/pending-invitations';
+export * from './errors/form-submission';
+export * from './feedback/dialog-result';
+export * from './lists/list-status';
+export * from './people/invitee-email-field';
+export * from './people/open-invitations';

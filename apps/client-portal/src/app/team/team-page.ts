@@ -1,5 +1,5 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, DestroyRef, signal, computed, inject, viewChild, type AfterViewInit } from '@angular/core';
+import { ChangeDetectionStrategy, Component, DestroyRef, computed, inject, viewChild, type AfterViewInit } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
@@ -7,8 +7,8 @@ import { MatPaginator, MatPaginatorModule } from '@angular/material/paginator';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSort, MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
-import type { ClientRole, ClientTeamMember, Invitation } from '@ohmprint/contracts';
-import { EmptyState, Notifier, PendingInvitations, ROLE_LABELS, SearchField, ServerList, Session, confirmAction } from '@ohmprint/ui';
+import type { ClientRole, ClientTeamMember } from '@ohmprint/contracts';
+import { EmptyState, ListStatus, Notifier, OpenInvitations, PendingInvitations, ROLE_LABELS, SearchField, ServerList, Session, confirmAction } from '@ohmprint/ui';
 import { Subject, filter, switchMap } from 'rxjs';
 import { InviteMemberDialog } from './invite-member-dialog';
 import { TeamData } from './team-data';
@@ -16,7 +16,7 @@ import { TeamData } from './team-data';
 @Component({
   selector: 'ohm-team-page',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [DatePipe, MatTableModule, MatSortModule, MatPaginatorModule, MatProgressBarModule, MatButtonModule, MatIconModule, SearchField, EmptyState, PendingInvitations],
+  imports: [DatePipe, MatTableModule, MatSortModule, MatPaginatorModule, MatProgressBarModule, MatButtonModule, MatIconModule, SearchField, EmptyState, ListStatus, PendingInvitations],
   templateUrl: './team-page.html',
 })
 export class TeamPage implements AfterViewInit {
@@ -33,8 +33,7 @@ export class TeamPage implements AfterViewInit {
   protected readonly columns = computed(() => ['displayName', 'email', 'role', 'createdAt', ...(this.isAdmin() ? ['actions'] : [])]);
   protected readonly list = new ServerList<ClientTeamMember>();
   protected readonly search = new Subject<string>();
-  protected readonly pending = signal<readonly Invitation[]>([]);
-  protected readonly pendingTotal = signal(0);
+  protected readonly invitations = new OpenInvitations(() => this.data.pendingInvitations());
 
   ngAfterViewInit(): void {
     this.list.connect({
@@ -44,15 +43,7 @@ export class TeamPage implements AfterViewInit {
       fetch: (query) => this.data.list(query),
       destroyRef: this.destroyRef,
     });
-    this.loadPending();
-  }
-
-  private loadPending(): void {
-    if (!this.isAdmin()) return;
-    this.data.pendingInvitations().subscribe((page) => {
-      this.pending.set(page.items);
-      this.pendingTotal.set(page.total);
-    });
+    if (this.isAdmin()) this.invitations.reload();
   }
 
   protected roleLabel(role: ClientRole): string {
@@ -64,15 +55,7 @@ export class TeamPage implements AfterViewInit {
   }
 
   protected openInvite(): void {
-    this.dialog
-      .open<InviteMemberDialog, void, Invitation>(InviteMemberDialog)
-      .afterClosed()
-      .pipe(filter((invitation): invitation is Invitation => !!invitation))
-      .subscribe((invitation) => {
-        this.notifier.success(`Invitation sent to ${invitation.email}.`);
-        this.list.reload();
-        this.loadPending();
-      });
+    this.invitations.invite(InviteMemberDialog).subscribe(() => this.list.reload());
   }
 
   protected remove(member: ClientTeamMember): void {

@@ -1,10 +1,10 @@
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import type { StaffMember } from '@ohmprint/contracts';
-import { ApiProblem, Notice, showFieldErrors } from '@ohmprint/ui';
+import { FormSubmission, Notice } from '@ohmprint/ui';
 import { RolesPicker } from './roles-picker';
 import { StaffData } from './staff-data';
 
@@ -37,24 +37,14 @@ export class ChangeRolesDialog {
   private readonly dialogRef = inject<MatDialogRef<ChangeRolesDialog, StaffMember>>(MatDialogRef);
   protected readonly member = inject<StaffMember>(MAT_DIALOG_DATA);
   protected readonly form = inject(NonNullableFormBuilder).group({ roles: [[...this.member.roles], Validators.required] });
-  protected readonly saving = signal(false);
-  protected readonly problem = signal<ApiProblem | null>(null);
+  private readonly submission = new FormSubmission(this.form);
+  protected readonly saving = this.submission.saving;
+  protected readonly problem = this.submission.problem;
 
   protected save(): void {
-    if (this.form.invalid) {
-      this.form.markAllAsTouched();
-      return;
-    }
-    this.saving.set(true);
-    this.problem.set(null);
-    this.data.changeRoles(this.member.id, this.form.getRawValue()).subscribe({
-      next: (updated) => this.dialogRef.close(updated),
-      error: (error: unknown) => {
-        const problem = ApiProblem.from(error);
-        this.saving.set(false);
-        this.problem.set(problem);
-        showFieldErrors(this.form, problem);
-      },
-    });
+    this.submission.submit(
+      () => this.data.changeRoles(this.member.id, this.form.getRawValue()),
+      (updated) => this.dialogRef.close(updated),
+    );
   }
 }

@@ -1,5 +1,5 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, DestroyRef, signal, inject, viewChild, type AfterViewInit } from '@angular/core';
+import { ChangeDetectionStrategy, Component, DestroyRef, inject, viewChild, type AfterViewInit } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatChipsModule } from '@angular/material/chips';
 import { MatDialog } from '@angular/material/dialog';
@@ -9,8 +9,8 @@ import { MatPaginator, MatPaginatorModule } from '@angular/material/paginator';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSort, MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
-import type { Invitation, LabRole, StaffMember } from '@ohmprint/contracts';
-import { EmptyState, Notifier, PendingInvitations, ROLE_LABELS, SearchField, ServerList, Session, confirmAction } from '@ohmprint/ui';
+import type { LabRole, StaffMember } from '@ohmprint/contracts';
+import { EmptyState, ListStatus, Notifier, OpenInvitations, PendingInvitations, ROLE_LABELS, SearchField, ServerList, Session, confirmAction, dialogResult } from '@ohmprint/ui';
 import { Subject, filter, switchMap } from 'rxjs';
 import { ChangeRolesDialog } from './change-roles-dialog';
 import { InviteStaffDialog } from './invite-staff-dialog';
@@ -31,6 +31,7 @@ import { StaffData } from './staff-data';
     MatChipsModule,
     SearchField,
     EmptyState,
+    ListStatus,
     PendingInvitations,
   ],
   templateUrl: './staff-page.html',
@@ -47,8 +48,7 @@ export class StaffPage implements AfterViewInit {
   protected readonly columns = ['displayName', 'email', 'roles', 'status', 'createdAt', 'actions'];
   protected readonly list = new ServerList<StaffMember>();
   protected readonly search = new Subject<string>();
-  protected readonly pending = signal<readonly Invitation[]>([]);
-  protected readonly pendingTotal = signal(0);
+  protected readonly invitations = new OpenInvitations(() => this.data.pendingInvitations());
 
   ngAfterViewInit(): void {
     this.list.connect({
@@ -58,14 +58,7 @@ export class StaffPage implements AfterViewInit {
       fetch: (query) => this.data.list(query),
       destroyRef: this.destroyRef,
     });
-    this.loadPending();
-  }
-
-  private loadPending(): void {
-    this.data.pendingInvitations().subscribe((page) => {
-      this.pending.set(page.items);
-      this.pendingTotal.set(page.total);
-    });
+    this.invitations.reload();
   }
 
   protected roleLabel(role: LabRole): string {
@@ -77,23 +70,11 @@ export class StaffPage implements AfterViewInit {
   }
 
   protected openInvite(): void {
-    this.dialog
-      .open<InviteStaffDialog, void, Invitation>(InviteStaffDialog)
-      .afterClosed()
-      .pipe(filter((invitation): invitation is Invitation => !!invitation))
-      .subscribe((invitation) => {
-        this.notifier.success(`Invitation sent to ${invitation.email}.`);
-        this.list.reload();
-        this.loadPending();
-      });
+    this.invitations.invite(InviteStaffDialog).subscribe(() => this.list.reload());
   }
 
   protected changeRoles(member: StaffMember): void {
-    this.dialog
-      .open<ChangeRolesDialog, StaffMember, StaffMember>(ChangeRolesDialog, { data: member })
-      .afterClosed()
-      .pipe(filter((updated): updated is StaffMember => !!updated))
-      .subscribe((updated) => {
+    dialogResult<ChangeRolesDialog, StaffMember, StaffMember>(this.dialog, ChangeRolesDialog, member).subscribe((updated) => {
         this.notifier.success(`Roles of ${updated.displayName} saved.`);
         this.list.reload();
       });
