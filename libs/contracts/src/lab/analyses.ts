@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { listQuery, pageOf } from '../paging';
 import { UserRefSchema } from './refs';
 import { MethodSettingsSchema } from './libraries';
+import { SpectrumPointsSchema } from './measurements';
 
 export const VERDICTS = ['consistent', 'inconclusive', 'not-consistent', 'no-verdict'] as const;
 export const VerdictSchema = z.enum(VERDICTS);
@@ -75,6 +76,8 @@ export const AnalysisSchema = z.object({
   status: AnalysisStatusSchema,
   result: AnalysisResultSchema,
   method: MethodSettingsSchema,
+  /** The replicates' average as scored: normalised (Ω·cm) and on the version's grid. */
+  sampleSpectrum: SpectrumPointsSchema,
   engineVersion: z.string(),
   remarks: z.string(),
   analyst: UserRefSchema,

@@ -8,5 +8,6 @@ export * from './custody';
 export * from './measurements';
 export * from './instrument-keys';
 export * from './libraries';
+export * from './reference-spectra';
 export * from './analyses';
 export * from './reviews';

@@ -7,11 +7,11 @@ const iso = (d: Date | null) => d?.toISOString() ?? null;
 
 export async function analysisView(manager: EntityManager, labId: string, analysisId: string): Promise<AnalysisView> {
   const [a]: {
-    id: string; status: AnalysisView['status']; result: AnalysisView['result']; method: AnalysisView['method']; engine_version: string; remarks: string;
+    id: string; status: AnalysisView['status']; result: AnalysisView['result']; method: AnalysisView['method']; engine_version: string; remarks: string; sample_spectrum: AnalysisView['sampleSpectrum'];
     created_at: Date; submitted_at: Date | null; sample_id: string; sample_code: string; version_id: string; version: number; product_name: string;
     analyst_id: string; analyst_name: string;
   }[] = await manager.query(
-    `SELECT a.id, a.status, a.result, a.method, a.engine_version, a.remarks, a.created_at, a.submitted_at,
+    `SELECT a.id, a.status, a.result, a.method, a.sample_spectrum, a.engine_version, a.remarks, a.created_at, a.submitted_at,
             s.id AS sample_id, s.code AS sample_code, v.id AS version_id, v.version, p.name AS product_name,
             u.id AS analyst_id, u.display_name AS analyst_name
      FROM analysis a
@@ -36,6 +36,7 @@ export async function analysisView(manager: EntityManager, labId: string, analys
     status: a.status,
     result: a.result,
     method: a.method,
+    sampleSpectrum: a.sample_spectrum,
     engineVersion: a.engine_version,
     remarks: a.remarks,
     analyst: { id: a.analyst_id, displayName: a.analyst_name },

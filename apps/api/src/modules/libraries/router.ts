@@ -5,6 +5,7 @@ import {
   LibraryPageSchema,
   LibraryVersionDetailSchema,
   MethodSettingsSchema,
+  ReferenceSpectraSchema,
   type LibraryListQuery,
   type MethodSettings,
 } from '@ohmprint/contracts';
@@ -17,6 +18,7 @@ import { requireRole } from '../auth/require-auth';
 import { LAB_STAFF } from '../samples/lab-roles';
 import { labMethod } from './lab-method';
 import { libraryVersionDetail, listLibraries } from './library-views';
+import { referenceSpectra } from './reference-spectra';
 import { LabMethodSettings } from './method-settings.entity';
 
 const tag = 'Reference libraries';
@@ -33,6 +35,11 @@ export function librariesRouter(): Router {
   registerRoute({ method: 'get', path: '/lab/library-versions/:id', tag, summary: 'One library version: frozen method, calibration and lots', roles: LAB_STAFF, params: IdParamsSchema, response: LibraryVersionDetailSchema });
   router.get('/library-versions/:id', requireRole(...LAB_STAFF), validate({ params: IdParamsSchema }), async (_req, res) => {
     res.json(await libraryVersionDetail(dataSource.manager, labIdOf(res.locals.auth), (res.locals.params as { id: string }).id));
+  });
+
+  registerRoute({ method: 'get', path: '/lab/library-versions/:id/reference-spectra', tag, summary: 'A published version’s lots, normalised and on its grid (the reference band behind a sample)', roles: ['analyst', 'reviewer', 'lab-admin'], params: IdParamsSchema, response: ReferenceSpectraSchema });
+  router.get('/library-versions/:id/reference-spectra', requireRole('analyst', 'reviewer', 'lab-admin'), validate({ params: IdParamsSchema }), async (_req, res) => {
+    res.json(await referenceSpectra(dataSource.manager, labIdOf(res.locals.auth), (res.locals.params as { id: string }).id));
   });
 
   registerRoute({ method: 'get', path: '/lab/method-settings', tag, summary: 'The lab’s current method (new library versions copy it)', roles: LAB_STAFF, response: MethodSettingsSchema });
