@@ -5,11 +5,13 @@ import {
   AnalysisSchema,
   ApprovalResultSchema,
   LibraryPageSchema,
+  ReferenceSpectraSchema,
   type Analysis,
   type AnalysisPage,
   type ApprovalResult,
   type LibraryItem,
   type ListQuery,
+  type ReferenceSpectra,
 } from '@ohmprint/contracts';
 import { queryParams, quietRequest } from '@ohmprint/ui';
 import { map, type Observable } from 'rxjs';
@@ -25,6 +27,11 @@ export class AnalysesData {
     return this.http.get('/api/lab/libraries', { params }).pipe(
       map((r) => LibraryPageSchema.parse(r).items.find((l) => l.product.id === productId) ?? null),
     );
+  }
+
+  /** A published version's lots on its grid: what the reference band behind a sample is drawn from. */
+  referenceSpectra(libraryVersionId: string): Observable<ReferenceSpectra> {
+    return this.http.get(`/api/lab/library-versions/${libraryVersionId}/reference-spectra`).pipe(map((r) => ReferenceSpectraSchema.parse(r)));
   }
 
   forSample(sampleId: string): Observable<AnalysisPage> {

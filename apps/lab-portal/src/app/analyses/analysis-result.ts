@@ -1,19 +1,35 @@
 import { DecimalPipe, PercentPipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
 import type { Analysis } from '@ohmprint/contracts';
-import { DistanceHistogram, LibraryMap, ScreeningCaution, VerdictChip, formatNumber, type DistanceHistogramInput, type MapPoint } from '@ohmprint/ui';
+import { BodeChart, DistanceHistogram, LibraryMap, NyquistChart, ScreeningCaution, VerdictChip, formatNumber, type DistanceHistogramInput, type MapPoint, type ReferenceBand, type SpectrumSeries } from '@ohmprint/ui';
+import { AnalysesData } from './analyses-data';
+import { referenceBandOf } from './reference-band';
 
 /** Everything behind a verdict, read-only: shared by the analyst's tab and the reviewer's page. */
 @Component({
   selector: 'ohm-analysis-result',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [DecimalPipe, PercentPipe, MatIconModule, VerdictChip, DistanceHistogram, LibraryMap, ScreeningCaution],
+  imports: [DecimalPipe, PercentPipe, MatIconModule, VerdictChip, BodeChart, NyquistChart, DistanceHistogram, LibraryMap, ScreeningCaution],
   templateUrl: './analysis-result.html',
   styleUrl: './analysis-result.scss',
 })
 export class AnalysisResult {
+  private readonly data = inject(AnalysesData);
   readonly analysis = input.required<Analysis>();
+
+  /** Null until the lots arrive (or if they cannot): the plots then show the sample alone. */
+  protected readonly band = signal<ReferenceBand | null>(null);
+  private readonly versionId = computed(() => this.analysis().libraryVersion.id);
+  protected readonly sampleSeries = computed<SpectrumSeries[]>(() => [{ label: `Sample ${this.analysis().sample.code} (replicate mean)`, ...this.analysis().sampleSpectrum }]);
+
+  constructor() {
+    effect((onCleanup) => {
+      this.band.set(null);
+      const sub = this.data.referenceSpectra(this.versionId()).subscribe((spectra) => this.band.set(referenceBandOf(spectra)));
+      onCleanup(() => sub.unsubscribe());
+    });
+  }
 
   /** Significant digits, not decimals: fitted time constants run to microseconds. */
   protected readonly fmt = formatNumber;

@@ -1,0 +1,74 @@
+import { HttpTestingController } from '@angular/common/http/testing';
+import { TestBed } from '@angular/core/testing';
+import type { Analysis, ReferenceSpectra } from '@ohmprint/contracts';
+import { Session } from '@ohmprint/ui';
+import { provideTestPortal, testUser } from '@ohmprint/ui/testing';
+import { AnalysisResult } from './analysis-result';
+
+const VERSION = '11111111-1111-4111-8111-111111111111';
+const LOT_A = '22222222-2222-4222-8222-222222222222';
+const LOT_B = '33333333-3333-4333-8333-333333333333';
+const grid = [10, 100, 1000];
+
+// Invented figures: only the wiring from the route to the plots is under test here.
+const analysis: Analysis = {
+  id: '44444444-4444-4444-8444-444444444444',
+  sample: { id: '55555555-5555-4555-8555-555555555555', code: 'OP-TEST-01' },
+  libraryVersion: { id: VERSION, version: 2, productName: 'Invented Rosé' },
+  status: 'draft',
+  result: {
+    verdict: 'consistent',
+    nearest: { lotId: LOT_A, lotCode: 'LOT-A', distance: 0.01 },
+    t95: 0.02,
+    t99: 0.03,
+    typicality: 0.5,
+    distances: [{ lotId: LOT_A, lotCode: 'LOT-A', distance: 0.01 }, { lotId: LOT_B, lotCode: 'LOT-B', distance: 0.015 }],
+    map: { sample: [0, 0], lots: [] },
+    histogram: { binEdges: [0, 0.05], counts: [2] },
+    fit: null,
+    qualityFlags: [],
+    replicateIds: [],
+  },
+  method: {
+    bandMinHz: 10, bandMaxHz: 1000, gridPoints: 8, referenceTemperatureC: 20, temperatureCoefficientPerC: 0.02,
+    lowerQuantile: 0.95, upperQuantile: 0.99, minimumLots: 5, minimumReplicates: 3, model: 'cole-cole',
+    kkResidualLimitPercent: 2, replicateDistanceLimit: 0.05,
+  },
+  sampleSpectrum: { frequencyHz: grid, re: [105, 102, 101], im: [-20, -10, -2] },
+  engineVersion: '1.0.0',
+  remarks: '',
+  analyst: { id: '66666666-6666-4666-8666-666666666666', displayName: 'Invented Analyst' },
+  createdAt: '2026-12-01T09:00:00.000Z',
+  submittedAt: null,
+  reviews: [],
+};
+
+const lots: ReferenceSpectra = {
+  libraryVersionId: VERSION, productName: 'Invented Rosé', version: 2, impedanceUnit: 'Ω·cm',
+  referenceTemperatureC: 20, temperatureCoefficientPerC: 0.02, frequencyHz: grid,
+  lots: [
+    { lotId: LOT_A, lotCode: 'LOT-A', re: [100, 98, 97], im: [-22, -11, -3] },
+    { lotId: LOT_B, lotCode: 'LOT-B', re: [110, 104, 103], im: [-18, -9, -1] },
+  ],
+};
+
+describe('AnalysisResult', () => {
+  it('shades the reference lots behind the sample once the version’s lots arrive', async () => {
+    TestBed.configureTestingModule({ providers: provideTestPortal() });
+    TestBed.inject(Session).adopt({ accessToken: 'tok', user: testUser({ roles: ['analyst'] }) });
+    const fixture = TestBed.createComponent(AnalysisResult);
+    fixture.componentRef.setInput('analysis', analysis);
+    fixture.detectChanges();
+    const el: HTMLElement = fixture.nativeElement;
+    expect(el.querySelectorAll('ohm-bode-chart path.band')).toHaveLength(0);
+
+    TestBed.inject(HttpTestingController).expectOne(`/api/lab/library-versions/${VERSION}/reference-spectra`).flush(lots);
+    await fixture.whenStable();
+    fixture.detectChanges();
+
+    expect(el.querySelectorAll('ohm-bode-chart path.band')).toHaveLength(2);
+    expect(el.querySelectorAll('ohm-nyquist-chart path.band')).toHaveLength(1);
+    expect(el.querySelector('ohm-bode-chart')?.textContent).toContain('Reference lots (range)');
+    expect(el.querySelector('ohm-nyquist-chart')?.textContent).toContain('Sample OP-TEST-01 (replicate mean)');
+  });
+});
