@@ -35,3 +35,4 @@ export * from './feedback/dialog-result';
 export * from './lists/list-status';
 export * from './people/invitee-email-field';
 export * from './people/open-invitations';
+export * from './people/first-admin';

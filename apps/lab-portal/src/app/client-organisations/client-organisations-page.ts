@@ -8,15 +8,15 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSort, MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import type { ClientOrganisation } from '@ohmprint/contracts';
-import { EmptyState, Notifier, SearchField, ServerList } from '@ohmprint/ui';
-import { Subject, filter } from 'rxjs';
+import { EmptyState, ListStatus, Notifier, SearchField, ServerList, dialogResult } from '@ohmprint/ui';
+import { Subject } from 'rxjs';
 import { ClientOrganisationsData, type OrganisationCreated } from './client-organisations-data';
 import { InviteOrganisationDialog } from './invite-organisation-dialog';
 
 @Component({
   selector: 'ohm-client-organisations-page',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [DatePipe, MatTableModule, MatSortModule, MatPaginatorModule, MatProgressBarModule, MatButtonModule, MatIconModule, SearchField, EmptyState],
+  imports: [DatePipe, MatTableModule, MatSortModule, MatPaginatorModule, MatProgressBarModule, MatButtonModule, MatIconModule, SearchField, EmptyState, ListStatus],
   templateUrl: './client-organisations-page.html',
 })
 export class ClientOrganisationsPage implements AfterViewInit {
@@ -42,13 +42,9 @@ export class ClientOrganisationsPage implements AfterViewInit {
   }
 
   protected openInvite(): void {
-    this.dialog
-      .open<InviteOrganisationDialog, void, OrganisationCreated>(InviteOrganisationDialog)
-      .afterClosed()
-      .pipe(filter((created): created is OrganisationCreated => !!created))
-      .subscribe(({ organisation, invitation }) => {
-        this.notifier.success(`${organisation.name} was added; an invitation went to ${invitation.email}.`);
-        this.list.reload();
-      });
+    dialogResult<InviteOrganisationDialog, OrganisationCreated>(this.dialog, InviteOrganisationDialog).subscribe(({ organisation, invitation }) => {
+      this.notifier.success(`${organisation.name} was added; an invitation went to ${invitation.email}.`);
+      this.list.reload();
+    });
   }
 }

@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialogModule, MatDialogRef } from '@angular/material/dialog';
@@ -6,13 +6,13 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import type { CreateClientOrganisationRequest } from '@ohmprint/contracts';
-import { ApiProblem, Notice, showFieldErrors } from '@ohmprint/ui';
+import { FormSubmission, InviteeEmailField, Notice, firstAdminForm, firstAdminOf } from '@ohmprint/ui';
 import { ClientOrganisationsData, type OrganisationCreated } from './client-organisations-data';
 
 @Component({
   selector: 'ohm-invite-organisation-dialog',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [ReactiveFormsModule, MatDialogModule, MatButtonModule, MatFormFieldModule, MatInputModule, MatProgressBarModule, Notice],
+  imports: [ReactiveFormsModule, MatDialogModule, MatButtonModule, MatFormFieldModule, MatInputModule, MatProgressBarModule, InviteeEmailField, Notice],
   templateUrl: './invite-organisation-dialog.html',
 })
 export class InviteOrganisationDialog {
@@ -22,35 +22,22 @@ export class InviteOrganisationDialog {
   protected readonly form = this.fb.group({
     name: ['', [Validators.required, Validators.minLength(2), Validators.maxLength(160)]],
     contactEmail: ['', Validators.email],
-    firstAdmin: this.fb.group({
-      email: ['', [Validators.required, Validators.email]],
-      displayName: ['', Validators.maxLength(120)],
-    }),
+    firstAdmin: firstAdminForm(this.fb),
   });
-  protected readonly saving = signal(false);
-  protected readonly problem = signal<ApiProblem | null>(null);
+  private readonly submission = new FormSubmission(this.form);
+  protected readonly saving = this.submission.saving;
+  protected readonly problem = this.submission.problem;
 
   protected invite(): void {
-    if (this.form.invalid) {
-      this.form.markAllAsTouched();
-      return;
-    }
     const { name, contactEmail, firstAdmin } = this.form.getRawValue();
     const body: CreateClientOrganisationRequest = {
       name,
       ...(contactEmail ? { contactEmail } : {}),
-      firstAdmin: { email: firstAdmin.email, ...(firstAdmin.displayName ? { displayName: firstAdmin.displayName } : {}) },
+      firstAdmin: firstAdminOf(firstAdmin),
     };
-    this.saving.set(true);
-    this.problem.set(null);
-    this.data.create(body).subscribe({
-      next: (created) => this.dialogRef.close(created),
-      error: (error: unknown) => {
-        const problem = ApiProblem.from(error);
-        this.saving.set(false);
-        this.problem.set(problem);
-        showFieldErrors(this.form, problem);
-      },
-    });
+    this.submission.submit(
+      () => this.data.create(body),
+      (created) => this.dialogRef.close(created),
+    );
   }
 }

@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
@@ -6,7 +6,7 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import type { LabSummary } from '@ohmprint/contracts';
-import { ApiProblem, Notice, showFieldErrors } from '@ohmprint/ui';
+import { FormSubmission, Notice } from '@ohmprint/ui';
 import { LabsData } from './labs-data';
 
 /** Suspending needs a reason (it is audited); reactivating asks for one too, for the record. */
@@ -61,25 +61,15 @@ export class ChangeLabStatusDialog {
   protected readonly form = inject(NonNullableFormBuilder).group({
     reason: ['', [Validators.required, Validators.minLength(3), Validators.maxLength(500)]],
   });
-  protected readonly saving = signal(false);
-  protected readonly problem = signal<ApiProblem | null>(null);
+  private readonly submission = new FormSubmission(this.form);
+  protected readonly saving = this.submission.saving;
+  protected readonly problem = this.submission.problem;
 
   protected save(): void {
-    if (this.form.invalid) {
-      this.form.markAllAsTouched();
-      return;
-    }
-    this.saving.set(true);
-    this.problem.set(null);
     const status = this.suspending ? 'suspended' : 'active';
-    this.data.changeStatus(this.lab.id, { status, reason: this.form.getRawValue().reason }).subscribe({
-      next: (updated) => this.dialogRef.close(updated),
-      error: (error: unknown) => {
-        const problem = ApiProblem.from(error);
-        this.saving.set(false);
-        this.problem.set(problem);
-        showFieldErrors(this.form, problem);
-      },
-    });
+    this.submission.submit(
+      () => this.data.changeStatus(this.lab.id, { status, reason: this.form.getRawValue().reason }),
+      (updated) => this.dialogRef.close(updated),
+    );
   }
 }

@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialogModule, MatDialogRef } from '@angular/material/dialog';
@@ -6,13 +6,13 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import type { CreateLabRequest } from '@ohmprint/contracts';
-import { ApiProblem, Notice, showFieldErrors } from '@ohmprint/ui';
+import { FormSubmission, InviteeEmailField, Notice, firstAdminForm, firstAdminOf } from '@ohmprint/ui';
 import { LabsData, type LabCreated } from './labs-data';
 
 @Component({
   selector: 'ohm-create-lab-dialog',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [ReactiveFormsModule, MatDialogModule, MatButtonModule, MatFormFieldModule, MatInputModule, MatProgressBarModule, Notice],
+  imports: [ReactiveFormsModule, MatDialogModule, MatButtonModule, MatFormFieldModule, MatInputModule, MatProgressBarModule, InviteeEmailField, Notice],
   templateUrl: './create-lab-dialog.html',
 })
 export class CreateLabDialog {
@@ -26,19 +26,13 @@ export class CreateLabDialog {
     accreditationBody: ['', Validators.maxLength(120)],
     accreditationNumber: ['', Validators.maxLength(60)],
     turnaroundTargetDays: [10, [Validators.required, Validators.min(1), Validators.max(90)]],
-    firstAdmin: this.fb.group({
-      email: ['', [Validators.required, Validators.email]],
-      displayName: ['', Validators.maxLength(120)],
-    }),
+    firstAdmin: firstAdminForm(this.fb),
   });
-  protected readonly saving = signal(false);
-  protected readonly problem = signal<ApiProblem | null>(null);
+  private readonly submission = new FormSubmission(this.form);
+  protected readonly saving = this.submission.saving;
+  protected readonly problem = this.submission.problem;
 
   protected create(): void {
-    if (this.form.invalid) {
-      this.form.markAllAsTouched();
-      return;
-    }
     const v = this.form.getRawValue();
     const body: CreateLabRequest = {
       name: v.name,
@@ -47,18 +41,11 @@ export class CreateLabDialog {
       turnaroundTargetDays: Number(v.turnaroundTargetDays),
       ...(v.accreditationBody ? { accreditationBody: v.accreditationBody } : {}),
       ...(v.accreditationNumber ? { accreditationNumber: v.accreditationNumber } : {}),
-      firstAdmin: { email: v.firstAdmin.email, ...(v.firstAdmin.displayName ? { displayName: v.firstAdmin.displayName } : {}) },
+      firstAdmin: firstAdminOf(v.firstAdmin),
     };
-    this.saving.set(true);
-    this.problem.set(null);
-    this.data.create(body).subscribe({
-      next: (created) => this.dialogRef.close(created),
-      error: (error: unknown) => {
-        const problem = ApiProblem.from(error);
-        this.saving.set(false);
-        this.problem.set(problem);
-        showFieldErrors(this.form, problem);
-      },
-    });
+    this.submission.submit(
+      () => this.data.create(body),
+      (created) => this.dialogRef.close(created),
+    );
   }
 }

@@ -8,8 +8,8 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSort, MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import type { LabSummary } from '@ohmprint/contracts';
-import { EmptyState, Notifier, SearchField, ServerList } from '@ohmprint/ui';
-import { Subject, filter } from 'rxjs';
+import { EmptyState, ListStatus, Notifier, SearchField, ServerList, dialogResult } from '@ohmprint/ui';
+import { Subject } from 'rxjs';
 import { ChangeLabStatusDialog } from './change-lab-status-dialog';
 import { CreateLabDialog } from './create-lab-dialog';
 import { LabsData, type LabCreated } from './labs-data';
@@ -17,7 +17,7 @@ import { LabsData, type LabCreated } from './labs-data';
 @Component({
   selector: 'ohm-labs-page',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [DatePipe, MatTableModule, MatSortModule, MatPaginatorModule, MatProgressBarModule, MatButtonModule, MatIconModule, SearchField, EmptyState],
+  imports: [DatePipe, MatTableModule, MatSortModule, MatPaginatorModule, MatProgressBarModule, MatButtonModule, MatIconModule, SearchField, EmptyState, ListStatus],
   templateUrl: './labs-page.html',
 })
 export class LabsPage implements AfterViewInit {
@@ -43,24 +43,16 @@ export class LabsPage implements AfterViewInit {
   }
 
   protected openCreate(): void {
-    this.dialog
-      .open<CreateLabDialog, void, LabCreated>(CreateLabDialog)
-      .afterClosed()
-      .pipe(filter((created): created is LabCreated => !!created))
-      .subscribe(({ lab, invitation }) => {
-        this.notifier.success(`${lab.name} was created; an invitation went to ${invitation.email}.`);
-        this.list.reload();
-      });
+    dialogResult<CreateLabDialog, LabCreated>(this.dialog, CreateLabDialog).subscribe(({ lab, invitation }) => {
+      this.notifier.success(`${lab.name} was created; an invitation went to ${invitation.email}.`);
+      this.list.reload();
+    });
   }
 
   protected changeStatus(lab: LabSummary): void {
-    this.dialog
-      .open<ChangeLabStatusDialog, LabSummary, LabSummary>(ChangeLabStatusDialog, { data: lab })
-      .afterClosed()
-      .pipe(filter((updated): updated is LabSummary => !!updated))
-      .subscribe((updated) => {
-        this.notifier.success(`${updated.name} is now ${updated.status}.`);
-        this.list.reload();
-      });
+    dialogResult<ChangeLabStatusDialog, LabSummary, LabSummary>(this.dialog, ChangeLabStatusDialog, lab).subscribe((updated) => {
+      this.notifier.success(`${updated.name} is now ${updated.status}.`);
+      this.list.reload();
+    });
   }
 }

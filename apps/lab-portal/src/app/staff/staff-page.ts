@@ -75,9 +75,9 @@ export class StaffPage implements AfterViewInit {
 
   protected changeRoles(member: StaffMember): void {
     dialogResult<ChangeRolesDialog, StaffMember, StaffMember>(this.dialog, ChangeRolesDialog, member).subscribe((updated) => {
-        this.notifier.success(`Roles of ${updated.displayName} saved.`);
-        this.list.reload();
-      });
+      this.notifier.success(`Roles of ${updated.displayName} saved.`);
+      this.list.reload();
+    });
   }
 
   protected deactivate(member: StaffMember): void {
