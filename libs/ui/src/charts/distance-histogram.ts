@@ -1,4 +1,5 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
+import type { Verdict } from '@ohmprint/contracts';
 import { ChartAxes } from './chart-axes';
 import { ChartFrame } from './chart-frame';
 import type { ChartTable } from './chart-types';
@@ -11,6 +12,8 @@ let nextId = 0;
 @Component({
   selector: 'ohm-distance-histogram',
   changeDetection: ChangeDetectionStrategy.OnPush,
+  // The sample's mark takes its verdict's colour; the chip beside the chart says the word.
+  host: { '[style.--ohm-sample-mark]': "verdict() ? 'var(--ohm-verdict-' + verdict() + '-mark)' : null" },
   imports: [ChartAxes, ChartFrame],
   styleUrl: './chart-svg.css',
   template: `
@@ -38,13 +41,14 @@ let nextId = 0;
     .line { stroke-width: 1.6; }
     .line.t95 { stroke: var(--mat-sys-tertiary); stroke-dasharray: 6 3; }
     .line.t99 { stroke: var(--mat-sys-error); stroke-dasharray: 2 3; }
-    .line.sample { stroke: var(--mat-sys-primary); stroke-width: 2.4; }
-    .sample-mark { fill: var(--mat-sys-primary); }
+    .line.sample { stroke: var(--ohm-sample-mark, var(--mat-sys-primary)); stroke-width: 2.4; }
+    .sample-mark { fill: var(--ohm-sample-mark, var(--mat-sys-primary)); }
     .line-label { fill: var(--mat-sys-on-surface); font-weight: 500; }
   `,
 })
 export class DistanceHistogram {
   readonly data = input.required<DistanceHistogramInput>();
+  readonly verdict = input<Verdict | null>(null);
   readonly heading = input('Sample among the library’s own spread');
 
   protected readonly titleId = `ohm-histogram-${nextId++}`;

@@ -1,4 +1,5 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
+import type { Verdict } from '@ohmprint/contracts';
 import { ChartAxes } from './chart-axes';
 import { ChartFrame } from './chart-frame';
 import type { ChartTable } from './chart-types';
@@ -11,6 +12,8 @@ let nextId = 0;
 @Component({
   selector: 'ohm-library-map',
   changeDetection: ChangeDetectionStrategy.OnPush,
+  // The sample's mark takes its verdict's colour; the chip beside the chart says the word.
+  host: { '[style.--ohm-sample-mark]': "verdict() ? 'var(--ohm-verdict-' + verdict() + '-mark)' : null" },
   imports: [ChartAxes, ChartFrame],
   styleUrl: './chart-svg.css',
   template: `
@@ -42,7 +45,7 @@ let nextId = 0;
   styles: `
     .lot { fill: var(--mat-sys-secondary); fill-opacity: 0.75; stroke: var(--mat-sys-surface); stroke-width: 1; }
     .lot.nearest { fill: var(--mat-sys-tertiary); fill-opacity: 1; stroke: var(--mat-sys-on-surface); }
-    .sample { fill: var(--mat-sys-primary); stroke: var(--mat-sys-on-primary); stroke-width: 1.2; }
+    .sample { fill: var(--ohm-sample-mark, var(--mat-sys-primary)); stroke: var(--mat-sys-on-surface); stroke-width: 1.2; }
     .link { stroke: var(--mat-sys-on-surface-variant); stroke-dasharray: 4 3; }
     .label { fill: var(--mat-sys-on-surface); }
     .label.strong { font-weight: 600; }
@@ -54,6 +57,7 @@ let nextId = 0;
 export class LibraryMap {
   readonly points = input.required<readonly MapPoint[]>();
   readonly nearestId = input<string | null>(null);
+  readonly verdict = input<Verdict | null>(null);
   readonly heading = input('Map of the sample among the reference lots');
 
   protected readonly titleId = `ohm-map-${nextId++}`;

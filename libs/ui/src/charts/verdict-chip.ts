@@ -28,10 +28,10 @@ export const VERDICT_SHORT: Readonly<Record<Verdict, string>> = {
     :host { display: inline-flex; align-items: center; gap: 6px; padding: 2px 10px 2px 6px; border-radius: 999px;
       font: var(--mat-sys-label-large); white-space: nowrap; }
     mat-icon { width: 20px; height: 20px; font-size: 20px; }
-    :host(.consistent) { background: var(--mat-sys-primary-container); color: var(--mat-sys-on-primary-container); }
-    :host(.inconclusive) { background: var(--mat-sys-tertiary-container); color: var(--mat-sys-on-tertiary-container); }
-    :host(.not-consistent) { background: var(--mat-sys-error-container); color: var(--mat-sys-on-error-container); }
-    :host(.no-verdict) { background: var(--mat-sys-surface-container-highest); color: var(--mat-sys-on-surface-variant); }
+    :host(.consistent) { background: var(--ohm-verdict-consistent-container); color: var(--ohm-verdict-consistent-on-container); }
+    :host(.inconclusive) { background: var(--ohm-verdict-inconclusive-container); color: var(--ohm-verdict-inconclusive-on-container); }
+    :host(.not-consistent) { background: var(--ohm-verdict-not-consistent-container); color: var(--ohm-verdict-not-consistent-on-container); }
+    :host(.no-verdict) { background: var(--ohm-verdict-no-verdict-container); color: var(--ohm-verdict-no-verdict-on-container); }
   `,
 })
 export class VerdictChip {
