@@ -1,4 +1,5 @@
 import type { Spectrum } from '../spectrum';
+import { forEachArcPoint, putExponentTerm } from './arc-terms';
 import type { Complex } from './complex';
 import {
   cpe,
@@ -95,8 +96,7 @@ function cpeDerivatives(
     im[i] = zi;
     dRe[offset + i] = -zr / q;
     dIm[offset + i] = -zi / q;
-    dRe[offset + count + i] = -(zr * logW - zi * (Math.PI / 2));
-    dIm[offset + count + i] = -(zr * (Math.PI / 2) + zi * logW);
+    putExponentTerm(dRe, dIm, offset + count + i, -1, zr, zi, logW);
   }
 }
 
@@ -164,33 +164,17 @@ const rZarcModel: ImpedanceModel = {
     // With E = (jω)ⁿ and D = 1 + RQE: ∂Z/∂R = 1/D², ∂Z/∂Q = −R²E/D², ∂Z/∂n = −R(D − 1)(ln ω + jπ/2)/D².
     const count = omega.length;
     const [rs, r, q, n] = [p[0], p[1], p[2], p[3]];
-    const c = Math.cos((n * Math.PI) / 2);
-    const sn = Math.sin((n * Math.PI) / 2);
-    for (let i = 0; i < count; i++) {
-      const logW = Math.log(omega[i]);
-      const m = Math.exp(n * logW);
-      const er = m * c;
-      const ei = m * sn;
-      const dr = 1 + r * q * er;
-      const di = r * q * ei;
-      const mod2 = dr * dr + di * di;
-      const ir = dr / mod2;
-      const ii = -di / mod2;
-      const i2r = ir * ir - ii * ii;
-      const i2i = 2 * ir * ii;
-      re[i] = rs + r * ir;
-      im[i] = r * ii;
+    forEachArcPoint(omega, 1, r * q, n, (i, t) => {
+      re[i] = rs + r * t.invRe;
+      im[i] = r * t.invIm;
       dRe[i] = 1;
       dIm[i] = 0;
-      dRe[count + i] = i2r;
-      dIm[count + i] = i2i;
-      dRe[2 * count + i] = -r * r * (er * i2r - ei * i2i);
-      dIm[2 * count + i] = -r * r * (er * i2i + ei * i2r);
-      const xr = (dr - 1) * i2r - di * i2i;
-      const xi = (dr - 1) * i2i + di * i2r;
-      dRe[3 * count + i] = -r * (xr * logW - xi * (Math.PI / 2));
-      dIm[3 * count + i] = -r * (xr * (Math.PI / 2) + xi * logW);
-    }
+      dRe[count + i] = t.inv2Re;
+      dIm[count + i] = t.inv2Im;
+      dRe[2 * count + i] = -r * r * (t.unitRe * t.inv2Re - t.unitIm * t.inv2Im);
+      dIm[2 * count + i] = -r * r * (t.unitRe * t.inv2Im + t.unitIm * t.inv2Re);
+      putExponentTerm(dRe, dIm, 3 * count + i, -r, t.riseRe, t.riseIm, t.logX);
+    });
   },
   initialGuess(s) {
     const g = arcGuess(s);
@@ -235,38 +219,18 @@ const coleColeModel: ImpedanceModel = {
     const delta = p[1] - p[0];
     const tau = p[2];
     const alpha = p[3];
-    const c = Math.cos((alpha * Math.PI) / 2);
-    const sn = Math.sin((alpha * Math.PI) / 2);
-    for (let i = 0; i < n; i++) {
-      const x = omega[i] * tau;
-      const logX = Math.log(x);
-      const m = Math.exp(alpha * logX);
-      const er = m * c;
-      const ei = m * sn;
-      const dr = 1 + er;
-      const di = ei;
-      const mod2 = dr * dr + di * di;
-      const ir = dr / mod2;
-      const ii = -di / mod2;
-      re[i] = rInf + delta * ir;
-      im[i] = delta * ii;
-      dRe[i] = 1 - ir;
-      dIm[i] = -ii;
-      dRe[n + i] = ir;
-      dIm[n + i] = ii;
-      // (D − 1)/D² = e·inv², with e = D − 1.
-      const inv2r = ir * ir - ii * ii;
-      const inv2i = 2 * ir * ii;
-      const qr = er * inv2r - ei * inv2i;
-      const qi = er * inv2i + ei * inv2r;
+    forEachArcPoint(omega, tau, 1, alpha, (i, t) => {
+      re[i] = rInf + delta * t.invRe;
+      im[i] = delta * t.invIm;
+      dRe[i] = 1 - t.invRe;
+      dIm[i] = -t.invIm;
+      dRe[n + i] = t.invRe;
+      dIm[n + i] = t.invIm;
       const k = -delta * (alpha / tau);
-      dRe[2 * n + i] = k * qr;
-      dIm[2 * n + i] = k * qi;
-      const lr = logX;
-      const li = Math.PI / 2;
-      dRe[3 * n + i] = -delta * (qr * lr - qi * li);
-      dIm[3 * n + i] = -delta * (qr * li + qi * lr);
-    }
+      dRe[2 * n + i] = k * t.riseRe;
+      dIm[2 * n + i] = k * t.riseIm;
+      putExponentTerm(dRe, dIm, 3 * n + i, -delta, t.riseRe, t.riseIm, t.logX);
+    });
   },
   initialGuess(s) {
     const g = arcGuess(s);
