@@ -29,8 +29,11 @@ export async function seedAccounts(manager: EntityManager, passwordHash: string)
         accreditationBody: demo.accreditationBody,
         accreditationNumber: demo.accreditationNumber,
         turnaroundTargetDays: demo.turnaroundTargetDays,
+        isDemo: true,
       }),
     );
+    // Labs seeded before the mark existed get it too: their data is just as invented.
+    if (!lab.isDemo) await manager.update(Lab, { id: lab.id }, { isDemo: true });
     for (const person of demo.staff) {
       const user = await ensureUser(manager, lab.id, person.email, person.displayName, passwordHash);
       for (const role of person.roles) {

@@ -12,6 +12,8 @@ export class Lab {
   @Column({ name: 'accreditation_number', type: 'text', nullable: true }) accreditationNumber!: string | null;
   @Column({ name: 'turnaround_target_days', type: 'integer', default: 10 }) turnaroundTargetDays!: number;
   @Column({ type: 'text', default: 'active' }) status!: LabStatus;
+  /** Invented demo data: its reports carry the demonstration mark. */
+  @Column({ name: 'is_demo', type: 'boolean', default: false }) isDemo!: boolean;
   @CreateDateColumn({ name: 'created_at', type: 'timestamptz' }) createdAt!: Date;
   @UpdateDateColumn({ name: 'updated_at', type: 'timestamptz' }) updatedAt!: Date;
 }
