@@ -29,9 +29,9 @@ export class AnalysesData {
     );
   }
 
-  /** A published version's lots on its grid: what the reference band behind a sample is drawn from. */
+  /** A published version's lots on its grid: what the reference band behind a sample is drawn from. Quiet: without it the plots show the sample alone. */
   referenceSpectra(libraryVersionId: string): Observable<ReferenceSpectra> {
-    return this.http.get(`/api/lab/library-versions/${libraryVersionId}/reference-spectra`).pipe(map((r) => ReferenceSpectraSchema.parse(r)));
+    return this.http.get(`/api/lab/library-versions/${libraryVersionId}/reference-spectra`, { context: quietRequest() }).pipe(map((r) => ReferenceSpectraSchema.parse(r)));
   }
 
   forSample(sampleId: string): Observable<AnalysisPage> {

@@ -4,13 +4,16 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
-import type { Replicate, SampleMeasurements, SpectrumPoints } from '@ohmprint/contracts';
-import { BodeChart, KkResidualChart, NyquistChart, Notice, formatHz, type KkResiduals, type SpectrumSeries } from '@ohmprint/ui';
-import { forkJoin, of } from 'rxjs';
+import type { ReferenceSpectra, Replicate, SampleMeasurements, SpectrumPoints } from '@ohmprint/contracts';
+import { BodeChart, KkResidualChart, NyquistChart, Notice, Session, formatHz, type KkResiduals, type SpectrumSeries } from '@ohmprint/ui';
+import { EMPTY, forkJoin, of, switchMap } from 'rxjs';
+import { AnalysesData } from '../analyses/analyses-data';
+import { referenceBandOf } from '../analyses/reference-band';
 import { ExcludeDialog, type ExcludeRequest } from './exclude-dialog';
 import { kkResiduals } from './kk-residuals';
 import { MeasurementUpload } from './measurement-upload';
 import { MeasurementsData } from './measurements-data';
+import { normalisedReplicates } from './normalised-replicates';
 
 /** The measurements tab of a sample: upload, the replicates overlaid, their checks, and exclusions. */
 @Component({
@@ -23,7 +26,11 @@ import { MeasurementsData } from './measurements-data';
 export class MeasurementsPanel {
   private readonly data = inject(MeasurementsData);
   private readonly dialog = inject(MatDialog);
+  private readonly analyses = inject(AnalysesData);
+  private readonly session = inject(Session);
   readonly sampleId = input.required<string>();
+  /** The sample's product: its newest published library version gives the reference band. */
+  readonly product = input<{ readonly id: string; readonly name: string } | null>(null);
   /** Analysts may upload and exclude; others look. */
   readonly canEdit = input(false);
   /** Uploads and exclusions move the sample's state; the page refreshes its header. */
@@ -37,18 +44,49 @@ export class MeasurementsPanel {
   protected readonly residualsMissing = signal(false);
   protected readonly loading = signal(true);
 
-  protected readonly series = computed<SpectrumSeries[]>(() => {
+  protected readonly reference = signal<ReferenceSpectra | null>(null);
+  private readonly rawSeries = computed(() => {
     const m = this.measurements();
     if (!m) return [];
     return m.replicates.flatMap((r) => {
       const s = this.spectra().get(r.id);
-      return s ? [{ label: `Replicate ${r.replicateNumber}`, ...s, muted: r.excluded }] : [];
+      return s ? [{ label: `Replicate ${r.replicateNumber}`, ...s, muted: r.excluded, cellConstantPerCm: r.cellConstantPerCm, temperatureC: r.temperatureC }] : [];
     });
+  });
+  /** As measured (Ω) until a reference version is known; then normalised like its lots (Ω·cm). */
+  protected readonly series = computed<SpectrumSeries[]>(() => {
+    const ref = this.reference();
+    return ref ? normalisedReplicates(this.rawSeries(), ref) : this.rawSeries();
+  });
+  protected readonly band = computed(() => {
+    const ref = this.reference();
+    return ref ? referenceBandOf(ref) : null;
+  });
+  protected readonly unit = computed(() => (this.reference() ? 'Ω·cm' : 'Ω'));
+  protected readonly plotNote = computed(() => {
+    const ref = this.reference();
+    return ref ? `, normalised to ${ref.referenceTemperatureC} °C, against ${ref.productName} library version ${ref.version}` : ', as measured';
   });
   protected readonly selectedReplicate = computed(() => this.measurements()?.replicates.find((r) => r.id === this.selected()) ?? null);
 
   constructor() {
     effect(() => this.load(this.sampleId()));
+    effect((onCleanup) => {
+      const product = this.product();
+      this.reference.set(null);
+      // Intake technicians see the replicates but not the libraries.
+      if (!product || !this.session.hasAnyRole(['analyst', 'reviewer', 'lab-admin'])) return;
+      const sub = this.analyses
+        .libraryFor(product.id, product.name)
+        .pipe(
+          switchMap((lib) => {
+            const newest = (lib?.versions ?? []).filter((v) => v.status === 'published').sort((a, b) => b.version - a.version)[0];
+            return newest ? this.analyses.referenceSpectra(newest.id) : EMPTY;
+          }),
+        )
+        .subscribe((ref) => this.reference.set(ref));
+      onCleanup(() => sub.unsubscribe());
+    });
   }
 
   protected load(sampleId: string): void {
