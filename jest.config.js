@@ -14,6 +14,9 @@ const candidates = [
 ];
 
 module.exports = {
+  // testTimeout is a global option: jest ignores it inside a project's config. 30 s leaves room for a
+  // loaded 2-core CI machine; the browser project raises it again in its setupFilesAfterEnv.
+  testTimeout: 30_000,
   projects: candidates
     .map((dir) => join(__dirname, dir, 'jest.config.js'))
     .filter((file) => existsSync(file)),

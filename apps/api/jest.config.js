@@ -2,7 +2,6 @@
 // built once per run by the globalSetup (see apps/api/src/testing/). The demo seed's tests run here too.
 module.exports = require('../../jest.base.js')('api', 'apps/api', {
   roots: ['<rootDir>', '<rootDir>/../../docker-free-scripts/seed'],
-  testTimeout: 30000,
   globalSetup: '<rootDir>/src/testing/global-setup.ts',
   globalTeardown: '<rootDir>/src/testing/global-teardown.ts',
   setupFiles: ['<rootDir>/src/testing/setup-env.ts'],

@@ -2,5 +2,5 @@
 module.exports = require('../../jest.base.js')('browser', 'test/browser', {
   globalSetup: '<rootDir>/support/global-setup.ts',
   globalTeardown: '<rootDir>/support/global-teardown.ts',
-  testTimeout: 120000,
+  setupFilesAfterEnv: ['<rootDir>/support/test-timeout.ts'],
 });
