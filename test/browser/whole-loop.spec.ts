@@ -39,6 +39,21 @@ async function deskOf(portal: 'lab' | 'client', email: string): Promise<Desk> {
   return desk;
 }
 
+const PARCEL_PHOTO = 'demo-parcel-photo.png';
+
+/** An invented parcel photo, painted by the browser itself so no image file needs to be checked in. */
+async function paintParcelPhoto(): Promise<string> {
+  const path = join(ARTIFACTS, PARCEL_PHOTO);
+  const painter = await browser.newPage({ viewport: { width: 480, height: 360 } });
+  await painter.setContent(
+    '<body style="margin:0;height:100vh;display:grid;place-items:center;background:#b98d55;font:600 26px sans-serif;color:#2b1d0e">' +
+      '<div style="padding:24px 32px;border:6px dashed #2b1d0e;background:#e9d3ac">Invented demo parcel photo</div></body>',
+  );
+  await painter.screenshot({ path });
+  await painter.close();
+  return path;
+}
+
 function needs<K extends keyof typeof handOn>(key: K): NonNullable<(typeof handOn)[K]> {
   const value = handOn[key];
   if (value === undefined) throw new Error(`An earlier step did not produce ${key}; see its failure above.`);
@@ -80,8 +95,11 @@ describe('one suspect sample, from order to verified report', () => {
     await page.getByLabel('Volume').fill('750');
     expect(await page.getByRole('checkbox', { name: 'Seal intact' }).isChecked()).toBe(true);
     await page.getByLabel('Notes').fill('Invented demo parcel, bottle upright, capsule unbroken.');
+    await page.getByLabel('choose photos').setInputFiles(await paintParcelPhoto());
+    await page.getByRole('img', { name: `Preview of ${PARCEL_PHOTO}` }).waitFor();
     await screenshotWhole(page, 'whole-loop-02a-intake-arrival-form');
     await page.getByRole('button', { name: 'Record arrival' }).click();
+    await page.getByText('1 photo saved with the intake record.').first().waitFor();
 
     await page.getByLabel('Storage location').fill('Wine cellar rack 3 (demo)');
     await screenshotWhole(page, 'whole-loop-02b-intake-accept');
@@ -96,6 +114,7 @@ describe('one suspect sample, from order to verified report', () => {
     expect(events.map((e) => /Received|Accepted|Stored/.exec(e)?.[0])).toEqual(['Received', 'Accepted', 'Stored']);
     expect(events.every((e) => e.includes('Ira Intake (demo)'))).toBe(true);
     expect(events[2]).toContain('Wine cellar rack 3 (demo)');
+    await page.getByRole('img', { name: `Intake photo ${PARCEL_PHOTO}` }).waitFor();
     await screenshotWhole(page, 'whole-loop-02c-intake-custody');
   });
 
@@ -105,6 +124,12 @@ describe('one suspect sample, from order to verified report', () => {
     await page.getByRole('table', { name: 'Work queue', exact: true }).getByRole('link', { name: SAMPLE }).click();
     await page.waitForURL(/\/lab\/samples\/[0-9a-f-]{36}$/);
     handOn.sampleId = new URL(page.url()).pathname.split('/').pop();
+    await page.getByRole('button', { name: `Open photo ${PARCEL_PHOTO}` }).click();
+    const viewer = page.getByRole('dialog', { name: PARCEL_PHOTO });
+    await viewer.getByText('Taken in by Ira Intake (demo)').waitFor();
+    await screenshotWhole(page, 'whole-loop-03-intake-photo');
+    await viewer.getByRole('button', { name: 'Close' }).click();
+    await viewer.waitFor({ state: 'detached' });
 
     // a select with no options yet does not open, so wait for the bench list as a person waits for the page
     const bench = page.waitForResponse((r) => r.url().endsWith('/api/lab/bench') && r.ok());

@@ -33,7 +33,10 @@ export const QualityFlagSchema = z.object({
 export type QualityFlag = z.infer<typeof QualityFlagSchema>;
 
 export const FittedParameterSchema = z.object({
+  /** The model's own parameter name, as in its definition (rInf, tau, q …). */
   name: z.string(),
+  /** What a reader calls it, with its symbol ("Relaxation time τ"); absent on lab-defined models. */
+  description: z.string().optional(),
   value: z.number(),
   standardError: z.number().nullable(),
   unit: z.string(),

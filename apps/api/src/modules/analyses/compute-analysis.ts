@@ -27,12 +27,13 @@ export interface ComputedAnalysis {
 const points = (s: Spectrum): SpectrumPoints => ({ frequencyHz: Array.from(s.frequencyHz), re: Array.from(s.re), im: Array.from(s.im) });
 
 function fittedParameters(model: string, fit: FitSuccess): FittedParameter[] {
-  const units = new Map(MODEL_CATALOG.find((m) => m.name === model)?.parameters.map((p) => [p.name, p.unit]) ?? []);
+  const catalog = new Map(MODEL_CATALOG.find((m) => m.name === model)?.parameters.map((p) => [p.name, p]) ?? []);
   return fit.parameterNames.map((name) => ({
     name,
+    ...(catalog.get(name)?.description ? { description: catalog.get(name)?.description } : {}),
     value: fit.parameters[name],
     standardError: Number.isFinite(fit.standardErrors[name]) ? fit.standardErrors[name] : null,
-    unit: (units.get(name) ?? '').replace('Ω', 'Ω·cm'),
+    unit: (catalog.get(name)?.unit ?? '').replace('Ω', 'Ω·cm'),
   }));
 }
 

@@ -52,6 +52,12 @@ describe('analysis', () => {
     expect(r.map.lots).toHaveLength(12);
     expect(r.histogram.counts.reduce((a: number, b: number) => a + b, 0)).toBe(12);
     expect(r.fit.parameters.map((p: { name: string }) => p.name)).toEqual(['rInf', 'r0', 'tau', 'alpha']);
+    expect(r.fit.parameters.map((p: { description: string }) => p.description)).toEqual([
+      'High-frequency resistance R∞',
+      'Low-frequency resistance R0',
+      'Relaxation time τ',
+      'Dispersion exponent α (1 = single relaxation)',
+    ]);
     expect(res.body.method).toMatchObject({ model: 'cole-cole', gridPoints: 41, referenceTemperatureC: 20 });
     expect(res.body.engineVersion).toMatch(/^\d+\.\d+\.\d+/);
   });

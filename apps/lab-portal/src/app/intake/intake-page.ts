@@ -15,6 +15,7 @@ import { CONTAINER_CONDITIONS, SampleCodeSchema, type CustodyEvent, type SampleD
 import { ApiProblem, Notice, Notifier, SampleStateChip, showFieldErrors } from '@ohmprint/ui';
 import { CustodyTimeline } from './custody-timeline';
 import { IntakeData } from './intake-data';
+import { IntakePhotos } from './intake-photos';
 import { PhotoPicker } from './photo-picker';
 import { RejectDialog } from './reject-dialog';
 import { toLocalInput } from './local-time';
@@ -28,7 +29,7 @@ import { toLocalInput } from './local-time';
   changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [
     DatePipe, ReactiveFormsModule, RouterLink, MatButtonModule, MatCardModule, MatCheckboxModule, MatFormFieldModule,
-    MatIconModule, MatInputModule, MatProgressBarModule, MatSelectModule, Notice, SampleStateChip, CustodyTimeline, PhotoPicker,
+    MatIconModule, MatInputModule, MatProgressBarModule, MatSelectModule, Notice, SampleStateChip, CustodyTimeline, IntakePhotos, PhotoPicker,
   ],
   templateUrl: './intake-page.html',
   styleUrl: './intake-page.scss',

@@ -9,13 +9,14 @@ import { SampleStateChip, Session } from '@ohmprint/ui';
 import { AnalysisPanel } from '../analyses/analysis-panel';
 import { CustodyTimeline } from '../intake/custody-timeline';
 import { IntakeData } from '../intake/intake-data';
+import { IntakePhotos } from '../intake/intake-photos';
 import { MeasurementsPanel } from '../measurements/measurements-panel';
 
 /** One sample, for everyone in the lab: order, intake, custody, measurements and analysis. */
 @Component({
   selector: 'ohm-sample-page',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [DatePipe, RouterLink, MatCardModule, MatProgressBarModule, MatTabsModule, SampleStateChip, CustodyTimeline, MeasurementsPanel, AnalysisPanel],
+  imports: [DatePipe, RouterLink, MatCardModule, MatProgressBarModule, MatTabsModule, SampleStateChip, CustodyTimeline, IntakePhotos, MeasurementsPanel, AnalysisPanel],
   templateUrl: './sample-page.html',
   styleUrl: './sample-page.scss',
 })

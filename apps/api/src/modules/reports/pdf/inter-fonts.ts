@@ -14,7 +14,7 @@ const SUBSETS = ['latin', 'greek', 'latin-ext'] as const;
 const WEIGHTS: InterWeight[] = [400, 600, 700];
 
 /** Glyphs Inter's subsets do not carry, written the way a reader would still understand. */
-const STAND_INS: Record<string, string> = { '≤': '<=', '≥': '>=', '∥': '||', '√': 'sqrt ' };
+const STAND_INS: Record<string, string> = { '≤': '<=', '≥': '>=', '∥': '||', '√': 'sqrt ', '∞': 'infinity' };
 
 function packageDir(): string {
   return dirname(require.resolve('@fontsource/inter/package.json'));
@@ -78,7 +78,8 @@ const SUPERSCRIPT_PLAIN = '0123456789+-n';
 
 /** Superscripts outside Latin-1 (ⁿ, ⁻, ⁴…) have no glyph, so units such as cm⁻¹ read as cm^-1. */
 function writeSuperscriptsPlainly(text: string): string {
-  return text.replace(/[⁰¹²³⁴⁵⁶⁷⁸⁹⁺⁻ⁿ]+/g, (run) =>
+  // A symbol's ∞ subscript (R∞) reads as R_inf, the way plain-text engineering notation writes it.
+  return text.replace(/(\p{L})∞/gu, '$1_inf').replace(/[⁰¹²³⁴⁵⁶⁷⁸⁹⁺⁻ⁿ]+/g, (run) =>
     /^[¹²³]$/.test(run) ? run : `^${[...run].map((c) => SUPERSCRIPT_PLAIN[SUPERSCRIPTS.indexOf(c)]).join('')}`,
   );
 }

@@ -198,13 +198,13 @@ function writeParameters(flow: Flow, data: ReportData): void {
   const r = data.results;
   flow.heading('Fitted model parameters and data quality');
   const { doc } = flow;
-  const cols = [PAGE.left, PAGE.left + 170, PAGE.left + 290, PAGE.left + 410];
+  const cols = [PAGE.left, PAGE.left + 210, PAGE.left + 310, PAGE.left + 420];
   flow.ensure(16 + 13 * (r.fittedParameters.length + 1));
   ['Parameter', 'Value', 'Standard error', 'Unit'].forEach((h, i) => write(doc, h, { size: 8, weight: 600, color: INK.muted, lineBreak: false }, cols[i], flow.y));
   flow.y += 13;
   for (const p of r.fittedParameters) {
     flow.ensure(13);
-    const cells = [p.name, formatNumber(p.value, 4), p.standardError === null ? 'not estimated' : formatNumber(p.standardError, 2), p.unit || 'none'];
+    const cells = [p.description ?? p.name, formatNumber(p.value, 4), p.standardError === null ? 'not estimated' : formatNumber(p.standardError, 2), p.unit || 'none'];
     cells.forEach((c, i) => write(doc, c, { size: 8.5, lineBreak: false }, cols[i], flow.y));
     flow.y += 13;
   }
