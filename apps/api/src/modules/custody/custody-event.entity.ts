@@ -13,4 +13,6 @@ export class CustodyEvent {
   @Column({ name: 'actor_user_id', type: 'uuid' }) actorUserId!: string;
   @Column({ name: 'occurred_at', type: 'timestamptz' }) occurredAt!: Date;
   @Column({ name: 'recorded_at', type: 'timestamptz' }) recordedAt!: Date;
+  /** Append order, the tie-break between events of one moment; the database numbers it. */
+  @Column({ name: 'entry_no', type: 'bigint', insert: false, update: false }) entryNo!: string;
 }

@@ -14,7 +14,7 @@ export async function custodyTimeline(manager: EntityManager, labId: string, sam
       `SELECT e.id, e.kind, e.location, e.reason, e.occurred_at, e.recorded_at, u.id AS actor_id, u.display_name AS actor_name
        FROM custody_event e JOIN app_user u ON u.id = e.actor_user_id
        WHERE e.lab_id = $1 AND e.sample_id = $2
-       ORDER BY e.occurred_at, e.recorded_at, e.id`,
+       ORDER BY e.occurred_at, e.entry_no`,
       [labId, sampleId],
     );
   return {

@@ -119,6 +119,23 @@ describe('chain of custody is append-only', () => {
     expect(res.body.events.at(-1)).toMatchObject({ kind: 'taken-for-measurement', location: 'Bench 1', reason: 'Replicate sweeps', actor: { displayName: 'Ana Lyst (demo)' } });
   });
 
+  it('keeps events of one moment in the order they were appended, whatever their ids', async () => {
+    const id = await sampleId('OP-7K3M-Q9');
+    const actor = await t.userIdFor('intake-technician');
+    const [{ lab_id: labId }] = await t.db.query('SELECT lab_id FROM sample WHERE id = $1', [id]);
+    const moment = '2030-01-01T09:00:00.000Z';
+    // ids chosen so that sorting by id would put the later event first
+    for (const [eventId, location] of [['ffffffff-0000-4000-8000-000000000001', 'Shelf B'], ['00000000-0000-4000-8000-000000000002', 'Shelf C']]) {
+      await t.db.query(
+        `INSERT INTO custody_event (id, lab_id, sample_id, kind, location, reason, actor_user_id, occurred_at, recorded_at)
+         VALUES ($1, $2, $3, 'moved', $4, 'Invented reshuffle', $5, $6, $6)`,
+        [eventId, labId, id, location, actor, moment],
+      );
+    }
+    const res = await request(t.app).get(`/api/lab/samples/${id}/custody`).set(await t.authFor('analyst'));
+    expect(res.body.events.slice(-2).map((e: { location: string }) => e.location)).toEqual(['Shelf B', 'Shelf C']);
+  });
+
   it('offers no route to change or delete an event', async () => {
     const id = await sampleId('OP-7K3M-Q9');
     const [event] = await t.db.query('SELECT id FROM custody_event WHERE sample_id = $1 LIMIT 1', [id]);

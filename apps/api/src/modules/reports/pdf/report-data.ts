@@ -56,6 +56,8 @@ export interface ReportMethod {
 
 export interface FittedParameter {
   name: string;
+  /** Printed in place of the name when the model's catalog gives one ("Relaxation time τ"). */
+  description?: string;
   value: number;
   standardError: number | null;
   unit: string;
