@@ -20,7 +20,7 @@ export { mean, variance, standardDeviation, summarise, type Summary } from './st
 export { quantile, QUANTILE_DEFINITION_NAMES, type QuantileDefinition } from './statistics/quantile';
 export { regularisedIncompleteBeta } from './statistics/incomplete-beta';
 export { impedance } from './models/impedance';
-export { MODEL_CATALOG } from './models/model-catalog';
+export { MODEL_CATALOG, modelLabel } from './models/model-catalog';
 export type { ModelName } from './models/builtin-models';
 export type { ImpedanceModel, ModelDescription, ModelParameter } from './models/model-types';
 export { defineExpressionModel, type ExpressionModelOptions } from './models/expression-model';

@@ -49,6 +49,16 @@ export async function screenshotWhole(page: Page, name: string): Promise<void> {
   const size = page.viewportSize() ?? { width: 1280, height: 900 };
   const tallest = await page.evaluate(() => Math.max(...Array.from(document.querySelectorAll('*'), (e) => (e.scrollHeight > e.clientHeight + 1 ? e.scrollHeight : 0)), document.documentElement.scrollHeight));
   await page.setViewportSize({ width: size.width, height: Math.min(6000, Math.max(size.height, tallest + 80)) });
+  // a dialog or snack bar still fading in would be caught half transparent
+  // (endless ones, such as a progress bar's, are left running)
+  await page.evaluate(() =>
+    Promise.all(
+      document
+        .getAnimations()
+        .filter((a) => a.effect?.getComputedTiming().iterations !== Infinity)
+        .map((a) => a.finished.catch(() => undefined)),
+    ),
+  );
   await screenshot(page, name);
   await page.setViewportSize(size);
 }

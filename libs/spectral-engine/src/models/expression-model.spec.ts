@@ -1,5 +1,5 @@
 import { impedance } from './impedance';
-import { MODEL_CATALOG } from './model-catalog';
+import { MODEL_CATALOG, modelLabel } from './model-catalog';
 import { ModelDefinitionError } from './model-definition-error';
 import { BUILTIN_MODELS } from './builtin-models';
 import { defineExpressionModel } from './expression-model';
@@ -71,6 +71,11 @@ describe('model catalog', () => {
       ['alpha', '1', 0, 1],
     ]);
     expect(JSON.parse(JSON.stringify(MODEL_CATALOG))).toEqual(MODEL_CATALOG);
+  });
+
+  it('names a built-in model as a reader calls it and leaves a lab-defined one as the lab named it', () => {
+    expect(modelLabel('cole-cole')).toBe('Cole–Cole relaxation');
+    expect(modelLabel('our-two-arc-model')).toBe('our-two-arc-model');
   });
 
   it('evaluates every catalog model to finite values across 10 mHz to 10 MHz', () => {

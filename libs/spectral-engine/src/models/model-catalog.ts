@@ -11,3 +11,8 @@ export const MODEL_CATALOG: readonly ModelDescription[] = [...BUILTIN_MODELS.val
   formula: m.formula,
   parameters: m.parameters.map((p) => ({ ...p })),
 }));
+
+/** What a reader calls a model ("Cole–Cole relaxation"); a lab-defined model keeps its own name. */
+export function modelLabel(name: string): string {
+  return BUILTIN_MODELS.get(name)?.label ?? name;
+}

@@ -1,4 +1,5 @@
 import type { EntityManager } from 'typeorm';
+import { modelLabel } from '@ohmprint/spectral-engine';
 import type { ReportContent } from '../reports/pdf/report-data';
 import type { Analysis } from '../analyses/analysis.entity';
 import { publishedLibrary } from '../libraries/published-library';
@@ -84,7 +85,7 @@ export async function reportContentFor(manager: EntityManager, analysis: Analysi
       gridPoints: m.gridPoints,
       referenceTemperatureC: m.referenceTemperatureC,
       temperatureCoefficientPerC: m.temperatureCoefficientPerC,
-      modelName: m.model,
+      modelName: modelLabel(m.model) === m.model ? m.model : `${modelLabel(m.model)} (${m.model})`,
       quantiles: { lower: m.lowerQuantile, upper: m.upperQuantile },
       library: { productName: library.productName, version: String(library.version), lotCount: library.lots.length, publishedAt: library.publishedAt.toISOString() },
       engineVersion: analysis.engineVersion,

@@ -3,6 +3,7 @@ import { ChangeDetectionStrategy, Component, computed, effect, inject, input, si
 import { MatIconModule } from '@angular/material/icon';
 import type { Analysis } from '@ohmprint/contracts';
 import { BodeChart, DistanceHistogram, LibraryMap, NyquistChart, ScreeningCaution, VerdictChip, formatNumber, type DistanceHistogramInput, type MapPoint, type ReferenceBand, type SpectrumSeries } from '@ohmprint/ui';
+import { modelLabel } from '@ohmprint/spectral-engine';
 import { AnalysesData } from './analyses-data';
 import { referenceBandOf } from './reference-band';
 
@@ -33,6 +34,7 @@ export class AnalysisResult {
 
   /** Significant digits, not decimals: fitted time constants run to microseconds. */
   protected readonly fmt = formatNumber;
+  protected readonly modelLabel = modelLabel;
   protected readonly result = computed(() => this.analysis().result);
   protected readonly histogram = computed<DistanceHistogramInput>(() => {
     const r = this.result();
