@@ -12,4 +12,6 @@ export class IntakePhoto {
   @Column({ type: 'bytea', select: false }) content!: Buffer;
   @Column({ name: 'uploaded_by_user_id', type: 'uuid' }) uploadedByUserId!: string;
   @Column({ name: 'uploaded_at', type: 'timestamptz' }) uploadedAt!: Date;
+  /** Append order, so the photos of one upload keep the order they were sent in. */
+  @Column({ name: 'entry_no', type: 'bigint', insert: false, update: false }) entryNo!: string;
 }

@@ -62,6 +62,18 @@ describe('intake', () => {
     expect(timeline.body.events[0].actor.displayName).toBe('Ira Intake (demo)');
   });
 
+  it('keeps the photos of one upload in the order they were sent', async () => {
+    const id = await sampleId('OP-7K3M-Q9');
+    const names = ['seal-close-up.png', 'address-label.png', 'bottle-front.png', 'capsule.png'];
+    let upload = request(t.app).post(`/api/lab/samples/${id}/photos`).set(await t.authFor('intake-technician'));
+    for (const name of names) upload = upload.attach('photos', PNG, name);
+    const res = await upload;
+    expect(res.status).toBe(201);
+    expect(res.body.slice(-4).map((p: { fileName: string }) => p.fileName)).toEqual(names);
+    const detail = await request(t.app).get(`/api/lab/samples/${id}`).set(await t.authFor('analyst'));
+    expect(detail.body.photos.slice(-4).map((p: { fileName: string }) => p.fileName)).toEqual(names);
+  });
+
   it('refuses a file that is not an image, by name, and saves none of the batch', async () => {
     const intake = await t.authFor('intake-technician');
     const id = await sampleId('OP-1PYF-9C');

@@ -173,7 +173,7 @@ export async function samplePhotos(manager: EntityManager, labId: string, sample
     await manager.query(
       `SELECT ph.id, ph.file_name, ph.content_type, ph.size_bytes, ph.uploaded_at, u.id AS by_id, u.display_name AS by_name
        FROM intake_photo ph JOIN app_user u ON u.id = ph.uploaded_by_user_id
-       WHERE ph.lab_id = $1 AND ph.sample_id = $2 ORDER BY ph.uploaded_at, ph.id`,
+       WHERE ph.lab_id = $1 AND ph.sample_id = $2 ORDER BY ph.uploaded_at, ph.entry_no`,
       [labId, sampleId],
     );
   return rows.map((p) => ({
