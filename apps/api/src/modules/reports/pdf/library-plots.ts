@@ -43,12 +43,18 @@ export function drawDistanceHistogram(doc: PDFKit.PDFDocument, box: Box, plots: 
   ];
   let lastRight = -Infinity;
   let row = 0;
+  // left to right, so each label only has to clear the one drawn before it
+  labels.sort((a, b) => (a[0] ?? 0) - (b[0] ?? 0));
   for (const [value, text, color] of labels) {
     if (value === null) continue;
     const at = px(box, x, value);
     const w = widthOf(doc, text, 600, 6.5);
     row = at - w / 2 < lastRight + 2 ? row + 1 : 0;
-    write(doc, text, { size: 6.5, weight: 600, color, lineBreak: false }, Math.min(at - w / 2, box.x + box.w - w), box.y + 2 + row * 8);
+    const left = Math.min(at - w / 2, box.x + box.w - w);
+    const top = box.y + 2 + row * 9;
+    // a knockout behind the label, so the marked lines do not run through its letters
+    doc.save().rect(left - 1.5, top - 0.5, w + 3, 8.5).fill('#ffffff').restore();
+    write(doc, text, { size: 6.5, weight: 600, color, lineBreak: false }, left, top);
     lastRight = at + w / 2;
   }
 }
