@@ -7,7 +7,8 @@ import type { Browser } from 'playwright-core';
 import { launchBrowser, url } from './support/browser';
 import { pdfPlainText, pdfSignatureReport } from './support/report-pdf-checks';
 import { exportsFor } from './support/replicate-exports';
-import { accessTokenFor, openFromMenu, screenshotWhole, signInAt, type Desk } from './support/desk';
+import { describeFindings } from './support/accessibility';
+import { accessTokenFor, accessibilitySoFar, openFromMenu, screenshotWhole, signInAt, type Desk } from './support/desk';
 import { ARTIFACTS } from './support/stack';
 
 /** A seeded Ridgeline Red (demo) sample of Hollin Ridge Cellars, still awaiting arrival. */
@@ -279,5 +280,11 @@ describe('one suspect sample, from order to verified report', () => {
     expect(await page.getByRole('heading', { name: 'Valid report' }).count()).toBe(0);
     await page.getByRole('heading', { name: 'This copy is not the PDF the lab issued' }).waitFor();
     await screenshotWhole(page, 'whole-loop-06c-verify-altered-file');
+  });
+
+  it('7. every screen photographed on the way passes the automated WCAG 2.1 A and AA checks (axe-core)', () => {
+    const { screens, findings } = accessibilitySoFar();
+    expect(screens).toHaveLength(14);
+    expect(describeFindings(findings)).toBe('');
   });
 });

@@ -1,5 +1,6 @@
 // A person signs into their portal in a fresh browser context of their own, as they would at their desk.
 import type { Browser, BrowserContext, Page } from 'playwright-core';
+import { accessibilityFindings, type ScreenFinding } from './accessibility';
 import { DEMO_PASSWORD, screenshot, url } from './browser';
 
 export interface Desk {
@@ -41,6 +42,13 @@ export async function openFromMenu(page: Page, label: string): Promise<void> {
   await page.waitForFunction((el) => el?.getAttribute('aria-current') === 'page', await link.elementHandle());
 }
 
+const checked = { screens: [] as string[], findings: [] as ScreenFinding[] };
+
+/** The screens photographed so far, and what the automated accessibility checks found on them. */
+export function accessibilitySoFar(): { readonly screens: readonly string[]; readonly findings: readonly ScreenFinding[] } {
+  return checked;
+}
+
 /**
  * The portals scroll inside the shell, not the document, so a full-page capture stops at the
  * window: grow the window to the tallest scrolling area for the picture, then put it back.
@@ -59,6 +67,10 @@ export async function screenshotWhole(page: Page, name: string): Promise<void> {
         .map((a) => a.finished.catch(() => undefined)),
     ),
   );
+  // a snack bar keeps its message aria-hidden for a moment, until it has been handed to the live region
+  await page.waitForFunction(() => !document.querySelector('.mat-mdc-snack-bar-label > [aria-hidden="true"]'), null, { timeout: 5_000 });
+  checked.screens.push(name);
+  checked.findings.push(...(await accessibilityFindings(page, name)));
   await screenshot(page, name);
   await page.setViewportSize(size);
 }
