@@ -25,6 +25,8 @@ interface AxeResult {
 
 /** Every violation on the screen as it is now, one line each, ready to print in a failure. */
 export async function accessibilityFindings(page: Page, screen: string): Promise<ScreenFinding[]> {
+  // colours caught mid-transition (a scheme switch, a label floating up) would be misjudged
+  await settleAnimations(page);
   const hasAxe = await page.evaluate(() => 'axe' in window);
   if (!hasAxe) await page.evaluate(AXE_SOURCE);
   const result = (await page.evaluate(
@@ -39,6 +41,18 @@ export async function accessibilityFindings(page: Page, screen: string): Promise
     targets: v.nodes.slice(0, 5).map((n) => n.target.map(String).join(' ')),
     detail: (v.nodes[0]?.failureSummary ?? '').replace(/\s+/g, ' ').trim(),
   }));
+}
+
+/** Waits for running animations and transitions to end; endless ones (a progress bar's) are left running. */
+export async function settleAnimations(page: Page): Promise<void> {
+  await page.evaluate(() =>
+    Promise.all(
+      document
+        .getAnimations()
+        .filter((a) => a.effect?.getComputedTiming().iterations !== Infinity)
+        .map((a) => a.finished.catch(() => undefined)),
+    ),
+  );
 }
 
 export function describeFindings(findings: readonly ScreenFinding[]): string {

@@ -1,6 +1,6 @@
 // A person signs into their portal in a fresh browser context of their own, as they would at their desk.
 import type { Browser, BrowserContext, Page } from 'playwright-core';
-import { accessibilityFindings, type ScreenFinding } from './accessibility';
+import { accessibilityFindings, settleAnimations, type ScreenFinding } from './accessibility';
 import { DEMO_PASSWORD, screenshot, url } from './browser';
 
 export interface Desk {
@@ -58,15 +58,7 @@ export async function screenshotWhole(page: Page, name: string): Promise<void> {
   const tallest = await page.evaluate(() => Math.max(...Array.from(document.querySelectorAll('*'), (e) => (e.scrollHeight > e.clientHeight + 1 ? e.scrollHeight : 0)), document.documentElement.scrollHeight));
   await page.setViewportSize({ width: size.width, height: Math.min(6000, Math.max(size.height, tallest + 80)) });
   // a dialog or snack bar still fading in would be caught half transparent
-  // (endless ones, such as a progress bar's, are left running)
-  await page.evaluate(() =>
-    Promise.all(
-      document
-        .getAnimations()
-        .filter((a) => a.effect?.getComputedTiming().iterations !== Infinity)
-        .map((a) => a.finished.catch(() => undefined)),
-    ),
-  );
+  await settleAnimations(page);
   // a snack bar keeps its message aria-hidden for a moment, until it has been handed to the live region
   await page.waitForFunction(() => !document.querySelector('.mat-mdc-snack-bar-label > [aria-hidden="true"]'), null, { timeout: 5_000 });
   checked.screens.push(name);

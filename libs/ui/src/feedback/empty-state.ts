@@ -8,7 +8,11 @@ import { MatIconModule } from '@angular/material/icon';
   imports: [MatIconModule],
   template: `
     <mat-icon class="icon" aria-hidden="true">{{ icon() }}</mat-icon>
-    <h2>{{ heading() }}</h2>
+    @if (pageHeading()) {
+      <h1>{{ heading() }}</h1>
+    } @else {
+      <h2>{{ heading() }}</h2>
+    }
     <div class="body"><ng-content /></div>
   `,
   styles: `
@@ -27,6 +31,7 @@ import { MatIconModule } from '@angular/material/icon';
       font-size: 48px;
       color: var(--mat-sys-primary);
     }
+    h1,
     h2 {
       margin: 0;
       font: var(--mat-sys-title-medium);
@@ -41,4 +46,6 @@ import { MatIconModule } from '@angular/material/icon';
 export class EmptyState {
   readonly icon = input('inbox');
   readonly heading = input.required<string>();
+  /** True when the empty state is the whole page, so its heading is the page's h1. */
+  readonly pageHeading = input(false);
 }

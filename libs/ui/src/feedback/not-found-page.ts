@@ -8,7 +8,7 @@ import { EmptyState } from './empty-state';
   changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [EmptyState, MatButtonModule, RouterLink],
   template: `
-    <ohm-empty-state icon="explore_off" heading="There is no page at this address">
+    <ohm-empty-state icon="explore_off" heading="There is no page at this address" [pageHeading]="true">
       <p>The link may be old, or the page may have moved. Use the navigation, or start again from home.</p>
       <a mat-flat-button routerLink="/">Go to home</a>
     </ohm-empty-state>
