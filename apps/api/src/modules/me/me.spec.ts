@@ -1,4 +1,5 @@
 import request from 'supertest';
+import { createApp } from '../../app';
 import { useTestApp } from '../../testing';
 
 const t = useTestApp();
@@ -63,5 +64,16 @@ describe('sign-in rate limit', () => {
     expect(blocked.body.title).toBe('Too many failed sign-ins');
     // Other addresses from the same client are not affected.
     expect((await request(t.app).post('/api/auth/sign-in').send({ email: 'analyst@calder.test', password: 'ohmprint-demo-2026' })).status).toBe(200);
+  });
+});
+
+describe('sign-in rate limit across API processes', () => {
+  it('counts failures on every process together, since the counts live in PostgreSQL', async () => {
+    // two apps built apart, as two processes behind a load balancer would be
+    const [first, second] = [createApp(), createApp()];
+    const attempt = (app: typeof first) => request(app).post('/api/auth/sign-in').send({ email: 'analyst@calder.test', password: 'guess-guess-guess' });
+    for (let i = 0; i < 10; i++) expect((await attempt(i % 2 === 0 ? first : second)).status).toBe(401);
+    expect((await attempt(first)).status).toBe(429);
+    expect((await attempt(second)).status).toBe(429);
   });
 });

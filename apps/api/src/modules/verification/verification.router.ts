@@ -7,6 +7,7 @@ import {
   type VerifyReportQuery,
 } from '@ohmprint/contracts';
 import { ApiError, validate } from '../../core';
+import { PostgresRateStore } from '../../core/postgres-rate-store';
 import { dataSource } from '../../db/data-source';
 import { registerRoute } from '../../openapi/registry';
 import { singleFileUpload } from '../reports/single-file-upload';
@@ -30,6 +31,7 @@ export function verificationRouter({ limit = 30, windowMs = 60_000 }: Verificati
       limit,
       standardHeaders: 'draft-8',
       legacyHeaders: false,
+      store: new PostgresRateStore(dataSource, 'verify:'),
       handler: (_req, _res, next) => {
         next(new ApiError(429, 'Too many checks', `At most ${limit} checks per ${Math.round(windowMs / 1000)} seconds from one address; wait a moment and try again.`, { type: 'rate-limited' }));
       },
