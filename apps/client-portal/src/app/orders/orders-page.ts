@@ -21,6 +21,7 @@ import { OrdersData } from './orders-data';
   templateUrl: './orders-page.html',
   styles: `
     .filters { display: flex; flex-wrap: wrap; gap: 8px 16px; align-items: center; }
+    .filters mat-button-toggle-group { max-width: 100%; overflow-x: auto; }
     .samples { list-style: none; margin: 0; padding: 4px 0; display: flex; flex-direction: column; gap: 4px; }
     .samples li { display: flex; gap: 8px; align-items: center; flex-wrap: wrap; }
     .code { font-family: ui-monospace, monospace; font-weight: 600; }
