@@ -3,3 +3,4 @@ export { useTestApp, type TestApp } from './test-app';
 export { demoEmail, DEMO_PASSWORD, type DemoLabKey } from './demo-accounts';
 export { readMailbox, clearMailbox, type CaughtMail } from './mailbox';
 export { latestEmailTo, linkToken } from './outbox';
+export { analyseDemoSample, measureDemoSample, type MeasuredDemoSample } from './demo-workflow';

@@ -1,37 +1,28 @@
 import request from 'supertest';
 import { spectrumDistance } from '@ohmprint/spectral-engine';
 import { seedLabDemo } from '../../../../../docker-free-scripts/seed/lab-demo';
-import { demoFiles } from '../../../../../docker-free-scripts/seed/lab-demo-files';
-import { useTestApp } from '../../testing';
+import { measureDemoSample, useTestApp } from '../../testing';
 
 jest.setTimeout(30_000);
 
 const t = useTestApp();
 const CODE = 'OP-9RWD-6F';
 let versionId: string;
-let sampleId: string;
 
 beforeAll(async () => {
   await t.db.transaction((m) => seedLabDemo(m));
   const [row] = await t.db.query(
-    `SELECT s.id AS sample_id, v.id AS version_id FROM sample s JOIN test_order o ON o.id = s.order_id
-     JOIN reference_library l ON l.product_id = o.product_id JOIN library_version v ON v.library_id = l.id AND v.status = 'published'
-     WHERE s.code = $1`,
+    `SELECT v.id FROM library_version v JOIN reference_library l ON l.id = v.library_id JOIN test_order o ON o.product_id = l.product_id
+     JOIN sample s ON s.order_id = o.id WHERE s.code = $1 AND v.status = 'published'`,
     [CODE],
   );
-  versionId = row.version_id;
-  sampleId = row.sample_id;
+  versionId = row.id;
 });
 
 describe('reference spectra of a published library version', () => {
   it('gives every lot on the version grid, the same data the analysis scored the sample against', async () => {
     const analyst = await t.authFor('analyst');
-    const bench = (await request(t.app).get('/api/lab/bench').set(analyst)).body;
-    const files = demoFiles().filter((f) => f.sampleCode === CODE);
-    let upload = request(t.app).post(`/api/lab/samples/${CODE}/measurements`).set(analyst)
-      .field('instrumentId', bench.instruments[0].id).field('cellId', bench.cells[0].id).field('temperatureC', String(files[0].temperatureC));
-    for (const f of files) upload = upload.attach('files', Buffer.from(f.text), f.fileName);
-    expect((await upload).status).toBe(201);
+    const { sampleId } = await measureDemoSample(t, CODE);
     const run = await request(t.app).post(`/api/lab/samples/${sampleId}/analyses`).set(analyst).send({ libraryVersionId: versionId });
     expect(run.status).toBe(201);
 

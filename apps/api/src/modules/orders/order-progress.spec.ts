@@ -1,7 +1,6 @@
 import request from 'supertest';
 import { seedLabDemo } from '../../../../../docker-free-scripts/seed/lab-demo';
-import { demoFiles } from '../../../../../docker-free-scripts/seed/lab-demo-files';
-import { useTestApp } from '../../testing';
+import { analyseDemoSample, useTestApp } from '../../testing';
 
 // Issuing the first report creates the lab's signing credential, which takes seconds.
 jest.setTimeout(60_000);
@@ -27,22 +26,10 @@ describe('order status follows its samples', () => {
     expect(await orderStatusOf('OP-1PYF-9C')).toBe('in-progress');
 
     const analyst = await t.authFor('analyst');
-    const bench = (await request(t.app).get('/api/lab/bench').set(analyst)).body;
-    const files = demoFiles().filter((f) => f.sampleCode === 'OP-6TBS-3H');
-    let upload = request(t.app).post('/api/lab/samples/OP-6TBS-3H/measurements').set(analyst)
-      .field('instrumentId', bench.instruments[0].id).field('cellId', bench.cells[0].id).field('temperatureC', String(files[0].temperatureC));
-    for (const f of files) upload = upload.attach('files', Buffer.from(f.text), f.fileName);
-    expect((await upload).status).toBe(201);
-    const [row] = await t.db.query(
-      `SELECT s.id AS sample_id, v.id AS version_id FROM sample s JOIN test_order o ON o.id = s.order_id
-       JOIN reference_library l ON l.product_id = o.product_id JOIN library_version v ON v.library_id = l.id AND v.status = 'published'
-       WHERE s.code = 'OP-6TBS-3H'`,
-    );
-    const run = await request(t.app).post(`/api/lab/samples/${row.sample_id}/analyses`).set(analyst).send({ libraryVersionId: row.version_id });
-    expect(run.status).toBe(201);
-    expect((await request(t.app).post(`/api/lab/analyses/${run.body.id}/submit`).set(analyst)).status).toBe(200);
+    const analysisId = await analyseDemoSample(t, 'OP-6TBS-3H');
+    expect((await request(t.app).post(`/api/lab/analyses/${analysisId}/submit`).set(analyst)).status).toBe(200);
     expect(await orderStatusOf('OP-6TBS-3H')).toBe('in-progress');
-    expect((await request(t.app).post(`/api/lab/analyses/${run.body.id}/approve`).set(await t.authFor('reviewer')).send({ comments: 'Agreed.' })).status).toBe(200);
+    expect((await request(t.app).post(`/api/lab/analyses/${analysisId}/approve`).set(await t.authFor('reviewer')).send({ comments: 'Agreed.' })).status).toBe(200);
 
     expect(await orderStatusOf('OP-6TBS-3H')).toBe('completed');
   });

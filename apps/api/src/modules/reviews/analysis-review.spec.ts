@@ -1,45 +1,18 @@
 import request from 'supertest';
 import { seedLabDemo } from '../../../../../docker-free-scripts/seed/lab-demo';
-import { demoFiles } from '../../../../../docker-free-scripts/seed/lab-demo-files';
-import { useTestApp } from '../../testing';
+import { analyseDemoSample, measureDemoSample, useTestApp } from '../../testing';
 
 // Issuing the first report creates the lab's signing credential, which takes seconds.
 jest.setTimeout(30_000);
 
 const t = useTestApp();
-let bench: { instrumentId: string; cellId: string };
 
 beforeAll(async () => {
   await t.db.transaction((m) => seedLabDemo(m));
-  const res = await request(t.app).get('/api/lab/bench').set(await t.authFor('analyst'));
-  bench = { instrumentId: res.body.instruments[0].id, cellId: res.body.cells[0].id };
 });
 
-async function measured(code: string): Promise<{ sampleId: string; versionId: string }> {
-  const files = demoFiles().filter((f) => f.sampleCode === code);
-  let req = request(t.app)
-    .post(`/api/lab/samples/${code}/measurements`)
-    .set(await t.authFor('analyst'))
-    .field('instrumentId', bench.instrumentId)
-    .field('cellId', bench.cellId)
-    .field('temperatureC', String(files[0].temperatureC));
-  for (const f of files) req = req.attach('files', Buffer.from(f.text), f.fileName);
-  expect((await req).status).toBe(201);
-  const [row] = await t.db.query(
-    `SELECT s.id AS sample_id, v.id AS version_id FROM sample s JOIN test_order o ON o.id = s.order_id
-     JOIN reference_library l ON l.product_id = o.product_id JOIN library_version v ON v.library_id = l.id AND v.status = 'published'
-     WHERE s.code = $1`,
-    [code],
-  );
-  return { sampleId: row.sample_id, versionId: row.version_id };
-}
-
-async function analysed(code: string): Promise<string> {
-  const { sampleId, versionId } = await measured(code);
-  const res = await request(t.app).post(`/api/lab/samples/${sampleId}/analyses`).set(await t.authFor('analyst')).send({ libraryVersionId: versionId });
-  expect(res.status).toBe(201);
-  return res.body.id;
-}
+const measured = (code: string) => measureDemoSample(t, code);
+const analysed = (code: string) => analyseDemoSample(t, code);
 
 describe('analysis', () => {
   it('gives the verdict the demo files were made for, with map, histogram, fit and method snapshot', async () => {

@@ -4,8 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import request from 'supertest';
 import { seedLabDemo } from '../../../../../docker-free-scripts/seed/lab-demo';
-import { demoFiles } from '../../../../../docker-free-scripts/seed/lab-demo-files';
-import { useTestApp } from '../../testing';
+import { analyseDemoSample, useTestApp } from '../../testing';
 import { DEMO_MARK } from '../reports/pdf/report-wording';
 
 // Issuing the first report creates the lab's signing credential, which takes seconds.
@@ -22,23 +21,10 @@ beforeAll(async () => {
 /** Measures, analyses, submits and approves one demo sample; the issued PDF's text. */
 async function reportText(code: string): Promise<string> {
   const analyst = await t.authFor('analyst');
-  const bench = (await request(t.app).get('/api/lab/bench').set(analyst)).body;
-  const files = demoFiles().filter((f) => f.sampleCode === code);
-  let upload = request(t.app).post(`/api/lab/samples/${code}/measurements`).set(analyst)
-    .field('instrumentId', bench.instruments[0].id).field('cellId', bench.cells[0].id).field('temperatureC', String(files[0].temperatureC));
-  for (const f of files) upload = upload.attach('files', Buffer.from(f.text), f.fileName);
-  expect((await upload).status).toBe(201);
-  const [row] = await t.db.query(
-    `SELECT s.id AS sample_id, v.id AS version_id FROM sample s JOIN test_order o ON o.id = s.order_id
-     JOIN reference_library l ON l.product_id = o.product_id JOIN library_version v ON v.library_id = l.id AND v.status = 'published'
-     WHERE s.code = $1`,
-    [code],
-  );
-  const run = await request(t.app).post(`/api/lab/samples/${row.sample_id}/analyses`).set(analyst).send({ libraryVersionId: row.version_id });
-  expect(run.status).toBe(201);
-  await request(t.app).put(`/api/lab/analyses/${run.body.id}/remarks`).set(analyst).send({ remarks: 'Checked.' });
-  expect((await request(t.app).post(`/api/lab/analyses/${run.body.id}/submit`).set(analyst)).status).toBe(200);
-  const approved = await request(t.app).post(`/api/lab/analyses/${run.body.id}/approve`).set(await t.authFor('reviewer')).send({ comments: 'Agreed.' });
+  const id = await analyseDemoSample(t, code);
+  await request(t.app).put(`/api/lab/analyses/${id}/remarks`).set(analyst).send({ remarks: 'Checked.' });
+  expect((await request(t.app).post(`/api/lab/analyses/${id}/submit`).set(analyst)).status).toBe(200);
+  const approved = await request(t.app).post(`/api/lab/analyses/${id}/approve`).set(await t.authFor('reviewer')).send({ comments: 'Agreed.' });
   expect(approved.status).toBe(200);
   const [report] = await t.db.query('SELECT pdf FROM test_report WHERE id = $1', [approved.body.report.id]);
   const file = join(dir, `${code}.pdf`);
