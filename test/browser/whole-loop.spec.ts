@@ -176,7 +176,7 @@ describe('one suspect sample, from order to verified report', () => {
     await screenshotWhole(page, 'whole-loop-03b-analysis');
     await page.getByRole('button', { name: 'Submit for review' }).click();
     await page.getByText(`Analysis of ${SAMPLE} submitted for review.`).first().waitFor();
-    await page.getByText(/status submitted/).waitFor();
+    await page.getByText(/status awaiting review/).waitFor();
     await screenshotWhole(page, 'whole-loop-03c-submitted');
   });
 
@@ -220,6 +220,7 @@ describe('one suspect sample, from order to verified report', () => {
     await issued.waitFor();
     handOn.reportNumber = /([A-Z]{2,4}-\d{4}-\d{6})/.exec(await issued.innerText())![1];
     expect(handOn.reportNumber).toMatch(/^CAL-\d{4}-\d{6}$/);
+    await page.getByText('Status: approved, report issued.').waitFor();
     await screenshotWhole(page, 'whole-loop-04b-report-issued');
   });
 

@@ -11,6 +11,7 @@ import type { Analysis, LibraryItem, SampleDetail } from '@ohmprint/contracts';
 import { ApiProblem, Notice, Notifier } from '@ohmprint/ui';
 import { AnalysesData } from './analyses-data';
 import { AnalysisResult } from './analysis-result';
+import { analysisStatusLabel } from './analysis-status-label';
 
 /** The analysis tab: pick a published library version, run, read the result, remark, submit. */
 @Component({
@@ -35,10 +36,11 @@ export class AnalysisPanel {
   readonly canEdit = input(false);
   readonly changed = output<void>();
 
+  protected readonly statusLabel = analysisStatusLabel;
   protected readonly library = signal<LibraryItem | null>(null);
   protected readonly libraryLoaded = signal(false);
   protected readonly versionId = signal<string | null>(null);
-  protected readonly history = signal<{ id: string; createdAt: string; status: string; verdict: Analysis['result']['verdict'] }[]>([]);
+  protected readonly history = signal<{ id: string; createdAt: string; status: Analysis['status']; verdict: Analysis['result']['verdict'] }[]>([]);
   protected readonly current = signal<Analysis | null>(null);
   protected readonly running = signal(false);
   protected readonly runError = signal<string | null>(null);

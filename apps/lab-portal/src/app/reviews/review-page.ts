@@ -12,6 +12,7 @@ import { AnalysesData } from '../analyses/analyses-data';
 import { AnalysisResult } from '../analyses/analysis-result';
 import { MeasurementsPanel } from '../measurements/measurements-panel';
 import { ReportFiles } from '../reports/report-files';
+import { analysisStatusLabel } from '../analyses/analysis-status-label';
 import { reviewRefusal } from './review-refusal';
 
 /** The reviewer reads the analysis as submitted and approves (issuing the report) or returns it. */
@@ -24,7 +25,7 @@ import { reviewRefusal } from './review-refusal';
       <header class="ohm-page-header">
         <div>
           <h1>Review of <a class="code" [routerLink]="['/samples', a.sample.id]">{{ a.sample.code }}</a></h1>
-          <p>Analysed by {{ a.analyst.displayName }} against {{ a.libraryVersion.productName }} library version {{ a.libraryVersion.version }}. Status: {{ a.status }}.</p>
+          <p>Analysed by {{ a.analyst.displayName }} against {{ a.libraryVersion.productName }} library version {{ a.libraryVersion.version }}. Status: {{ statusLabel(a.status) }}.</p>
         </div>
       </header>
       @if (ownAnalysis()) {
@@ -89,6 +90,7 @@ export class ReviewPage {
   protected readonly refusal = signal<string | null>(null);
   protected readonly issued = signal<ApprovalResult | null>(null);
   protected readonly comments = new FormControl('', { nonNullable: true, validators: [Validators.maxLength(5000)] });
+  protected readonly statusLabel = analysisStatusLabel;
   protected readonly ownAnalysis = computed(() => this.analysis()?.analyst.id === this.session.user()?.id);
 
   constructor() {
@@ -102,6 +104,7 @@ export class ReviewPage {
       next: (result) => {
         this.working.set(null);
         this.issued.set(result);
+        this.data.get(a.id).subscribe((updated) => this.analysis.set(updated));
         this.notifier.success(`Report ${result.report.number} issued.`);
       },
       error: (e: unknown) => {
