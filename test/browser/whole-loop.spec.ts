@@ -283,9 +283,66 @@ describe('one suspect sample, from order to verified report', () => {
     await screenshotWhole(page, 'whole-loop-06c-verify-altered-file');
   });
 
-  it('7. every screen photographed on the way passes the automated WCAG 2.1 A and AA checks (axe-core)', () => {
+  it('7. the reviewer amends the report, then revokes the amendment; a visitor sees the first superseded and the second revoked', async () => {
+    const [number, code] = [needs('reportNumber'), needs('verificationCode')];
+    const amended = `${number}-R1`;
+    const { page } = await deskOf('lab', REVIEWER);
+    await openFromMenu(page, 'Reports');
+    const reports = page.getByRole('table', { name: 'Reports', exact: true });
+    await reports.getByRole('button', { name: `More for ${number}` }).click();
+    await page.getByRole('menuitem', { name: 'Amend…' }).click();
+    const amend = page.getByRole('dialog', { name: `Amend report ${number}?` });
+    await amend.getByLabel('Corrected remarks').fill(`${REMARKS} Claimed lot checked against the label.`);
+    await amend.getByLabel('Reason (printed and shown on verification)').fill('Remarks completed (invented demo amendment).');
+    await screenshotWhole(page, 'whole-loop-07a-amend-dialog');
+    await amend.getByRole('button', { name: 'Issue amendment' }).click();
+    await page.getByText(`Amendment ${amended} issued; ${number} now reads as superseded.`).first().waitFor();
+    await reports.getByRole('row').filter({ hasText: `superseded by ${amended}` }).waitFor();
+
+    // the amendment's own verification code is printed on its PDF
+    const [download] = await Promise.all([page.waitForEvent('download'), reports.getByRole('button', { name: `Download ${amended}` }).click()]);
+    const amendedPdf = join(ARTIFACTS, `${amended}.pdf`);
+    await download.saveAs(amendedPdf);
+    expect(pdfSignatureReport(amendedPdf)).toContain('Signature is Valid.');
+    const amendedText = pdfPlainText(amendedPdf);
+    expect(amendedText).toContain(`This report replaces report ${number}`);
+    expect(amendedText).toContain('Remarks completed (invented demo amendment).');
+    const amendedCode = /Verification code ([2-9A-HJKMNP-TV-Z]{4}-[2-9A-HJKMNP-TV-Z]{4}-[2-9A-HJKMNP-TV-Z]{4})/.exec(amendedText)![1];
+    expect(amendedCode).not.toBe(code);
+
+    await reports.getByRole('button', { name: `More for ${amended}` }).click();
+    await page.getByRole('menuitem', { name: 'Revoke…' }).click();
+    const revoke = page.getByRole('dialog', { name: `Revoke report ${amended}?` });
+    await revoke.getByLabel('Reason (printed and shown on verification)').fill('Sent to the wrong client contact (invented demo revocation).');
+    await revoke.getByRole('button', { name: 'Revoke report' }).click();
+    await page.getByText(`${amended} revoked.`).first().waitFor();
+    await reports.getByRole('row').filter({ hasText: amended }).filter({ hasText: 'Revoked' }).waitFor();
+    await screenshotWhole(page, 'whole-loop-07b-lab-reports-amended-and-revoked');
+
+    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const visitor = await context.newPage();
+    desks.push({ context, page: visitor });
+    visitor.setDefaultTimeout(60_000);
+    const check = async (reportNumber: string, verificationCode: string) => {
+      await visitor.goto(url('/verify'));
+      await visitor.getByLabel('Report number').fill(reportNumber);
+      await visitor.getByLabel('Verification code').fill(verificationCode);
+      await visitor.getByRole('button', { name: 'Check' }).click();
+    };
+    await check(number, code);
+    await visitor.getByRole('heading', { name: 'Superseded: a newer revision replaces this report' }).waitFor();
+    expect(await visitor.getByText(`Replaced by ${amended}`).count()).toBe(1);
+    await visitor.getByText(`replaced by report ${amended}, which the laboratory has since revoked; no revision of this report is in force`).waitFor();
+    await screenshotWhole(visitor, 'whole-loop-07c-verify-superseded');
+    await check(amended, amendedCode);
+    await visitor.getByRole('heading', { name: 'Revoked by the issuing lab' }).waitFor();
+    await visitor.getByText('Sent to the wrong client contact (invented demo revocation).').waitFor();
+    await screenshotWhole(visitor, 'whole-loop-07d-verify-revoked');
+  });
+
+  it('8. every screen photographed on the way passes the automated WCAG 2.1 A and AA checks (axe-core)', () => {
     const { screens, findings } = accessibilitySoFar();
-    expect(screens).toHaveLength(14);
+    expect(screens).toHaveLength(18);
     expect(describeFindings(findings)).toBe('');
   });
 });

@@ -78,6 +78,14 @@ describe('public verification by number and code', () => {
     expect(res.body).toMatchObject({ outcome: 'superseded', supersededBy: `${r.number}-R1` });
     const [next] = await t.db.query('SELECT verification_code FROM test_report WHERE number = $1', [`${r.number}-R1`]);
     expect((await verify(`${r.number}-R1`, next.verification_code)).body.outcome).toBe('valid');
+    expect(res.body.message).toContain('use that one instead');
+
+    // once the replacement is revoked, the original must not send the reader to it
+    const [r1] = await t.db.query('SELECT id FROM test_report WHERE number = $1', [`${r.number}-R1`]);
+    await request(t.app).post(`/api/lab/reports/${r1.id}/revoke`).set(await t.authFor('lab-admin')).send({ reason: 'Sent to the wrong contact.' });
+    const after = await verify(r.number, r.verificationCode);
+    expect(after.body).toMatchObject({ outcome: 'superseded', supersededBy: `${r.number}-R1` });
+    expect(after.body.message).toBe(`Report ${r.number} was genuine but was replaced by report ${r.number}-R1, which the laboratory has since revoked; no revision of this report is in force.`);
   });
 
   it('says revoked, with the reason', async () => {

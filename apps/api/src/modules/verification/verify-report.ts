@@ -39,10 +39,15 @@ async function describe(manager: EntityManager, report: TestReport, file: Verifi
   }
   if (report.status === 'superseded') {
     const latest = await latestRevision(manager, report);
+    // a replacement that was itself revoked leaves no revision in force: "use that one" would mislead
+    const message =
+      latest?.status === 'revoked'
+        ? `Report ${report.number} was genuine but was replaced by report ${latest.number}, which the laboratory has since revoked; no revision of this report is in force.`
+        : `Report ${report.number} was genuine but has been replaced by report ${latest?.number}; use that one instead.`;
     return {
       ...base,
       outcome: 'superseded',
-      message: `Report ${report.number} was genuine but has been replaced by report ${latest?.number}; use that one instead.`,
+      message,
       supersededBy: latest?.number ?? null,
     };
   }
