@@ -9,6 +9,7 @@ import { useTestApp } from '../../testing';
 import { signAccessToken } from '../auth/access-token';
 import * as signing from './signing/sign-pdf';
 import { demoReportContent } from './pdf/demo-report-content';
+import { SCREENING_CAUTION } from './pdf/report-wording';
 import { issueReport, type IssuanceStep } from './issue-report';
 import { insertSubmittedAnalysis, type SubmittedAnalysis } from './submitted-analysis.fixture';
 
@@ -91,6 +92,7 @@ describe('issuing a report on approval', () => {
     const mails = await t.db.query('SELECT to_address, text_body FROM email_outbox WHERE lab_id = $1 AND subject = $2', [a.labId, `Test report ${report.number} is ready`]);
     expect(mails.map((m: { to_address: string }) => m.to_address)).toEqual(['admin@hollinridge.test']);
     expect(mails[0].text_body).toContain(`/verify?report=${report.number}&code=`);
+    expect(mails[0].text_body).toContain(SCREENING_CAUTION);
   });
 
   it('gives the next report the next number', async () => {

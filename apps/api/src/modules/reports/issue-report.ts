@@ -6,6 +6,7 @@ import { enqueueEmail } from '../mail/enqueue-email';
 import { Lab } from '../labs/lab.entity';
 import { ReportContent, ReportData } from './pdf/report-data';
 import { VERDICT_WORDS } from './pdf/verdict-badge';
+import { SCREENING_CAUTION } from './pdf/report-wording';
 import { TestReport } from './test-report.entity';
 import { nextReportNumber } from './report-numbering';
 import { formatVerificationCode, newVerificationCode, verificationUrl } from './verification-code';
@@ -66,6 +67,8 @@ export async function issueReport(manager: EntityManager, input: IssueReportInpu
     lines: [
       `Test report ${number} for sample ${report.sampleCode} (${report.productName}) has been issued by ${lab.name}.`,
       `Result: ${VERDICT_WORDS[report.verdict]}.`,
+      // the e-mail states a result, so it carries the same caution as the report and the screens
+      SCREENING_CAUTION,
       `Download it from your reports page: ${config.publicBaseUrl}/reports`,
       `Anyone holding the PDF can check it at ${verificationUrl(number, report.verificationCode)}`,
     ],

@@ -11,7 +11,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSort, MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import type { ReportDetail, ReportStatus, ReportSummary } from '@ohmprint/contracts';
-import { EmptyState, Notifier, SearchField, ServerList, Session, VerdictChip } from '@ohmprint/ui';
+import { EmptyState, Notifier, ScreeningCaution, SearchField, ServerList, Session, VerdictChip } from '@ohmprint/ui';
 import { Subject } from 'rxjs';
 import { ReasonDialog, type ReasonDialogData } from './reason-dialog';
 import { ReportFiles } from './report-files';
@@ -21,9 +21,9 @@ import { ReportsData } from './reports-data';
 @Component({
   selector: 'ohm-reports-page',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [DatePipe, FormsModule, MatTableModule, MatSortModule, MatPaginatorModule, MatProgressBarModule, MatButtonModule, MatButtonToggleModule, MatIconModule, MatMenuModule, SearchField, EmptyState, VerdictChip, ReportStatusChip],
+  imports: [DatePipe, FormsModule, MatTableModule, MatSortModule, MatPaginatorModule, MatProgressBarModule, MatButtonModule, MatButtonToggleModule, MatIconModule, MatMenuModule, SearchField, EmptyState, VerdictChip, ReportStatusChip, ScreeningCaution],
   templateUrl: './reports-page.html',
-  styles: `.number { font-family: ui-monospace, monospace; font-weight: 600; white-space: nowrap; } td.ohm-row-actions { white-space: nowrap; } .filters { display: flex; flex-wrap: wrap; gap: 8px 16px; align-items: center; } .replaces { display: block; font: var(--mat-sys-body-small); color: var(--mat-sys-on-surface-variant); }`,
+  styles: `.number { font-family: ui-monospace, monospace; font-weight: 600; white-space: nowrap; } td.ohm-row-actions { white-space: nowrap; } .filters { display: flex; flex-wrap: wrap; gap: 8px 16px; align-items: center; } .replaces { display: block; font: var(--mat-sys-body-small); color: var(--mat-sys-on-surface-variant); } .caution { display: block; margin-top: 16px; }`,
 })
 export class ReportsPage implements AfterViewInit {
   private readonly data = inject(ReportsData);
