@@ -23,7 +23,7 @@ import { ReportsData } from './reports-data';
   changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [DatePipe, FormsModule, MatTableModule, MatSortModule, MatPaginatorModule, MatProgressBarModule, MatButtonModule, MatButtonToggleModule, MatIconModule, MatMenuModule, SearchField, EmptyState, VerdictChip, ReportStatusChip, ScreeningCaution],
   templateUrl: './reports-page.html',
-  styles: `.number { font-family: ui-monospace, monospace; font-weight: 600; white-space: nowrap; } td.ohm-row-actions { white-space: nowrap; } .filters { display: flex; flex-wrap: wrap; gap: 8px 16px; align-items: center; } .replaces { display: block; font: var(--mat-sys-body-small); color: var(--mat-sys-on-surface-variant); } .caution { display: block; margin-top: 16px; }`,
+  styles: `.number { font-family: ui-monospace, monospace; font-weight: 600; white-space: nowrap; } td.ohm-row-actions { white-space: nowrap; } .filters { display: flex; flex-wrap: wrap; gap: 8px 16px; align-items: center; } .replaces { display: block; font: var(--mat-sys-body-small); color: var(--mat-sys-on-surface-variant); } .caution { margin-top: 16px; }`,
 })
 export class ReportsPage implements AfterViewInit {
   private readonly data = inject(ReportsData);
