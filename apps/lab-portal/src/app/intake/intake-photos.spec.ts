@@ -52,7 +52,7 @@ describe('IntakePhotos', () => {
     expect(requests[0].request.responseType).toBe('blob');
     requests[0].flush(new Blob(['png'], { type: 'image/png' }));
     fixture.detectChanges();
-    // The second is still on its way: it shows a placeholder and is not asked for again.
+    // The second is still on its way: it shows an empty loading slot and is not asked for again.
     http.expectNone(`/api/lab/samples/${SAMPLE}/photos/3f2a6c1e-0b1d-4c1a-9a43-1f9e2b7c5d12`);
     const el = fixture.nativeElement as HTMLElement;
     expect(el.querySelectorAll('img')).toHaveLength(1);

@@ -26,7 +26,7 @@ interface Shown {
                 <img [src]="url" [alt]="'Intake photo ' + p.fileName" />
               </button>
             } @else {
-              <span class="thumb placeholder" [attr.aria-label]="'Loading photo ' + p.fileName"></span>
+              <span class="thumb loading-slot" [attr.aria-label]="'Loading photo ' + p.fileName"></span>
             }
           </li>
         }
@@ -38,7 +38,7 @@ interface Shown {
     .thumb { display: block; padding: 0; border: 1px solid var(--mat-sys-outline-variant); border-radius: var(--mat-sys-corner-small);
       background: var(--mat-sys-surface-container); cursor: zoom-in; overflow: hidden; }
     .thumb:focus-visible { outline: 2px solid var(--mat-sys-primary); outline-offset: 2px; }
-    .thumb img, .placeholder { width: 72px; height: 54px; object-fit: cover; display: block; }
+    .thumb img, .loading-slot { width: 72px; height: 54px; object-fit: cover; display: block; }
   `,
 })
 export class IntakePhotos {
