@@ -46,6 +46,14 @@ async function check(page: Page, screens: readonly Screen[]): Promise<ScreenFind
   return findings;
 }
 
+/** Signs in as one person and checks their screens; the findings, for one assertion per test. */
+async function checkAs(portal: 'lab' | 'client', email: string, screens: readonly Screen[]): Promise<ScreenFinding[]> {
+  const { context, page } = await signInAt(browser, portal, email);
+  const findings = await check(page, screens);
+  await context.close();
+  return findings;
+}
+
 const table = (name: string) => (page: Page) => page.getByRole('table', { name, exact: true }).getByRole('row').nth(1).waitFor();
 
 describe('automated accessibility checks in both colour schemes', () => {
@@ -64,8 +72,7 @@ describe('automated accessibility checks in both colour schemes', () => {
   });
 
   it('the lab admin’s screens', async () => {
-    const { context, page } = await signInAt(browser, 'lab', 'admin@calder.test');
-    const findings = await check(page, [
+    const findings = await checkAs('lab', 'admin@calder.test', [
       { name: 'lab-home-admin', path: '/lab/' },
       { name: 'lab-staff', path: '/lab/staff', ready: table('Staff') },
       { name: 'lab-clients', path: '/lab/clients' },
@@ -75,20 +82,16 @@ describe('automated accessibility checks in both colour schemes', () => {
       { name: 'lab-profile', path: '/lab/profile' },
       { name: 'lab-not-found', path: '/lab/no-such-screen' },
     ]);
-    await context.close();
     expect(describeFindings(findings)).toBe('');
   });
 
   it('the platform operator’s list of labs', async () => {
-    const { context, page } = await signInAt(browser, 'lab', 'operator@ohmprint.test');
-    const findings = await check(page, [{ name: 'operator-labs', path: '/lab/labs', ready: table('Labs') }]);
-    await context.close();
+    const findings = await checkAs('lab', 'operator@ohmprint.test', [{ name: 'operator-labs', path: '/lab/labs', ready: table('Labs') }]);
     expect(describeFindings(findings)).toBe('');
   });
 
   it('the intake bench with a received parcel looked up, and the reviewer’s queue', async () => {
-    const intake = await signInAt(browser, 'lab', 'intake@calder.test');
-    const findings = await check(intake.page, [
+    const findings = await checkAs('lab', 'intake@calder.test', [
       {
         name: 'lab-intake-received',
         path: '/lab/intake',
@@ -100,23 +103,18 @@ describe('automated accessibility checks in both colour schemes', () => {
         },
       },
     ]);
-    await intake.context.close();
-    const reviewer = await signInAt(browser, 'lab', 'reviewer@calder.test');
-    findings.push(...(await check(reviewer.page, [{ name: 'lab-reviews', path: '/lab/reviews' }])));
-    await reviewer.context.close();
+    findings.push(...(await checkAs('lab', 'reviewer@calder.test', [{ name: 'lab-reviews', path: '/lab/reviews' }])));
     expect(describeFindings(findings)).toBe('');
   });
 
   it('the client admin’s screens', async () => {
-    const { context, page } = await signInAt(browser, 'client', 'admin@hollinridge.test');
-    const findings = await check(page, [
+    const findings = await checkAs('client', 'admin@hollinridge.test', [
       { name: 'client-home', path: '/' },
       { name: 'client-team', path: '/team' },
       { name: 'client-orders', path: '/orders', ready: table('Orders') },
       { name: 'client-reports', path: '/reports' },
       { name: 'client-profile', path: '/profile' },
     ]);
-    await context.close();
     expect(describeFindings(findings)).toBe('');
   });
 });
