@@ -4,7 +4,8 @@ import { z } from 'zod';
 export const FieldErrorSchema = z.object({ field: z.string(), message: z.string() });
 
 /** Every API error body (RFC 9457 `application/problem+json`). */
-export const ProblemSchema = z.object({
+/** Extension members (e.g. `shortfall` of an `insufficient-credits` problem) pass through. */
+export const ProblemSchema = z.looseObject({
   type: z.string(),
   title: z.string(),
   status: z.number().int(),

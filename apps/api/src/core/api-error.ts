@@ -6,6 +6,8 @@ export interface ApiErrorOptions {
   errors?: FieldError[];
   /** Extra headers for the response (e.g. WWW-Authenticate). */
   headers?: Record<string, string>;
+  /** Extension members of the problem (RFC 9457 §3.2), e.g. `{ shortfall: 3 }`: figures a client acts on. */
+  extensions?: Record<string, string | number | boolean | null>;
 }
 
 /**
@@ -17,6 +19,7 @@ export class ApiError extends Error {
   readonly type: string;
   readonly errors?: FieldError[];
   readonly headers?: Record<string, string>;
+  readonly extensions?: Record<string, string | number | boolean | null>;
 
   constructor(
     readonly status: number,
@@ -29,6 +32,7 @@ export class ApiError extends Error {
     this.type = options.type ? `urn:ohmprint:problem:${options.type}` : 'about:blank';
     this.errors = options.errors;
     this.headers = options.headers;
+    this.extensions = options.extensions;
   }
 
   static badRequest(detail: string, errors?: FieldError[]): ApiError {

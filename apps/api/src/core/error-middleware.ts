@@ -44,7 +44,7 @@ export function errorMiddleware(err: unknown, req: Request, res: Response, _next
   const requestId = String(req.id ?? '');
   let problem: Problem;
   if (known) {
-    problem = { type: known.type, title: known.title, status: known.status, detail: known.detail, requestId };
+    problem = { ...known.extensions, type: known.type, title: known.title, status: known.status, detail: known.detail, requestId };
     if (known.errors?.length) problem.errors = known.errors;
     for (const [name, value] of Object.entries(known.headers ?? {})) res.setHeader(name, value);
     if (known.status >= 500) logger.error({ err, requestId }, known.title);

@@ -48,6 +48,6 @@ export function apiRoutes(): Router {
   api.use('/lab', librariesRouter());
   api.use('/lab', analysesRouter());
   api.use('/lab', reviewsRouter());
-  api.use('/client', clientOrdersRouter());
+  api.use(clientOrdersRouter());
   return api;
 }
