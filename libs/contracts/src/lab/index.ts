@@ -11,3 +11,4 @@ export * from './libraries';
 export * from './reference-spectra';
 export * from './analyses';
 export * from './reviews';
+export * from './chemistry';

@@ -12,6 +12,10 @@ export class Lab {
   @Column({ name: 'accreditation_number', type: 'text', nullable: true }) accreditationNumber!: string | null;
   @Column({ name: 'turnaround_target_days', type: 'integer', default: 10 }) turnaroundTargetDays!: number;
   @Column({ type: 'text', default: 'active' }) status!: LabStatus;
+  /** Price of one check sample, in credits. */
+  @Column({ name: 'credits_per_check_sample', type: 'integer', default: 1 }) creditsPerCheckSample!: number;
+  /** Price of enrolling one reference lot, in credits (0: free). */
+  @Column({ name: 'credits_per_reference_lot', type: 'integer', default: 1 }) creditsPerReferenceLot!: number;
   /** Invented demo data: its reports carry the demonstration mark. */
   @Column({ name: 'is_demo', type: 'boolean', default: false }) isDemo!: boolean;
   @CreateDateColumn({ name: 'created_at', type: 'timestamptz' }) createdAt!: Date;

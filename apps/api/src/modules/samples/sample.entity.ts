@@ -1,5 +1,5 @@
 import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn } from 'typeorm';
-import type { SampleState } from '@ohmprint/contracts';
+import type { ReferenceLotDeclaration, SampleKind, SampleState } from '@ohmprint/contracts';
 
 /** One suspect item sent for a check, known in the lab by its printed code. */
 @Entity({ name: 'sample' })
@@ -9,6 +9,10 @@ export class Sample {
   @Column({ name: 'order_id', type: 'uuid' }) orderId!: string;
   @Column({ type: 'text' }) code!: string;
   @Column({ type: 'text', default: 'awaiting-arrival' }) state!: SampleState;
+  /** A check of a suspect item, or an authentic lot enrolled for the product's reference library. */
+  @Column({ type: 'text', default: 'check' }) kind!: SampleKind;
+  /** What the producer declared about an enrolled lot; null for a check. */
+  @Column({ name: 'reference_lot', type: 'jsonb', nullable: true }) referenceLot!: ReferenceLotDeclaration | null;
   @Column({ name: 'obtained_where', type: 'text' }) obtainedWhere!: string;
   /** ISO date (YYYY-MM-DD). */
   @Column({ name: 'obtained_on', type: 'date' }) obtainedOn!: string;
