@@ -27,7 +27,7 @@ export async function enqueueReceipt(manager: EntityManager, payment: PaymentRow
   const amount = formatMoney(Number(payment.amountMinor), payment.currency);
   const number = receiptNumber(info.receipt_no);
   const paidOn = (payment.paidAt ?? new Date()).toISOString().slice(0, 16).replace('T', ' ') + ' UTC';
-  const link = `${config.publicBaseUrl}/payments`;
+  const link = `${config.publicBaseUrl}/credits/payments`;
   const rows: [string, string][] = [
     ['Receipt', number],
     ['Paid on', paidOn],
