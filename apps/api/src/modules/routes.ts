@@ -22,6 +22,8 @@ import { librariesRouter } from './libraries/router';
 import { analysesRouter } from './analyses/router';
 import { reviewsRouter } from './reviews/router';
 import { clientOrdersRouter } from './orders/router';
+import { clientBillingRouter } from './billing/client-billing.router';
+import { labBillingRouter } from './billing/lab-billing.router';
 
 /** Every feature's router, one line each. Paths are under /api. */
 export function apiRoutes(): Router {
@@ -49,5 +51,7 @@ export function apiRoutes(): Router {
   api.use('/lab', analysesRouter());
   api.use('/lab', reviewsRouter());
   api.use(clientOrdersRouter());
+  api.use(clientBillingRouter());
+  api.use(labBillingRouter());
   return api;
 }

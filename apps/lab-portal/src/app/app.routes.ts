@@ -16,6 +16,7 @@ export const routes: Routes = [
       { path: '', title: 'Home · Ohmprint lab', loadComponent: () => import('./home/lab-home').then((m) => m.LabHome) },
       { path: 'profile', title: 'Profile · Ohmprint lab', component: ProfilePage },
       { path: 'staff', canActivate: [roleGuard('lab-admin')], loadChildren: () => import('./staff/staff.routes') },
+      { path: 'billing', canActivate: [roleGuard('lab-admin')], loadChildren: () => import('./billing/billing.routes') },
       { path: 'clients', canActivate: [roleGuard('lab-admin')], loadChildren: () => import('./client-organisations/client-organisations.routes') },
       { path: 'labs', canActivate: [roleGuard('platform-operator')], loadChildren: () => import('./labs/labs.routes') },
       { path: 'queue', canActivate: [roleGuard(...LAB_STAFF)], loadChildren: () => import('./queue/queue.routes') },
