@@ -23,19 +23,21 @@ import { analysesRouter } from './analyses/router';
 import { reviewsRouter } from './reviews/router';
 import { clientOrdersRouter } from './orders/router';
 import { clientOrderingRouter } from './orders/client-ordering.router';
+import { clientBillingRouter } from './billing/client-billing.router';
+import { labBillingRouter } from './billing/lab-billing.router';
 
 /** Every feature's router, one line each. Paths are under /api. */
 export function apiRoutes(): Router {
   const api = Router();
-  api.use('/health', healthRouter());
+  api.use(healthRouter());
   api.use('/auth', authRouter());
   api.use('/invitations', invitationsRouter());
   api.use('/me', meRouter());
   api.use('/lab/profile', labProfileRouter());
-  api.use('/lab/audit-events', auditLogRouter());
+  api.use(auditLogRouter());
   api.use('/lab/staff', staffRouter());
-  api.use('/lab/client-organisations', clientOrganisationsRouter());
-  api.use('/operator/labs', operatorLabsRouter());
+  api.use(clientOrganisationsRouter());
+  api.use(operatorLabsRouter());
   api.use('/client/team', clientTeamRouter());
   api.use('/lab/reports', labReportsRouter());
   api.use('/lab/signing-credential', signingCredentialRouter());
@@ -43,7 +45,7 @@ export function apiRoutes(): Router {
   api.use('/public/verify', verificationRouter());
   api.use('/lab', samplesRouter());
   api.use('/lab', intakeRouter());
-  api.use('/lab', custodyRouter());
+  api.use(custodyRouter());
   api.use('/lab', measurementsRouter());
   api.use('/lab', instrumentKeysRouter());
   api.use('/lab', librariesRouter());
@@ -51,5 +53,7 @@ export function apiRoutes(): Router {
   api.use('/lab', reviewsRouter());
   api.use(clientOrdersRouter());
   api.use(clientOrderingRouter());
+  api.use(clientBillingRouter());
+  api.use(labBillingRouter());
   return api;
 }

@@ -6,5 +6,6 @@ export const CLIENT_NAV: readonly NavItem[] = [
   { label: 'Products', icon: 'inventory_2', path: '/products', roles: ['client-admin', 'client-member'] },
   { label: 'Orders', icon: 'shopping_cart', path: '/orders', roles: ['client-admin', 'client-member'] },
   { label: 'Reports', icon: 'description', path: '/reports', roles: ['client-admin', 'client-member'] },
+  { label: 'Credits', icon: 'toll', path: '/credits', roles: ['client-admin', 'client-member'] },
   { label: 'Team', icon: 'group', path: '/team', roles: ['client-admin', 'client-member'] },
 ];

@@ -9,6 +9,7 @@ export const LAB_NAV: readonly NavItem[] = [
   { label: 'Reports', icon: 'description', path: '/reports', roles: ['reviewer', 'lab-admin', 'analyst'] },
   { label: 'Instrument keys', icon: 'key', path: '/instrument-keys', roles: ['lab-admin'] },
   { label: 'Staff', icon: 'group', path: '/staff', roles: ['lab-admin'] },
+  { label: 'Billing', icon: 'payments', path: '/billing', roles: ['lab-admin'] },
   { label: 'Client organisations', icon: 'storefront', path: '/clients', roles: ['lab-admin'] },
   { label: 'Labs', icon: 'domain', path: '/labs', roles: ['platform-operator'] },
 ];
