@@ -23,6 +23,7 @@ import { librariesRouter } from './libraries/router';
 import { analysesRouter } from './analyses/router';
 import { reviewsRouter } from './reviews/router';
 import { clientOrdersRouter } from './orders/router';
+import { clientOrderingRouter } from './orders/client-ordering.router';
 import { clientBillingRouter } from './billing/client-billing.router';
 import { labBillingRouter } from './billing/lab-billing.router';
 
@@ -53,6 +54,7 @@ export function apiRoutes(): Router {
   api.use('/lab', analysesRouter());
   api.use('/lab', reviewsRouter());
   api.use(clientOrdersRouter());
+  api.use(clientOrderingRouter());
   api.use(clientBillingRouter());
   api.use(labBillingRouter());
   return api;

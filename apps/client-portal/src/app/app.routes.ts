@@ -16,6 +16,7 @@ export const routes: Routes = [
       { path: '', title: 'Home · Ohmprint', loadComponent: () => import('./home/client-home').then((m) => m.ClientHome) },
       { path: 'profile', title: 'Profile · Ohmprint', component: ProfilePage },
       { path: 'team', canActivate: [roleGuard('client-admin', 'client-member')], loadChildren: () => import('./team/team.routes') },
+      { path: 'products', canActivate: [roleGuard('client-admin', 'client-member')], loadChildren: () => import('./products/products.routes') },
       { path: 'orders', canActivate: [roleGuard('client-admin', 'client-member')], loadChildren: () => import('./orders/orders.routes') },
       { path: 'credits', canActivate: [roleGuard('client-admin', 'client-member')], loadChildren: () => import('./credits/credits.routes') },
       { path: 'reports', canActivate: [roleGuard('client-admin', 'client-member')], loadChildren: () => import('./reports/reports.routes') },

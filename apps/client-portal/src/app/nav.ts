@@ -3,6 +3,7 @@ import type { NavItem } from '@ohmprint/ui';
 /** Side navigation of the client portal; the shell shows each entry to the roles listed. */
 export const CLIENT_NAV: readonly NavItem[] = [
   { label: 'Home', icon: 'home', path: '/', exact: true },
+  { label: 'Products', icon: 'inventory_2', path: '/products', roles: ['client-admin', 'client-member'] },
   { label: 'Orders', icon: 'shopping_cart', path: '/orders', roles: ['client-admin', 'client-member'] },
   { label: 'Reports', icon: 'description', path: '/reports', roles: ['client-admin', 'client-member'] },
   { label: 'Credits', icon: 'toll', path: '/credits', roles: ['client-admin', 'client-member'] },

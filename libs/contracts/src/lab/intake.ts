@@ -6,6 +6,7 @@ import { MatrixSchema } from './products';
 import { SampleDescriptionSchema } from './orders';
 import { SampleCodeSchema, SampleStateSchema } from './sample-state';
 import { IntakeWarningSchema } from './intake-limits';
+import { ReferenceLotDeclarationSchema, SampleKindSchema } from './chemistry';
 
 export const CONTAINER_CONDITIONS = ['intact', 'damaged', 'leaking', 'unlabelled'] as const;
 export const ContainerConditionSchema = z.enum(CONTAINER_CONDITIONS);
@@ -80,6 +81,11 @@ export const SampleDetailSchema = z.object({
   photos: z.array(IntakePhotoSchema),
   rejectionReason: z.string().nullable(),
   storageLocation: z.string().nullable(),
+  /** A check, or an authentic lot sent for enrolment (with what the producer declared about it). */
+  kind: SampleKindSchema,
+  referenceLot: ReferenceLotDeclarationSchema.nullable(),
+  /** How the client said the parcel travels, once it did. */
+  shipment: z.object({ carrier: z.string(), trackingNumber: z.string(), shippedAt: z.iso.datetime({ offset: true }) }).nullable(),
   ageDays: z.number(),
   turnaroundDays: z.number().int(),
   dueAt: z.iso.datetime({ offset: true }),

@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, input, output } from '@angular/core';
+import { ChangeDetectionStrategy, Component, input, output, type OnInit } from '@angular/core';
 import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import { FormControl, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -33,8 +33,10 @@ import { debounceTime, distinctUntilChanged } from 'rxjs';
     }
   `,
 })
-export class SearchField {
+export class SearchField implements OnInit {
   readonly label = input('Search');
+  /** Text to start with (a search restored from the URL); shown without emitting. */
+  readonly initial = input('');
   readonly queryChange = output<string>();
   protected readonly text = new FormControl('', { nonNullable: true });
 
@@ -42,5 +44,9 @@ export class SearchField {
     this.text.valueChanges
       .pipe(debounceTime(300), distinctUntilChanged(), takeUntilDestroyed())
       .subscribe((value) => this.queryChange.emit(value));
+  }
+
+  ngOnInit(): void {
+    if (this.initial()) this.text.setValue(this.initial(), { emitEvent: false });
   }
 }

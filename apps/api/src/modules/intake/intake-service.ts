@@ -6,6 +6,7 @@ import { recordAudit } from '../audit/record-audit';
 import { appendCustody } from '../custody/append-custody';
 import { enqueueEmail } from '../mail/enqueue-email';
 import { refreshOrderStatus } from '../orders/order-progress';
+import { consumeSampleCredits, releaseSampleCredits } from '../orders/sample-credits';
 import { findLabSample, moveSample, requireSampleState } from '../samples/sample-access';
 import { sampleDetail, samplePhotos } from '../samples/sample-views';
 import { imageKind } from './image-kind';
@@ -16,6 +17,12 @@ const INTAKE_BENCH = 'Intake bench';
 
 /** Records the parcel on arrival: awaiting-arrival → received, and the first custody link. */
 export async function recordArrival(manager: EntityManager, auth: AuthContext, labId: string, sampleId: string, arrival: RecordArrival): Promise<void> {
+  // The order first, as cancelling does, so an arrival and a cancellation cannot cross.
+  const [order] = await manager.query(
+    'SELECT o.status FROM test_order o JOIN sample s ON s.order_id = o.id AND s.lab_id = o.lab_id WHERE s.id = $1 AND s.lab_id = $2 FOR UPDATE OF o',
+    [sampleId, labId],
+  );
+  if (order?.status === 'cancelled') throw ApiError.conflict('The client cancelled this order; its samples are not to be received for testing.');
   const sample = await findLabSample(manager, labId, sampleId, true);
   const arrivedAt = new Date(arrival.arrivedAt);
   if (arrivedAt.getTime() > Date.now() + 5 * 60_000) {
@@ -91,6 +98,8 @@ export async function acceptSample(manager: EntityManager, auth: AuthContext, la
   const acceptedBecause = warnings.length ? `Accepted despite: ${warnings.map((w) => w.message).join(' ')} Reason: ${body.overrideReason}` : 'Condition acceptable for testing';
   await appendCustody(manager, { labId, sampleId, kind: 'accepted', location: INTAKE_BENCH, reason: acceptedBecause, actorUserId: auth.userId });
   await appendCustody(manager, { labId, sampleId, kind: 'stored', location: body.storageLocation, reason: 'Stored until measurement', actorUserId: auth.userId });
+  // An enrolled reference lot is paid for once the lab takes it in; it never gets a report of its own.
+  if (sample.kind === 'reference-lot') await consumeSampleCredits(manager, labId, sampleId, 'Reference lot accepted for enrolment', auth.userId);
   await recordAudit(manager, { labId, actorUserId: auth.userId, action: 'sample.accepted', subjectType: 'sample', subjectId: sampleId, details: { code: sample.code, storageLocation: body.storageLocation,
     ...(warnings.length ? { warnings: warnings.map((w) => w.message), overrideReason: body.overrideReason } : {}) } });
 }
@@ -100,6 +109,7 @@ export async function rejectSample(manager: EntityManager, auth: AuthContext, la
   const sample = await findLabSample(manager, labId, sampleId, true);
   requireSampleState(sample, ['received'], 'rejecting it');
   await moveSample(manager, sample, 'rejected', { rejectionReason: body.reason });
+  await releaseSampleCredits(manager, labId, sampleId, 'Sample rejected at intake', auth.userId);
   await refreshOrderStatus(manager, labId, sample.orderId);
   await appendCustody(manager, { labId, sampleId, kind: 'rejected', location: INTAKE_BENCH, reason: body.reason, actorUserId: auth.userId });
   const admins: { email: string; display_name: string; client_name: string; product_name: string; lab_name: string }[] = await manager.query(
@@ -126,7 +136,8 @@ export async function rejectSample(manager: EntityManager, auth: AuthContext, la
         '',
         `Reason: ${body.reason}`,
         '',
-        'No test will be run on this sample. Reply to this message or contact the lab to arrange a replacement.',
+        'No test will be run on this sample, and the credits held for it are back in your balance.',
+        'Reply to this message or contact the lab to arrange a replacement.',
       ].join('\n'),
     });
   }

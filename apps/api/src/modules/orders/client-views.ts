@@ -21,16 +21,26 @@ interface OrderRow {
   client_name: string;
   placed_by_id: string;
   placed_by_name: string;
-  samples: { id: string; code: string; state: OrderSummary['samples'][number]['state']; obtainedWhere: string; obtainedOn: string; labelText: string; claimedLot: string; updatedAt: string }[];
+  kind: OrderSummary['kind'];
+  carrier: string;
+  tracking_number: string;
+  shipped_at: Date | null;
+  cancelled_at: Date | null;
+  samples: (Omit<OrderSummary['samples'][number], 'description'> & { obtainedWhere: string; obtainedOn: string; labelText: string; claimedLot: string })[];
   total: string;
 }
 
 const ORDER_SQL = `
-  SELECT o.id, o.status, o.placed_at, o.credits_reserved, p.id AS product_id, p.name AS product_name, p.matrix,
+  SELECT o.id, o.status, o.placed_at, o.credits_reserved, o.kind, o.carrier, o.tracking_number, o.shipped_at, o.cancelled_at,
+         p.id AS product_id, p.name AS product_name, p.matrix,
          co.id AS client_id, co.name AS client_name, u.id AS placed_by_id, u.display_name AS placed_by_name,
          COALESCE((SELECT json_agg(json_build_object('id', s.id, 'code', s.code, 'state', s.state,
                     'obtainedWhere', s.obtained_where, 'obtainedOn', to_char(s.obtained_on, 'YYYY-MM-DD'),
-                    'labelText', s.label_text, 'claimedLot', s.claimed_lot,
+                    'labelText', s.label_text, 'claimedLot', s.claimed_lot, 'kind', s.kind, 'referenceLot', s.reference_lot,
+                    'container', s.container, 'notes', s.client_notes, 'credits', s.credits, 'creditState', s.credit_state,
+                    'hasPhoto', EXISTS (SELECT 1 FROM sample_client_photo ph WHERE ph.sample_id = s.id),
+                    'rejectionReason', s.rejection_reason,
+                    'receivedAt', to_char(s.received_at AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"'),
                     'updatedAt', to_char(s.state_changed_at AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"')) ORDER BY s.code)
                    FROM sample s WHERE s.order_id = o.id AND s.lab_id = o.lab_id), '[]'::json) AS samples,
          count(*) OVER () AS total
@@ -48,12 +58,12 @@ function orderView(r: OrderRow): OrderSummary {
     placedBy: { id: r.placed_by_id, displayName: r.placed_by_name },
     placedAt: r.placed_at.toISOString(),
     creditsReserved: r.credits_reserved,
-    samples: r.samples.map((s) => ({
-      id: s.id,
-      code: s.code,
-      state: s.state,
-      description: { obtainedWhere: s.obtainedWhere, obtainedOn: s.obtainedOn, labelText: s.labelText, claimedLot: s.claimedLot },
-      updatedAt: s.updatedAt,
+    kind: r.kind,
+    shipment: r.shipped_at ? { carrier: r.carrier, trackingNumber: r.tracking_number, shippedAt: r.shipped_at.toISOString() } : null,
+    cancelledAt: r.cancelled_at?.toISOString() ?? null,
+    samples: r.samples.map(({ obtainedWhere, obtainedOn, labelText, claimedLot, ...s }) => ({
+      ...s,
+      description: { obtainedWhere, obtainedOn, labelText, claimedLot },
     })),
   };
 }
@@ -67,6 +77,10 @@ export async function clientOrders(manager: EntityManager, scope: ClientScope, q
   if (query.status) {
     params.push(query.status);
     where.push(`o.status = $${params.length}`);
+  }
+  if (query.kind) {
+    params.push(query.kind);
+    where.push(`o.kind = $${params.length}`);
   }
   if (query.q) {
     params.push(escapeLike(query.q));
@@ -92,6 +106,50 @@ export async function clientOrder(manager: EntityManager, scope: ClientScope, or
 
 const PRODUCT_SORT: Record<ProductListQuery['sort'], string> = { name: 'lower(p.name)', matrix: 'p.matrix' };
 
+interface ProductRow {
+  id: string;
+  name: string;
+  matrix: ProductSummary['matrix'];
+  description: string;
+  client_id: string;
+  client_name: string;
+  version_id: string | null;
+  version: number | null;
+  lot_count: number | null;
+  building: boolean;
+  has_photo: boolean;
+  total: string;
+}
+
+// A library is being built once it exists (a draft version) or lots were sent for enrolment.
+const PRODUCT_SQL = `
+  SELECT p.id, p.name, p.matrix, p.description, co.id AS client_id, co.name AS client_name,
+         v.id AS version_id, v.version, (SELECT count(*)::int FROM reference_lot r WHERE r.library_version_id = v.id) AS lot_count,
+         (EXISTS (SELECT 1 FROM reference_library l WHERE l.product_id = p.id AND l.lab_id = p.lab_id)
+          OR EXISTS (SELECT 1 FROM test_order o WHERE o.product_id = p.id AND o.lab_id = p.lab_id
+                     AND o.kind = 'reference-enrolment' AND o.status <> 'cancelled')) AS building,
+         EXISTS (SELECT 1 FROM product_photo ph WHERE ph.product_id = p.id) AS has_photo,
+         count(*) OVER () AS total
+  FROM product p
+  JOIN client_organisation co ON co.id = p.client_organisation_id AND co.lab_id = p.lab_id
+  LEFT JOIN LATERAL (
+    SELECT v.id, v.version FROM library_version v JOIN reference_library l ON l.id = v.library_id
+    WHERE l.product_id = p.id AND v.lab_id = p.lab_id AND v.status = 'published' ORDER BY v.version DESC LIMIT 1
+  ) v ON true`;
+
+function productView(r: ProductRow): ProductSummary {
+  return {
+    id: r.id,
+    name: r.name,
+    matrix: r.matrix,
+    description: r.description,
+    clientOrganisation: { id: r.client_id, name: r.client_name },
+    publishedLibraryVersion: r.version_id ? { id: r.version_id, version: r.version as number, lotCount: r.lot_count ?? 0 } : null,
+    libraryState: r.version_id ? 'published' : r.building ? 'building' : 'none',
+    hasPhoto: r.has_photo,
+  };
+}
+
 /** The organisation's products, each with its newest published library version. */
 export async function clientProducts(manager: EntityManager, scope: ClientScope, query: ProductListQuery): Promise<Page<ProductSummary>> {
   const params: unknown[] = [scope.labId, scope.clientOrganisationId];
@@ -102,32 +160,20 @@ export async function clientProducts(manager: EntityManager, scope: ClientScope,
   }
   const { skip, take } = pageParams(query);
   params.push(take, skip);
-  const rows: { id: string; name: string; matrix: ProductSummary['matrix']; description: string; client_id: string; client_name: string; version_id: string | null; version: number | null; lot_count: number | null; total: string }[] =
-    await manager.query(
-      `SELECT p.id, p.name, p.matrix, p.description, co.id AS client_id, co.name AS client_name,
-              v.id AS version_id, v.version, (SELECT count(*)::int FROM reference_lot r WHERE r.library_version_id = v.id) AS lot_count,
-              count(*) OVER () AS total
-       FROM product p
-       JOIN client_organisation co ON co.id = p.client_organisation_id AND co.lab_id = p.lab_id
-       LEFT JOIN LATERAL (
-         SELECT v.id, v.version FROM library_version v JOIN reference_library l ON l.id = v.library_id
-         WHERE l.product_id = p.id AND v.lab_id = p.lab_id AND v.status = 'published' ORDER BY v.version DESC LIMIT 1
-       ) v ON true
-       WHERE p.lab_id = $1 AND p.client_organisation_id = $2 ${search}
-       ORDER BY ${PRODUCT_SORT[query.sort]} ${query.dir === 'asc' ? 'ASC' : 'DESC'}, p.id
-       LIMIT $${params.length - 1} OFFSET $${params.length}`,
-      params,
-    );
-  return toPage(
-    rows.map((r) => ({
-      id: r.id,
-      name: r.name,
-      matrix: r.matrix,
-      description: r.description,
-      clientOrganisation: { id: r.client_id, name: r.client_name },
-      publishedLibraryVersion: r.version_id ? { id: r.version_id, version: r.version as number, lotCount: r.lot_count ?? 0 } : null,
-    })),
-    rows.length ? Number(rows[0].total) : 0,
-    query,
+  const rows: ProductRow[] = await manager.query(
+    `${PRODUCT_SQL}
+     WHERE p.lab_id = $1 AND p.client_organisation_id = $2 ${search}
+     ORDER BY ${PRODUCT_SORT[query.sort]} ${query.dir === 'asc' ? 'ASC' : 'DESC'}, p.id
+     LIMIT $${params.length - 1} OFFSET $${params.length}`,
+    params,
   );
+  return toPage(rows.map(productView), rows.length ? Number(rows[0].total) : 0, query);
+}
+
+/** One of the organisation's products; another organisation's answers 404. */
+export async function clientProduct(manager: EntityManager, scope: ClientScope, productId: string): Promise<ProductSummary> {
+  const rows: ProductRow[] = await manager.query(`${PRODUCT_SQL} WHERE p.lab_id = $1 AND p.client_organisation_id = $2 AND p.id = $3`,
+    [scope.labId, scope.clientOrganisationId, productId]);
+  if (!rows.length) throw ApiError.notFound('Product');
+  return productView(rows[0]);
 }

@@ -7,6 +7,7 @@ import { recordAudit } from '../audit/record-audit';
 import { enqueueEmail } from '../mail/enqueue-email';
 import { refreshOrderStatus } from '../orders/order-progress';
 import { issueReport } from '../reports/issue-report';
+import { consumeSampleCredits } from '../orders/sample-credits';
 import { findLabSample, moveSample } from '../samples/sample-access';
 import { AnalysisReview } from './analysis-review.entity';
 import { reportContentFor } from './report-content';
@@ -35,7 +36,10 @@ export async function approveAnalysis(manager: EntityManager, auth: AuthContext,
   await moveSample(manager, sample, 'reported');
   await refreshOrderStatus(manager, labId, sample.orderId);
   const { content, clientOrganisationId } = await reportContentFor(manager, analysis, auth.displayName);
-  const report = await issueReport(manager, { labId, analysisId, sampleId: sample.id, clientOrganisationId, actorUserId: auth.userId, content, issuedAt: decidedAt });
+  const report = await issueReport(manager, {
+    labId, analysisId, sampleId: sample.id, clientOrganisationId, actorUserId: auth.userId, content, issuedAt: decidedAt,
+    steps: [(m, issued) => consumeSampleCredits(m, labId, sample.id, `Report ${issued.number} issued`, auth.userId).then(() => undefined)],
+  });
   await manager.update(AnalysisReview, { id: review.identifiers[0].id as string, labId }, { reportId: report.id });
   await recordAudit(manager, { labId, actorUserId: auth.userId, action: 'analysis.approved', subjectType: 'analysis', subjectId: analysisId, details: { sampleCode: sample.code, reportNumber: report.number } });
   return { analysisId, report: { id: report.id, number: report.number } };

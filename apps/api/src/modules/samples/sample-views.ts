@@ -32,7 +32,8 @@ const QUEUE_SORT: Record<WorkQueueQuery['sort'], string> = {
 /** The lab's work queue: samples by state, with age against the turnaround target. */
 export async function workQueue(manager: EntityManager, labId: string, query: WorkQueueQuery): Promise<Page<WorkQueueItem>> {
   const params: unknown[] = [labId];
-  const where = ['s.lab_id = $1'];
+  // A cancelled order's samples will never come: they are no one's work.
+  const where = ['s.lab_id = $1', "o.status <> 'cancelled'"];
   if (query.state.length) {
     params.push(query.state);
     where.push(`s.state = ANY($${params.length}::text[])`);
@@ -114,6 +115,11 @@ interface DetailRow {
   client_name: string;
   turnaround_days: number;
   intake_limits: IntakeLimit[] | null;
+  kind: SampleDetail['kind'];
+  reference_lot: SampleDetail['referenceLot'];
+  carrier: string;
+  tracking_number: string;
+  shipped_at: Date | null;
   intake: (Omit<NonNullable<SampleDetail['intake']>, 'recordedBy'> & { recordedById: string; recordedByName: string }) | null;
 }
 
@@ -125,7 +131,7 @@ export async function sampleDetail(manager: EntityManager, labId: string, where:
             s.label_text, s.claimed_lot, s.storage_location, s.rejection_reason, s.received_at,
             o.id AS order_id, o.placed_at, o.credits_reserved, pb.id AS placed_by_id, pb.display_name AS placed_by_name,
             p.id AS product_id, p.name AS product_name, p.matrix, co.id AS client_id, co.name AS client_name,
-            l.turnaround_target_days AS turnaround_days, l.intake_limits,
+            l.turnaround_target_days AS turnaround_days, l.intake_limits, s.kind, s.reference_lot, o.carrier, o.tracking_number, o.shipped_at,
             CASE WHEN i.sample_id IS NULL THEN NULL ELSE json_build_object(
               'carrier', i.carrier, 'trackingNumber', i.tracking_number,
               'arrivedAt', to_char(i.arrived_at AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"'),
@@ -169,6 +175,9 @@ export async function sampleDetail(manager: EntityManager, labId: string, where:
     photos,
     rejectionReason: r.rejection_reason,
     storageLocation: r.storage_location,
+    kind: r.kind,
+    referenceLot: r.reference_lot,
+    shipment: r.shipped_at ? { carrier: r.carrier, trackingNumber: r.tracking_number, shippedAt: r.shipped_at.toISOString() } : null,
     turnaroundDays: r.turnaround_days,
     ageDays: timing.ageDays,
     dueAt: timing.dueAt,

@@ -6,16 +6,12 @@ import { MatPaginator, MatPaginatorModule } from '@angular/material/paginator';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSort, MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
-import type { ReportStatus, ReportSummary } from '@ohmprint/contracts';
+import type { ReportSummary } from '@ohmprint/contracts';
 import { EmptyState, ScreeningCaution, SearchField, ServerList, VerdictChip } from '@ohmprint/ui';
 import { Subject } from 'rxjs';
 import { ClientReportsData } from './client-reports-data';
+import { reportStanding } from './report-standing';
 
-const STATUS_LOOK = {
-  issued: { icon: 'verified', label: 'Issued' },
-  superseded: { icon: 'history', label: 'Superseded by a newer revision' },
-  revoked: { icon: 'block', label: 'Revoked by the lab' },
-} as const;
 
 @Component({
   selector: 'ohm-client-reports-page',
@@ -47,11 +43,19 @@ const STATUS_LOOK = {
         </ng-container>
         <ng-container matColumnDef="verdict">
           <th mat-header-cell *matHeaderCellDef>Result</th>
-          <td mat-cell *matCellDef="let r"><ohm-verdict-chip [verdict]="r.verdict" [compact]="true" /></td>
+          <td mat-cell *matCellDef="let r">
+            @if (r.status === 'revoked') {
+              <span class="ohm-status ohm-warning"><mat-icon aria-hidden="true">block</mat-icon>Withdrawn</span>
+            } @else {
+              <ohm-verdict-chip [verdict]="r.verdict" [compact]="true" />
+              @if (r.status === 'superseded') { <span class="note">no longer current</span> }
+            }
+          </td>
         </ng-container>
         <ng-container matColumnDef="status">
           <th mat-header-cell *matHeaderCellDef>Status</th>
-          <td mat-cell *matCellDef="let r"><span class="ohm-status" [class.ohm-warning]="r.status !== 'issued'"><mat-icon aria-hidden="true">{{ statusOf(r.status).icon }}</mat-icon>{{ statusOf(r.status).label }}</span></td>
+          <td mat-cell *matCellDef="let r"><span class="ohm-status" [class.ohm-warning]="r.status !== 'issued'"><mat-icon aria-hidden="true">{{ statusOf(r).icon }}</mat-icon>{{ statusOf(r).label }}</span>
+            @if (r.revocationReason) { <span class="note">{{ r.revocationReason }}</span> }</td>
         </ng-container>
         <ng-container matColumnDef="issuedAt">
           <th mat-header-cell *matHeaderCellDef mat-sort-header>Issued</th>
@@ -59,7 +63,7 @@ const STATUS_LOOK = {
         </ng-container>
         <ng-container matColumnDef="download">
           <th mat-header-cell *matHeaderCellDef><span class="cdk-visually-hidden">Download</span></th>
-          <td mat-cell *matCellDef="let r"><button mat-stroked-button type="button" (click)="data.download(r)"><mat-icon>download</mat-icon>PDF</button></td>
+          <td mat-cell *matCellDef="let r"><button mat-stroked-button type="button" [attr.aria-label]="'Download ' + r.number + (r.status === 'issued' ? '' : ' (' + statusOf(r).label + ')')" (click)="data.download(r)"><mat-icon>download</mat-icon>{{ r.status === 'issued' ? 'PDF' : r.status === 'revoked' ? 'Revoked PDF' : 'Old PDF' }}</button></td>
         </ng-container>
         <tr mat-header-row *matHeaderRowDef="columns"></tr>
         <tr mat-row *matRowDef="let row; columns: columns"></tr>
@@ -89,8 +93,8 @@ export class ClientReportsPage implements AfterViewInit {
   protected readonly list = new ServerList<ReportSummary>();
   protected readonly search = new Subject<string>();
 
-  protected statusOf(status: ReportStatus): (typeof STATUS_LOOK)[ReportStatus] {
-    return STATUS_LOOK[status];
+  protected statusOf(r: ReportSummary): { icon: string; label: string } {
+    return reportStanding(r) ?? { icon: 'verified', label: 'Issued' };
   }
 
   ngAfterViewInit(): void {

@@ -11,7 +11,16 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { ActivatedRoute, RouterLink } from '@angular/router';
-import { CONTAINER_CONDITION_LABELS, CONTAINER_CONDITIONS, SampleCodeSchema, type CustodyEvent, type SampleDetail } from '@ohmprint/contracts';
+import {
+  CHEMISTRY_FIELDS,
+  CONTAINER_CONDITION_LABELS,
+  CONTAINER_CONDITIONS,
+  SampleCodeSchema,
+  type ChemistryField,
+  type CustodyEvent,
+  type ReferenceLotDeclaration,
+  type SampleDetail,
+} from '@ohmprint/contracts';
 import { ApiProblem, Notice, Notifier, SAMPLE_STATE_LOOK, SampleStateChip, showFieldErrors } from '@ohmprint/ui';
 import { CustodyTimeline } from './custody-timeline';
 import { IntakeData } from './intake-data';
@@ -150,6 +159,14 @@ export class IntakePage implements OnInit, AfterViewInit {
     this.custody.update((list) => [...list, event]);
   }
 
+  /** The chemistry the producer declared for a reference lot, with units, or null when none. */
+  protected chemistryOf(lot: ReferenceLotDeclaration): string | null {
+    const parts = (Object.entries(lot.chemistry) as [ChemistryField, number | undefined][])
+      .filter(([, v]) => v !== undefined)
+      .map(([k, v]) => `${CHEMISTRY_FIELDS[k].label} ${v}${CHEMISTRY_FIELDS[k].unit ? ' ' + CHEMISTRY_FIELDS[k].unit : ''}`);
+    return parts.length ? parts.join(' · ') : null;
+  }
+
   protected nextSample(): void {
     this.sample.set(null);
     this.code.setValue('');
@@ -160,7 +177,11 @@ export class IntakePage implements OnInit, AfterViewInit {
     this.sample.set(s);
     this.photos.set([]);
     this.data.custody(s.id).subscribe((t) => this.custody.set(t.events));
-    if (s.state === 'awaiting-arrival') this.arrival.reset({ ...this.arrival.getRawValue(), arrivedAt: toLocalInput(new Date()) });
+    if (s.state === 'awaiting-arrival') {
+      // What the client said about the parcel is the best first guess; the technician corrects it from the label in hand.
+      const shipped = s.shipment ? { carrier: s.shipment.carrier, trackingNumber: s.shipment.trackingNumber } : {};
+      this.arrival.reset({ ...this.arrival.getRawValue(), ...shipped, arrivedAt: toLocalInput(new Date()) });
+    }
   }
 
   private uploadPhotos(s: SampleDetail): void {
