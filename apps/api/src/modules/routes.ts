@@ -22,6 +22,8 @@ import { librariesRouter } from './libraries/router';
 import { analysesRouter } from './analyses/router';
 import { reviewsRouter } from './reviews/router';
 import { clientOrdersRouter } from './orders/router';
+import { clientNotificationsRouter } from './notifications/router';
+import { nextIssueRouter } from './reports/next-issue.router';
 
 /** Every feature's router, one line each. Paths are under /api. */
 export function apiRoutes(): Router {
@@ -30,7 +32,7 @@ export function apiRoutes(): Router {
   api.use('/auth', authRouter());
   api.use('/invitations', invitationsRouter());
   api.use('/me', meRouter());
-  api.use('/lab/profile', labProfileRouter());
+  api.use(labProfileRouter());
   api.use('/lab/audit-events', auditLogRouter());
   api.use('/lab/staff', staffRouter());
   api.use('/lab/client-organisations', clientOrganisationsRouter());
@@ -49,5 +51,7 @@ export function apiRoutes(): Router {
   api.use('/lab', analysesRouter());
   api.use('/lab', reviewsRouter());
   api.use(clientOrdersRouter());
+  api.use(clientNotificationsRouter());
+  api.use(nextIssueRouter());
   return api;
 }
