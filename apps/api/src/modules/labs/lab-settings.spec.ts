@@ -65,19 +65,36 @@ function makeP12({ passphrase = 'test passphrase', notBefore, notAfter, withKey 
 }
 
 /**
- * Same file with its iteration counts rewritten to 1,000,000 without deriving anything: packed
- * with 32768 (DER 02 03 00 80 00), each occurrence swapped for 1,000,000 (02 03 0F 42 40), the
- * same length. `which` picks the MAC's (the last) or the encryptions' (all others).
+ * Same file with its iteration counts rewritten to 1,000,000 through node-forge's ASN.1, deriving
+ * nothing: `which` picks the MAC's (in the PFX's MacData) or the encryptions' (every other INTEGER
+ * equal to the packing count, inside the authenticated safe's nested DER).
  */
-function withMillionIterations(p12: Buffer, which: 'mac' | 'encryption'): Buffer {
-  const from = Buffer.from([0x02, 0x03, 0x00, 0x80, 0x00]);
-  const to = Buffer.from([0x02, 0x03, 0x0f, 0x42, 0x40]);
-  const at: number[] = [];
-  for (let i = p12.indexOf(from); i >= 0; i = p12.indexOf(from, i + 1)) at.push(i);
-  expect(at.length).toBeGreaterThanOrEqual(2);
-  const out = Buffer.from(p12);
-  for (const i of which === 'mac' ? at.slice(-1) : at.slice(0, -1)) to.copy(out, i);
-  return out;
+function withMillionIterations(p12: Buffer, packedWith: number, which: 'mac' | 'encryption'): Buffer {
+  const { asn1 } = forge;
+  const million = asn1.integerToDer(1_000_000).getBytes();
+  const packed = asn1.integerToDer(packedWith).getBytes();
+  let rewritten = 0;
+  const rewrite = (node: forge.asn1.Asn1): void => {
+    if (Array.isArray(node.value)) node.value.forEach(rewrite);
+    else if (node.type === asn1.Type.INTEGER && node.value === packed) {
+      node.value = million;
+      rewritten++;
+    } else if (node.type === asn1.Type.OCTETSTRING && !node.constructed && node.value.length > 2) {
+      try {
+        const inner = asn1.fromDer(node.value);
+        rewrite(inner);
+        node.value = asn1.toDer(inner).getBytes();
+      } catch {
+        // not DER inside: salt, digest or ciphertext
+      }
+    }
+  };
+  const pfx = asn1.fromDer(p12.toString('binary'));
+  const [, authSafe, macData] = pfx.value as forge.asn1.Asn1[];
+  if (which === 'mac') rewrite(macData);
+  else rewrite(authSafe);
+  expect(rewritten).toBeGreaterThanOrEqual(1);
+  return Buffer.from(asn1.toDer(pfx).getBytes(), 'binary');
 }
 
 const upload = async (file: Buffer, passphrase: string, name = 'signing.p12') =>
@@ -226,12 +243,12 @@ describe('signing certificate upload', () => {
   });
 
   it('refuses a million key-derivation iterations, naming the limit, before deriving any key', async () => {
-    const base = makeP12({ count: 32768 });
+    const base = makeP12({ count: 4096 });
     const generateKey = jest.spyOn(forge.pkcs12, 'generateKey');
     const getCipher = jest.spyOn((forge.pki as unknown as { pbe: { getCipher: () => unknown } }).pbe, 'getCipher');
     try {
       for (const which of ['mac', 'encryption'] as const) {
-        const res = await upload(withMillionIterations(base, which), 'test passphrase');
+        const res = await upload(withMillionIterations(base, 4096, which), 'test passphrase');
         expect(res.status).toBe(400);
         expect(res.body.detail).toContain('1,000,000 key-derivation iterations');
         expect(res.body.detail).toContain(`at most ${MAX_PKCS12_ITERATIONS.toLocaleString('en-GB')}`);
@@ -244,7 +261,7 @@ describe('signing certificate upload', () => {
       generateKey.mockRestore();
       getCipher.mockRestore();
     }
-    // The same file with its own counts (32768, under the limit) opens.
+    // The same file with its own counts (4096, under the limit) opens.
     expect((await upload(base, 'test passphrase')).status).toBe(201);
   });
 });
