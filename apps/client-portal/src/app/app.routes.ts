@@ -18,6 +18,7 @@ export const routes: Routes = [
       { path: 'team', canActivate: [roleGuard('client-admin', 'client-member')], loadChildren: () => import('./team/team.routes') },
       { path: 'orders', canActivate: [roleGuard('client-admin', 'client-member')], loadChildren: () => import('./orders/orders.routes') },
       { path: 'reports', canActivate: [roleGuard('client-admin', 'client-member')], loadChildren: () => import('./reports/reports.routes') },
+      { path: 'notifications', canActivate: [roleGuard('client-admin', 'client-member')], loadChildren: () => import('./notifications/notifications.routes') },
       { path: '**', title: 'Not found · Ohmprint', component: NotFoundPage },
     ],
   },

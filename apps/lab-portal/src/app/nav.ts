@@ -8,6 +8,8 @@ export const LAB_NAV: readonly NavItem[] = [
   { label: 'Reviews', icon: 'rate_review', path: '/reviews', roles: ['reviewer'] },
   { label: 'Reports', icon: 'description', path: '/reports', roles: ['reviewer', 'lab-admin', 'analyst'] },
   { label: 'Instrument keys', icon: 'key', path: '/instrument-keys', roles: ['lab-admin'] },
+  { label: 'Lab profile', icon: 'apartment', path: '/lab-settings/profile', roles: ['lab-admin'] },
+  { label: 'Signing certificate', icon: 'verified_user', path: '/lab-settings/signing-certificate', roles: ['lab-admin'] },
   { label: 'Staff', icon: 'group', path: '/staff', roles: ['lab-admin'] },
   { label: 'Client organisations', icon: 'storefront', path: '/clients', roles: ['lab-admin'] },
   { label: 'Labs', icon: 'domain', path: '/labs', roles: ['platform-operator'] },

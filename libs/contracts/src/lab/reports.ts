@@ -54,6 +54,8 @@ export const ReportDetailSchema = ReportSummarySchema.extend({
   verificationUrl: z.string(),
   issuedBy: z.string(),
   revokedBy: z.string().nullable(),
+  /** The remarks printed on this revision (an amendment starts from them). */
+  remarks: z.string().nullable(),
 });
 
 export const ReportListQuerySchema = listQuery(['issuedAt', 'number', 'status'], 'desc').extend({
