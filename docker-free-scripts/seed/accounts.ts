@@ -3,6 +3,7 @@ import { LabRoleMembership } from '../../apps/api/src/modules/accounts/lab-role-
 import { User } from '../../apps/api/src/modules/accounts/user.entity';
 import { ClientMembership } from '../../apps/api/src/modules/client-organisations/client-membership.entity';
 import { ClientOrganisation } from '../../apps/api/src/modules/client-organisations/client-organisation.entity';
+import { seedLabContacts } from './lab-contact-demo';
 import { Lab } from '../../apps/api/src/modules/labs/lab.entity';
 import { DEMO_LABS, DEMO_OPERATOR } from './accounts-demo-data';
 
@@ -55,4 +56,5 @@ export async function seedAccounts(manager: EntityManager, passwordHash: string)
       }
     }
   }
+  await seedLabContacts(manager);
 }

@@ -227,6 +227,8 @@ describe('one suspect sample, from order to verified report', () => {
     await page.getByRole('table', { name: 'Analyses awaiting review', exact: true }).getByRole('link', { name: SAMPLE }).click();
     await page.getByText(REMARKS).waitFor();
     await page.getByRole('button', { name: 'Approve and issue the report' }).click();
+    // the confirmation names the number to come and the signing credential first
+    await page.getByRole('dialog').getByRole('button', { name: 'Approve and issue' }).click();
     const issued = page.getByText(/Report [A-Z]{2,4}-\d{4}-\d{6} issued, signed and sent to the client\./);
     await issued.waitFor();
     handOn.reportNumber = /([A-Z]{2,4}-\d{4}-\d{6})/.exec(await issued.innerText())![1];

@@ -15,3 +15,4 @@ export * from './audit-log';
 export * from './lab';
 export * from './lab/reports';
 export * from './billing';
+export * from './notifications';

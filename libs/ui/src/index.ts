@@ -36,3 +36,4 @@ export * from './lists/list-status';
 export * from './people/invitee-email-field';
 export * from './people/open-invitations';
 export * from './people/first-admin';
+export * from './shell/toolbar-items';

@@ -26,6 +26,8 @@ import { clientOrdersRouter } from './orders/router';
 import { clientOrderingRouter } from './orders/client-ordering.router';
 import { clientBillingRouter } from './billing/client-billing.router';
 import { labBillingRouter } from './billing/lab-billing.router';
+import { clientNotificationsRouter } from './notifications/router';
+import { nextIssueRouter } from './reports/next-issue.router';
 
 /** Every feature's router, one line each. Paths are under /api. */
 export function apiRoutes(): Router {
@@ -34,7 +36,7 @@ export function apiRoutes(): Router {
   api.use('/auth', authRouter());
   api.use('/invitations', invitationsRouter());
   api.use('/me', meRouter());
-  api.use('/lab/profile', labProfileRouter());
+  api.use(labProfileRouter());
   api.use(auditLogRouter());
   api.use('/lab/staff', staffRouter());
   api.use(clientOrganisationsRouter());
@@ -57,5 +59,7 @@ export function apiRoutes(): Router {
   api.use(clientOrderingRouter());
   api.use(clientBillingRouter());
   api.use(labBillingRouter());
+  api.use(clientNotificationsRouter());
+  api.use(nextIssueRouter());
   return api;
 }

@@ -25,6 +25,7 @@ export const routes: Routes = [
       { path: 'samples', canActivate: [roleGuard(...LAB_STAFF)], loadChildren: () => import('./samples/samples.routes') },
       { path: 'reviews', canActivate: [roleGuard('reviewer')], loadChildren: () => import('./reviews/reviews.routes') },
       { path: 'reports', canActivate: [roleGuard('reviewer', 'lab-admin', 'analyst')], loadChildren: () => import('./reports/reports.routes') },
+      { path: 'lab-settings', canActivate: [roleGuard('lab-admin')], loadChildren: () => import('./lab-settings/lab-settings.routes') },
       { path: 'instrument-keys', canActivate: [roleGuard('lab-admin')], loadChildren: () => import('./instrument-keys/instrument-keys.routes') },
       { path: '**', title: 'Not found · Ohmprint lab', component: NotFoundPage },
     ],

@@ -54,6 +54,8 @@ export const ReportDetailSchema = ReportSummarySchema.extend({
   verificationUrl: z.string(),
   issuedBy: z.string(),
   revokedBy: z.string().nullable(),
+  /** The remarks printed on this revision (an amendment starts from them). */
+  remarks: z.string().nullable(),
 });
 
 export const ReportListQuerySchema = listQuery(['issuedAt', 'number', 'status'], 'desc').extend({
@@ -158,3 +160,12 @@ export type VerifyReportQuery = z.infer<typeof VerifyReportQuerySchema>;
 export type VerificationResult = z.infer<typeof VerificationResultSchema>;
 export type SigningCredentialSummary = z.infer<typeof SigningCredentialSchema>;
 export type SigningCredentialState = z.infer<typeof SigningCredentialStateSchema>;
+
+/** What the next approval would produce: shown in the reviewer's confirmation before approving. */
+export const NextIssueSchema = z.object({
+  nextReportNumber: z.string(),
+  credential: SigningCredentialSchema.nullable(),
+  /** With no credential: development creates a self-signed one on first issue; production refuses. */
+  withoutCredential: z.enum(['development-self-signed', 'refused']).nullable(),
+});
+export type NextIssue = z.infer<typeof NextIssueSchema>;

@@ -1,4 +1,5 @@
 import { BreakpointObserver } from '@angular/cdk/layout';
+import { NgComponentOutlet } from '@angular/common';
 import { ChangeDetectionStrategy, Component, ElementRef, computed, inject, viewChild } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
@@ -13,6 +14,7 @@ import { Session } from '../auth/session';
 import { PORTAL } from '../portal/portal-config';
 import { NAV_ITEMS, visibleNavItems } from './nav-item';
 import { ThemeMode, type SchemeChoice } from './theme-mode';
+import { TOOLBAR_ITEMS } from './toolbar-items';
 
 /** Below this width the side navigation becomes an overlay opened from the toolbar. */
 const COMPACT_LAYOUT = '(max-width: 839.98px)';
@@ -30,6 +32,7 @@ const COMPACT_LAYOUT = '(max-width: 839.98px)';
     RouterOutlet,
     RouterLink,
     RouterLinkActive,
+    NgComponentOutlet,
   ],
   templateUrl: './app-shell.html',
   styleUrl: './app-shell.scss',
@@ -42,6 +45,7 @@ export class AppShell {
   private readonly navItems = inject(NAV_ITEMS);
 
   protected readonly portal = inject(PORTAL);
+  protected readonly toolbarItems = inject(TOOLBAR_ITEMS);
   protected readonly user = this.session.user;
   protected readonly organisation = this.session.organisationName;
   protected readonly nav = computed(() => visibleNavItems(this.navItems, this.session.roles()));

@@ -4,7 +4,7 @@ import { ApiError } from '../../core/api-error';
 import type { AuthContext } from '../auth/auth-context';
 import { recordAudit } from '../audit/record-audit';
 import { appendCustody } from '../custody/append-custody';
-import { enqueueEmail } from '../mail/enqueue-email';
+import { notifyClientOrganisation } from '../notifications/notify-client-organisation';
 import { refreshOrderStatus } from '../orders/order-progress';
 import { consumeSampleCredits, releaseSampleCredits } from '../orders/sample-credits';
 import { findLabSample, moveSample, requireSampleState } from '../samples/sample-access';
@@ -42,6 +42,32 @@ export async function recordArrival(manager: EntityManager, auth: AuthContext, l
     occurredAt: arrivedAt,
   });
   await recordAudit(manager, { labId, actorUserId: auth.userId, action: 'sample.received', subjectType: 'sample', subjectId: sampleId, details: { code: sample.code } });
+  const order = await orderFacts(manager, labId, sample.orderId);
+  await notifyClientOrganisation(manager, {
+    labId,
+    clientOrganisationId: order.clientOrganisationId,
+    event: 'sample-received',
+    subject: `Sample ${sample.code} has arrived at ${order.labName}`,
+    text: [
+      `${order.labName} received sample ${sample.code} (${order.productName}) for ${order.clientName} on ${arrivedAt.toISOString().slice(0, 10)}.`,
+      'The lab checks its condition next; you will hear again when it is accepted for testing or if it cannot be.',
+    ].join('\n\n'),
+    link: `/orders/${sample.orderId}`,
+  });
+}
+
+/** Who ordered the sample and what, for the client's notifications. */
+async function orderFacts(manager: EntityManager, labId: string, orderId: string): Promise<{ clientOrganisationId: string; clientName: string; productName: string; labName: string }> {
+  const [row] = await manager.query(
+    `SELECT o.client_organisation_id, co.name AS client_name, p.name AS product_name, l.name AS lab_name
+       FROM test_order o
+       JOIN client_organisation co ON co.id = o.client_organisation_id AND co.lab_id = o.lab_id
+       JOIN product p ON p.id = o.product_id
+       JOIN lab l ON l.id = o.lab_id
+      WHERE o.id = $1 AND o.lab_id = $2`,
+    [orderId, labId],
+  );
+  return { clientOrganisationId: row.client_organisation_id, clientName: row.client_name, productName: row.product_name, labName: row.lab_name };
 }
 
 export interface UploadedImage {
@@ -112,42 +138,26 @@ export async function rejectSample(manager: EntityManager, auth: AuthContext, la
   await releaseSampleCredits(manager, labId, sampleId, 'Sample rejected at intake', auth.userId);
   await refreshOrderStatus(manager, labId, sample.orderId);
   await appendCustody(manager, { labId, sampleId, kind: 'rejected', location: INTAKE_BENCH, reason: body.reason, actorUserId: auth.userId });
-  const admins: { email: string; display_name: string; client_name: string; product_name: string; lab_name: string }[] = await manager.query(
-    `SELECT u.email, u.display_name, co.name AS client_name, p.name AS product_name, l.name AS lab_name
-     FROM test_order o
-     JOIN client_organisation co ON co.id = o.client_organisation_id AND co.lab_id = o.lab_id
-     JOIN product p ON p.id = o.product_id
-     JOIN lab l ON l.id = o.lab_id
-     JOIN client_membership cm ON cm.client_organisation_id = co.id AND cm.lab_id = o.lab_id AND cm.role = 'client-admin'
-     JOIN app_user u ON u.id = cm.user_id AND u.status = 'active'
-     WHERE o.id = $1 AND o.lab_id = $2
-     ORDER BY u.email`,
-    [sample.orderId, labId],
-  );
-  for (const a of admins) {
-    await enqueueEmail(manager, {
-      labId,
-      to: a.email,
-      subject: `Sample ${sample.code} was not accepted for testing`,
-      text: [
-        `Dear ${a.display_name},`,
-        '',
-        `${a.lab_name} received sample ${sample.code} (${a.product_name}) for ${a.client_name} but could not accept it for testing.`,
-        '',
-        `Reason: ${body.reason}`,
-        '',
-        'No test will be run on this sample, and the credits held for it are back in your balance.',
-        'Reply to this message or contact the lab to arrange a replacement.',
-      ].join('\n'),
-    });
-  }
+  const order = await orderFacts(manager, labId, sample.orderId);
+  const { emailed } = await notifyClientOrganisation(manager, {
+    labId,
+    clientOrganisationId: order.clientOrganisationId,
+    event: 'sample-rejected',
+    subject: `Sample ${sample.code} was not accepted for testing`,
+    text: [
+      `${order.labName} received sample ${sample.code} (${order.productName}) for ${order.clientName} but could not accept it for testing.`,
+      `Reason: ${body.reason}`,
+      'No test will be run on this sample, and the credits held for it are back in your balance. Contact the lab (details below) to arrange a replacement.',
+    ].join('\n\n'),
+    link: `/orders/${sample.orderId}`,
+  });
   await recordAudit(manager, {
     labId,
     actorUserId: auth.userId,
     action: 'sample.rejected',
     subjectType: 'sample',
     subjectId: sampleId,
-    details: { code: sample.code, reason: body.reason, notified: admins.map((a) => a.email) },
+    details: { code: sample.code, reason: body.reason, notified: emailed },
   });
-  return { notified: admins.map((a) => a.email) };
+  return { notified: emailed };
 }

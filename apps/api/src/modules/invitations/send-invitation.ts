@@ -6,7 +6,7 @@ import { User } from '../accounts/user.entity';
 import { recordAudit } from '../audit/record-audit';
 import { portalLink } from '../auth/portal-links';
 import { hashToken, newSecureToken } from '../auth/secure-token';
-import { enqueueEmail } from '../mail/enqueue-email';
+import { enqueueLabEmail } from '../notifications/lab-email';
 import { Invitation } from './invitation.entity';
 
 export interface NewInvitation {
@@ -55,9 +55,7 @@ export async function sendInvitation(manager: EntityManager, inv: NewInvitation)
       expiresAt: new Date(Date.now() + config.auth.invitationTtlDays * 86400_000),
     }),
   );
-  await enqueueEmail(manager, {
-    labId: inv.labId,
-    to: inv.email,
+  await enqueueLabEmail(manager, inv.labId, inv.email, {
     subject: `Your invitation to ${inv.clientOrganisationName ?? inv.labName} on Ohmprint`,
     text: invitationText(inv, portalLink(inv.clientOrganisationId !== null, 'accept-invitation', token)),
   });

@@ -8,6 +8,8 @@ export class EmailOutbox {
   @PrimaryGeneratedColumn('uuid') id!: string;
   @Column({ name: 'lab_id', type: 'uuid', nullable: true }) labId!: string | null;
   @Column({ name: 'to_address', type: 'text' }) to!: string;
+  /** Where a reply goes: the lab's contact address, so no message asks for a reply nobody reads. */
+  @Column({ name: 'reply_to', type: 'text', nullable: true }) replyTo!: string | null;
   @Column({ type: 'text' }) subject!: string;
   @Column({ name: 'text_body', type: 'text' }) text!: string;
   @Column({ name: 'html_body', type: 'text', nullable: true }) html!: string | null;

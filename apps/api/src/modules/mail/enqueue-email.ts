@@ -7,6 +7,8 @@ export interface OutgoingEmail {
   subject: string;
   text: string;
   html?: string;
+  /** Reply-To header; the lab's contact e-mail for anything a client may answer. */
+  replyTo?: string | null;
 }
 
 /**
@@ -20,6 +22,7 @@ export async function enqueueEmail(manager: EntityManager, email: OutgoingEmail)
     subject: email.subject,
     text: email.text,
     html: email.html ?? null,
+    replyTo: email.replyTo || null,
   });
   return result.identifiers[0].id as string;
 }

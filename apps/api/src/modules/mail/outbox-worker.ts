@@ -36,7 +36,7 @@ export async function deliverDueEmails(dataSource: DataSource, transport: Transp
     for (const message of due) {
       const attempts = message.attempts + 1;
       try {
-        const info = await transport.sendMail({ from, to: message.to, subject: message.subject, text: message.text, html: message.html ?? undefined });
+        const info = await transport.sendMail({ from, to: message.to, subject: message.subject, text: message.text, html: message.html ?? undefined, replyTo: message.replyTo ?? undefined });
         await manager.update(EmailOutbox, message.id, { status: 'sent', attempts, sentAt: new Date(), lastError: null, messageId: info.messageId ?? null });
         round.sent += 1;
       } catch (err) {

@@ -90,7 +90,7 @@ describe('issuing a report on approval', () => {
     const after = await counts(a);
     expect(after).toMatchObject({ analysis_status: 'approved', reports: 1, numbers_used: 1, audits: 1 });
     const mails = await t.db.query('SELECT to_address, text_body FROM email_outbox WHERE lab_id = $1 AND subject = $2', [a.labId, `Test report ${report.number} is ready`]);
-    expect(mails.map((m: { to_address: string }) => m.to_address)).toEqual(['admin@hollinridge.test']);
+    expect(mails.map((m: { to_address: string }) => m.to_address)).toEqual(['admin@hollinridge.test', 'member@hollinridge.test']);
     expect(mails[0].text_body).toContain(`/verify?report=${report.number}&code=`);
     expect(mails[0].text_body).toContain(SCREENING_CAUTION);
   });

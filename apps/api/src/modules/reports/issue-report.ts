@@ -1,8 +1,7 @@
 import type { EntityManager } from 'typeorm';
 import { ApiError } from '../../core/api-error';
-import { config } from '../../config';
 import { recordAudit } from '../audit/record-audit';
-import { enqueueEmail } from '../mail/enqueue-email';
+import { notifyClientOrganisation } from '../notifications/notify-client-organisation';
 import { Lab } from '../labs/lab.entity';
 import { ReportContent, ReportData } from './pdf/report-data';
 import { VERDICT_WORDS } from './pdf/verdict-badge';
@@ -11,7 +10,6 @@ import { TestReport } from './test-report.entity';
 import { nextReportNumber } from './report-numbering';
 import { formatVerificationCode, newVerificationCode, verificationUrl } from './verification-code';
 import { produceSignedReport } from './produce-signed-report';
-import { clientRecipients } from './report-recipients';
 
 /** A step another feature adds to the issuing transaction, run after the report row exists. */
 export type IssuanceStep = (manager: EntityManager, report: TestReport) => Promise<void>;
@@ -62,14 +60,14 @@ export async function issueReport(manager: EntityManager, input: IssueReportInpu
     subjectId: report.id,
     details: { number, analysisId: input.analysisId, sha256: report.sha256, verdict: report.verdict },
   });
-  await notifyClient(manager, report, {
+  await notifyClient(manager, report, 'report-issued', {
     subject: `Test report ${number} is ready`,
     lines: [
       `Test report ${number} for sample ${report.sampleCode} (${report.productName}) has been issued by ${lab.name}.`,
       `Result: ${VERDICT_WORDS[report.verdict]}.`,
       // the e-mail states a result, so it carries the same caution as the report and the screens
       SCREENING_CAUTION,
-      `Download it from your reports page: ${config.publicBaseUrl}/reports`,
+      'Download it from your reports page (link below).',
       `Anyone holding the PDF can check it at ${verificationUrl(number, report.verificationCode)}`,
     ],
   });
@@ -131,10 +129,17 @@ export async function storeSignedReport(manager: EntityManager, lab: Lab, input:
   return manager.save(TestReport, report);
 }
 
-/** Queues the same message to every client recipient, in the caller's transaction. */
-export async function notifyClient(manager: EntityManager, report: TestReport, message: { subject: string; lines: string[] }): Promise<void> {
-  const text = `${message.lines.join('\n\n')}\n\nThis message was sent by Ohmprint on behalf of the laboratory.`;
-  for (const to of await clientRecipients(manager, report.labId, report.clientOrganisationId)) {
-    await enqueueEmail(manager, { labId: report.labId, to, subject: message.subject, text });
-  }
+/**
+ * Tells the report's client organisation (e-mail and in-app, in the caller's transaction); the
+ * link opens the client's reports page.
+ */
+export async function notifyClient(manager: EntityManager, report: TestReport, event: 'report-issued' | 'report-amended' | 'report-revoked', message: { subject: string; lines: string[] }): Promise<void> {
+  await notifyClientOrganisation(manager, {
+    labId: report.labId,
+    clientOrganisationId: report.clientOrganisationId,
+    event,
+    subject: message.subject,
+    text: message.lines.join('\n\n'),
+    link: '/reports',
+  });
 }

@@ -13,7 +13,8 @@ export interface SignedReport {
 
 /** Renders the report and signs it with the lab's credential; the hash is of the signed bytes. */
 export async function produceSignedReport(manager: EntityManager, lab: { id: string; name: string }, data: ReportData): Promise<SignedReport> {
-  const unsigned = await renderReportPdf(data);
+  const [row]: Array<{ logo: Buffer | null }> = await manager.query('SELECT logo FROM lab WHERE id = $1', [lab.id]);
+  const unsigned = await renderReportPdf(data, { logo: row?.logo ?? null });
   const credential = await credentialForSigning(manager, lab);
   const pdf = await signPdf(unsigned, credential.p12, credential.passphrase, {
     // The number in the signature's reason is readable in the file without decompressing anything,

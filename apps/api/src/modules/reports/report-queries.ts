@@ -112,8 +112,10 @@ export async function reportDetail(manager: EntityManager, scope: ReportScope, i
   const rows: Row[] = await manager.query(`${SELECT} WHERE ${clause} AND r.id = $${params.length}`, params);
   if (!rows.length) throw ApiError.notFound('The report');
   const row = rows[0];
+  const [{ remarks }]: Array<{ remarks: string | null }> = await manager.query(`SELECT content->>'remarks' AS remarks FROM test_report WHERE id = $1`, [row.id]);
   return {
     ...summary(row),
+    remarks,
     verificationCode: formatVerificationCode(row.verification_code),
     verificationUrl: verificationUrl(row.number, row.verification_code),
     issuedBy: row.issued_by,

@@ -83,7 +83,7 @@ export async function amendReport(
     subjectId: amended.id,
     details: { number: amended.number, replaces: previous.number, reason: request.reason, corrections: request.corrections },
   });
-  await notifyClient(manager, amended, {
+  await notifyClient(manager, amended, 'report-amended', {
     subject: `Test report ${previous.number} has been amended`,
     lines: [
       `${lab.name} has issued report ${amended.number}, which replaces report ${previous.number} for sample ${amended.sampleCode}.`,
@@ -107,7 +107,7 @@ export async function revokeReport(manager: EntityManager, auth: AuthContext, la
     details: { number: report.number, reason },
   });
   const lab = await manager.findOneByOrFail(Lab, { id: labId });
-  await notifyClient(manager, report, {
+  await notifyClient(manager, report, 'report-revoked', {
     subject: `Test report ${report.number} has been revoked`,
     lines: [`${lab.name} has revoked test report ${report.number} for sample ${report.sampleCode}.`, `Reason: ${reason}`, 'The report should no longer be relied on.'],
   });

@@ -2,6 +2,11 @@ import type { NextFunction, Request, Response } from 'express';
 import multer from 'multer';
 import { ApiError } from '../../core/api-error';
 
+/** A byte limit as people say it: 512 KB, 1 MB, 25 MB. */
+export function sizeInWords(bytes: number): string {
+  return bytes < 1024 * 1024 ? `${Math.round(bytes / 1024)} KB` : `${Math.round(bytes / 1024 / 1024)} MB`;
+}
+
 /**
  * Multipart upload of one file held in memory (it is hashed or parsed, never written to disk),
  * with multer's errors turned into problems that name the field and the limit.
@@ -12,7 +17,7 @@ export function singleFileUpload(field: string, maxBytes: number, what: string) 
     upload(req, res, (err: unknown) => {
       if (err instanceof multer.MulterError) {
         if (err.code === 'LIMIT_FILE_SIZE') {
-          next(new ApiError(413, 'File too large', `The ${what} is larger than ${Math.round(maxBytes / 1024 / 1024)} MB.`, { type: 'file-too-large', errors: [{ field, message: `must be at most ${maxBytes} bytes` }] }));
+          next(new ApiError(413, 'File too large', `The ${what} is larger than ${sizeInWords(maxBytes)}.`, { type: 'file-too-large', errors: [{ field, message: `must be at most ${maxBytes} bytes` }] }));
         } else {
           next(ApiError.badRequest(`The upload could not be read: ${err.message} (field "${err.field ?? field}").`, [{ field: err.field ?? field, message: err.message }]));
         }

@@ -21,6 +21,7 @@ interface ContextRow {
   placed_by_email: string;
   lab_name: string;
   lab_address: string;
+  lab_contact_email: string;
   lab_is_demo: boolean;
   accreditation_body: string | null;
   accreditation_number: string | null;
@@ -40,7 +41,7 @@ export async function reportContentFor(manager: EntityManager, analysis: Analysi
     `SELECT s.code, s.obtained_where, to_char(s.obtained_on, 'YYYY-MM-DD') AS obtained_on, s.label_text, s.claimed_lot, s.received_at,
             p.name AS product_name, p.matrix, co.id AS client_id, co.name AS client_name, co.contact_email AS client_email,
             pb.display_name AS placed_by_name, pb.email AS placed_by_email,
-            l.name AS lab_name, l.address AS lab_address, l.is_demo AS lab_is_demo, l.accreditation_body, l.accreditation_number,
+            l.name AS lab_name, l.address AS lab_address, l.contact_email AS lab_contact_email, l.is_demo AS lab_is_demo, l.accreditation_body, l.accreditation_number,
             an.display_name AS analyst_name,
             i.carrier, i.seal_intact, i.container_condition, i.volume_ml, i.temperature_c,
             (SELECT min(r.uploaded_at) FROM replicate r WHERE r.id = ANY($3::uuid[])) AS tested_from,
@@ -66,6 +67,7 @@ export async function reportContentFor(manager: EntityManager, analysis: Analysi
       name: c.lab_name,
       address: c.lab_address.split(/\s*(?:\n|,)\s*/).filter(Boolean),
       accreditation: c.accreditation_body && c.accreditation_number ? { body: c.accreditation_body, number: c.accreditation_number } : null,
+      contactEmail: c.lab_contact_email || null,
     },
     client: { name: c.client_name, contactName: c.placed_by_name, contactEmail: c.client_email ?? c.placed_by_email },
     sample: {

@@ -27,7 +27,7 @@ export interface ReasonDialogData {
       @if (d.action === 'amend') {
         <p>A new revision is issued and signed; this one then reads as superseded. Results come from the approved analysis; here you correct the remarks.</p>
         <mat-form-field class="full">
-          <mat-label>Corrected remarks</mat-label>
+          <mat-label>Remarks (the current ones, to correct)</mat-label>
           <textarea matInput rows="3" [formControl]="remarks"></textarea>
         </mat-form-field>
       } @else {
@@ -43,7 +43,7 @@ export interface ReasonDialogData {
     </mat-dialog-content>
     <mat-dialog-actions align="end">
       <button mat-button type="button" mat-dialog-close>Cancel</button>
-      <button mat-flat-button type="button" [class.destructive]="d.action === 'revoke'" [disabled]="reason.invalid || saving()" (click)="confirm()">
+      <button mat-flat-button type="button" [class.destructive]="d.action === 'revoke'" [disabled]="reason.invalid || saving() || !remarksReady()" (click)="confirm()">
         {{ d.action === 'amend' ? 'Issue amendment' : 'Revoke report' }}
       </button>
     </mat-dialog-actions>
@@ -61,6 +61,27 @@ export class ReasonDialog {
   protected readonly remarks = new FormControl('', { nonNullable: true });
   protected readonly saving = signal(false);
   protected readonly error = signal<string | null>(null);
+
+  /** False while an amendment's current remarks load, so an empty box is never sent by mistake. */
+  protected readonly remarksReady = signal(this.d.action !== 'amend');
+
+  constructor() {
+    // An amendment corrects the remarks in print: start from them, not from an empty box.
+    if (this.d.action === 'amend') {
+      this.remarks.disable();
+      this.data.get(this.d.report.id).subscribe({
+        next: (detail) => {
+          this.remarks.setValue(detail.remarks ?? '');
+          this.remarks.enable();
+          this.remarksReady.set(true);
+        },
+        error: () => {
+          this.remarks.enable();
+          this.error.set('The current remarks could not be loaded; close and try again.');
+        },
+      });
+    }
+  }
 
   protected confirm(): void {
     this.saving.set(true);

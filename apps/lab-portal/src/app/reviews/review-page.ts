@@ -1,6 +1,7 @@
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal } from '@angular/core';
 import { FormControl, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
+import { MatDialog } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
@@ -13,6 +14,8 @@ import { AnalysisResult } from '../analyses/analysis-result';
 import { MeasurementsPanel } from '../measurements/measurements-panel';
 import { ReportFiles } from '../reports/report-files';
 import { analysisStatusLabel } from '../analyses/analysis-status-label';
+import { filter } from 'rxjs';
+import { ApprovalConfirmDialog, type ApprovalConfirmData } from './approval-confirm-dialog';
 import { reviewRefusal } from './review-refusal';
 
 /** The reviewer reads the analysis as submitted and approves (issuing the report) or returns it. */
@@ -60,7 +63,7 @@ import { reviewRefusal } from './review-refusal';
             <p class="ohm-muted">{{ w }}</p>
           }
           <div class="buttons">
-            <button mat-flat-button type="button" [disabled]="!!working() || ownAnalysis()" (click)="approve(a)"><mat-icon>verified</mat-icon>Approve and issue the report</button>
+            <button mat-flat-button type="button" [disabled]="!!working() || ownAnalysis()" (click)="confirmApproval(a)"><mat-icon>verified</mat-icon>Approve and issue the report…</button>
             <button mat-stroked-button type="button" [disabled]="!!working() || ownAnalysis() || comments.value.trim().length < 5" (click)="sendBack(a)"><mat-icon>undo</mat-icon>Return to the analyst</button>
           </div>
         </section>
@@ -83,6 +86,7 @@ export class ReviewPage {
   private readonly files = inject(ReportFiles);
   private readonly notifier = inject(Notifier);
   private readonly session = inject(Session);
+  private readonly dialog = inject(MatDialog);
   readonly id = input.required<string>();
 
   protected readonly analysis = signal<Analysis | null>(null);
@@ -97,7 +101,16 @@ export class ReviewPage {
     effect(() => this.data.get(this.id()).subscribe((a) => this.analysis.set(a)));
   }
 
-  protected approve(a: Analysis): void {
+  /** Asks first, naming the report number to come and the credential that will sign. */
+  protected confirmApproval(a: Analysis): void {
+    this.dialog
+      .open<ApprovalConfirmDialog, ApprovalConfirmData, boolean>(ApprovalConfirmDialog, { data: { sampleCode: a.sample.code }, autoFocus: 'dialog', maxWidth: '640px' })
+      .afterClosed()
+      .pipe(filter((confirmed) => confirmed === true))
+      .subscribe(() => this.approve(a));
+  }
+
+  private approve(a: Analysis): void {
     this.refusal.set(null);
     this.working.set('Issuing the report: numbering, rendering the PDF, signing it and e-mailing the client…');
     this.data.approve(a.id, this.comments.value).subscribe({

@@ -16,7 +16,12 @@ import { formatDate, formatDateTime, formatNumber, formatPercent } from './repor
  * on every page with page x of y, lab, client, item and its condition, dates, method, results with
  * the decision rule (7.8.6), statements, authorisation and a marked end.
  */
-export function renderReportPdf(data: ReportData): Promise<Buffer> {
+export interface RenderOptions {
+  /** The lab's logo (PNG or JPEG bytes), drawn in the header of every page; omitted when absent or unreadable. */
+  logo?: Buffer | null;
+}
+
+export function renderReportPdf(data: ReportData, options: RenderOptions = {}): Promise<Buffer> {
   const doc = new PDFDocument({
     size: 'A4',
     margins: { top: PAGE.top, bottom: 0, left: PAGE.left, right: PAGE.right },
@@ -47,7 +52,7 @@ export function renderReportPdf(data: ReportData): Promise<Buffer> {
   writeParameters(flow, data);
   writeStatements(flow, data);
   writeAuthorisation(flow, data);
-  writePageFrames(doc, data);
+  writePageFrames(doc, data, openLogo(doc, options.logo));
   doc.end();
   return done;
 }
@@ -248,13 +253,43 @@ function writeAuthorisation(flow: Flow, data: ReportData): void {
   write(doc, end, { size: 9, weight: 700, color: INK.muted, lineBreak: false }, PAGE.left + CONTENT_WIDTH / 2 - widthOf(doc, end, 700, 9) / 2, flow.y + 6);
 }
 
+/** The header logo's box: at most this wide and tall (points), above the header rule at y = 44. */
+const LOGO_BOX = { width: 110, height: 26, top: 14 } as const;
+
+interface PlacedLogo {
+  image: PDFKit.Mixins.ImageSrc;
+  width: number;
+  height: number;
+}
+
+/**
+ * Opens the logo once (embedded once, drawn on every page), scaled to fit the header box with its
+ * aspect ratio kept. A logo pdfkit cannot read is left out rather than stopping the report.
+ */
+function openLogo(doc: PDFKit.PDFDocument, logo: Buffer | null | undefined): PlacedLogo | null {
+  if (!logo?.length) return null;
+  try {
+    const image = (doc as unknown as { openImage(src: Buffer): { width: number; height: number } }).openImage(logo);
+    const scale = Math.min(LOGO_BOX.width / image.width, LOGO_BOX.height / image.height);
+    return { image: image as unknown as PDFKit.Mixins.ImageSrc, width: image.width * scale, height: image.height * scale };
+  } catch {
+    return null;
+  }
+}
+
 /** Header and footer on every page, drawn last so "page x of y" knows y. */
-function writePageFrames(doc: PDFKit.PDFDocument, data: ReportData): void {
+function writePageFrames(doc: PDFKit.PDFDocument, data: ReportData, logo: PlacedLogo | null): void {
   const { start, count } = doc.bufferedPageRange();
   for (let i = start; i < start + count; i++) {
     doc.switchToPage(i);
     const right = PAGE.width - PAGE.right;
-    write(doc, data.lab.name, { size: 8, weight: 600, color: INK.teal, lineBreak: false }, PAGE.left, 30);
+    let nameX = PAGE.left;
+    if (logo) {
+      // bottom-aligned with the lab's name, just above the rule
+      doc.image(logo.image, PAGE.left, LOGO_BOX.top + LOGO_BOX.height - logo.height, { width: logo.width, height: logo.height });
+      nameX += logo.width + 8;
+    }
+    write(doc, data.lab.name, { size: 8, weight: 600, color: INK.teal, lineBreak: false }, nameX, 30);
     const id = `Test report ${data.reportNumber}`;
     write(doc, id, { size: 8, weight: 600, lineBreak: false }, right - widthOf(doc, id, 600, 8), 30);
     if (data.demo) {

@@ -1,5 +1,6 @@
 import { createHash } from 'node:crypto';
 import forge from 'node-forge';
+import { Pkcs12ShapeError, checkIterations, withIterationGuard } from './pkcs12-iterations';
 
 /** Public facts about a signing credential; the key itself never leaves this module's callers. */
 export interface CredentialDetails {
@@ -27,9 +28,12 @@ const distinguishedName = (attributes: forge.pki.CertificateField[]): string =>
 export function readCredential(p12: Buffer, passphrase: string, now = new Date()): CredentialDetails {
   let parsed: forge.pkcs12.Pkcs12Pfx;
   try {
+    // Before deriving any key: the file's shape, and iteration counts within the limit.
+    checkIterations(p12);
     const asn1 = forge.asn1.fromDer(forge.util.createBuffer(p12.toString('binary')));
-    parsed = forge.pkcs12.pkcs12FromAsn1(asn1, false, passphrase);
+    parsed = withIterationGuard(() => forge.pkcs12.pkcs12FromAsn1(asn1, false, passphrase));
   } catch (error) {
+    if (error instanceof Pkcs12ShapeError) throw new CredentialError(error.message);
     const reason = error instanceof Error && /mac|password|invalid/i.test(error.message) ? 'the passphrase is wrong or the file is damaged' : 'it is not a PKCS#12 (.p12/.pfx) file';
     throw new CredentialError(`The signing credential could not be opened: ${reason}.`);
   }
