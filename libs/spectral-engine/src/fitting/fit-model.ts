@@ -129,7 +129,20 @@ export function fitModel(s: Spectrum, model: ModelReference, options: FitOptions
   if (!best) return failure(m, weighting, first);
 
   const fitted = Float64Array.from(best.u, (x, j) => toModelSpace(x, bounds[j]));
-  const held = covarianceAt(fitted, bounds, weightedResidual, 2 * n, best.cost);
+  // The model's own derivatives, where it has them, save the 2p evaluations of central differences.
+  const modelJacobian = derivatives
+    ? (pv: Float64Array, jac: Float64Array): boolean => {
+        derivatives(pv, omega, re, im, dRe, dIm);
+        for (let j = 0; j < p; j++) {
+          for (let i = 0; i < n; i++) {
+            jac[j * 2 * n + i] = -dRe[j * n + i] * w[i];
+            jac[j * 2 * n + n + i] = -dIm[j * n + i] * w[n + i];
+          }
+        }
+        return jac.every(Number.isFinite);
+      }
+    : undefined;
+  const held = covarianceAt(fitted, bounds, weightedResidual, 2 * n, best.cost, modelJacobian);
   if (!held) return failure(m, weighting, { iterations: best.iterations, reason: 'the parameters are not identifiable from this spectrum (singular Jacobian at the optimum, after scaling each parameter)' });
 
   m.evaluate(fitted, omega, re, im);
@@ -168,8 +181,8 @@ export function fitModel(s: Spectrum, model: ModelReference, options: FitOptions
 }
 
 /**
- * s²(JᵀJ)⁻¹ with J taken in the model's own parameters by central differences (one-sided at a
- * bound), so the uncertainties do not depend on the search space and stay in the parameters' units.
+ * s²(JᵀJ)⁻¹ with J taken in the model's own parameters (its analytic derivatives, else central
+ * differences, one-sided at a bound), so the uncertainties do not depend on the search space and stay in the parameters' units.
  * Identifiability is judged on the column-scaled problem (see scaledCovariance), so parameters
  * many decades apart (a CPE magnitude of 1e−9 beside resistances of 1e3) are not mistaken for
  * dependent ones. A parameter that rests on a bound (a CPE exponent of exactly 1, or a resistance
@@ -182,28 +195,30 @@ function covarianceAt(
   residual: (pv: Float64Array, out: Float64Array) => boolean,
   rows: number,
   cost: number,
+  modelJacobian?: (pv: Float64Array, jac: Float64Array) => boolean,
 ): { covariance: Float64Array; atBound: boolean[] } | null {
   const k = p.length;
   const jac = new Float64Array(rows * k);
+  const analytic = modelJacobian ? modelJacobian(p, jac) : false;
   const plus = new Float64Array(rows);
   const minus = new Float64Array(rows);
   const probe = new Float64Array(k);
   const sensitivity = new Float64Array(k);
   for (let j = 0; j < k; j++) {
     const { lower, upper } = bounds[j];
-    const h = Math.cbrt(Number.EPSILON) * Math.max(Math.abs(p[j]), Number.isFinite(lower) && Number.isFinite(upper) ? upper - lower : 1e-300);
-    const up = Math.min(p[j] + h, upper);
-    const down = Math.max(p[j] - h, lower);
-    probe.set(p);
-    probe[j] = up;
-    if (!residual(probe, plus)) return null;
-    probe[j] = down;
-    if (!residual(probe, minus)) return null;
-    let norm = 0;
-    for (let i = 0; i < rows; i++) {
-      jac[j * rows + i] = (plus[i] - minus[i]) / (up - down);
-      norm += jac[j * rows + i] ** 2;
+    if (!analytic) {
+      const h = Math.cbrt(Number.EPSILON) * Math.max(Math.abs(p[j]), Number.isFinite(lower) && Number.isFinite(upper) ? upper - lower : 1e-300);
+      const up = Math.min(p[j] + h, upper);
+      const down = Math.max(p[j] - h, lower);
+      probe.set(p);
+      probe[j] = up;
+      if (!residual(probe, plus)) return null;
+      probe[j] = down;
+      if (!residual(probe, minus)) return null;
+      for (let i = 0; i < rows; i++) jac[j * rows + i] = (plus[i] - minus[i]) / (up - down);
     }
+    let norm = 0;
+    for (let i = 0; i < rows; i++) norm += jac[j * rows + i] ** 2;
     // How much the spectrum moves for a relative change of a one-sided parameter (its logarithm).
     sensitivity[j] = Math.sqrt(norm) * (Number.isFinite(lower) && !Number.isFinite(upper) ? p[j] - lower : Number.isFinite(upper) && !Number.isFinite(lower) ? upper - p[j] : 1);
   }
