@@ -59,6 +59,10 @@ describe('fitModel', () => {
     const bounded = fitModel(data, 'r-zarc');
     if (!bounded.converged) throw new Error(bounded.reason);
     expect(bounded.parameters['n']).toBe(1);
+    // Held on its bound: named as such, no uncertainty of its own; the others keep theirs.
+    expect(bounded.parametersAtBound).toEqual(['n']);
+    expect(bounded.standardErrors['n']).toBe(0);
+    expect(bounded.standardErrors['q']).toBeGreaterThan(0);
     // The same spectrum fitted with n fixed at 1 (an ideal capacitor): the χ² the bounded fit must reach.
     const fixed = fitModel(data, 'rs + 1/(1/r + q*j*ω)', { initial: { rs: 20, r: 300, q: 4e-6 } });
     if (!fixed.converged) throw new Error(fixed.reason);

@@ -129,8 +129,21 @@ export function fitModel(s: Spectrum, model: ModelReference, options: FitOptions
   if (!best) return failure(m, weighting, first);
 
   const fitted = Float64Array.from(best.u, (x, j) => toModelSpace(x, bounds[j]));
-  const covariance = covarianceAt(fitted, bounds, weightedResidual, 2 * n, best.cost);
-  if (!covariance) return failure(m, weighting, { iterations: best.iterations, reason: 'the parameters are not identifiable from this spectrum (singular Jacobian at the optimum, after scaling each parameter)' });
+  // The model's own derivatives, where it has them, save the 2p evaluations of central differences.
+  const modelJacobian = derivatives
+    ? (pv: Float64Array, jac: Float64Array): boolean => {
+        derivatives(pv, omega, re, im, dRe, dIm);
+        for (let j = 0; j < p; j++) {
+          for (let i = 0; i < n; i++) {
+            jac[j * 2 * n + i] = -dRe[j * n + i] * w[i];
+            jac[j * 2 * n + n + i] = -dIm[j * n + i] * w[n + i];
+          }
+        }
+        return jac.every(Number.isFinite);
+      }
+    : undefined;
+  const held = covarianceAt(fitted, bounds, weightedResidual, 2 * n, best.cost, modelJacobian);
+  if (!held) return failure(m, weighting, { iterations: best.iterations, reason: 'the parameters are not identifiable from this spectrum (singular Jacobian at the optimum, after scaling each parameter)' });
 
   m.evaluate(fitted, omega, re, im);
   const residualsRePct = new Float64Array(n);
@@ -152,8 +165,9 @@ export function fitModel(s: Spectrum, model: ModelReference, options: FitOptions
     weighting,
     parameterNames: names,
     parameters: Object.fromEntries(names.map((name, j) => [name, fitted[j]])),
-    standardErrors: Object.fromEntries(names.map((name, j) => [name, Math.sqrt(covariance[j * p + j])])),
-    covariance: names.map((_, r) => Array.from(covariance.subarray(r * p, (r + 1) * p))),
+    standardErrors: Object.fromEntries(names.map((name, j) => [name, Math.sqrt(held.covariance[j * p + j])])),
+    covariance: names.map((_, r) => Array.from(held.covariance.subarray(r * p, (r + 1) * p))),
+    parametersAtBound: names.filter((_, j) => held.atBound[j]),
     chiSquare: best.cost,
     reducedChiSquare: best.cost / dof,
     degreesOfFreedom: dof,
@@ -167,11 +181,13 @@ export function fitModel(s: Spectrum, model: ModelReference, options: FitOptions
 }
 
 /**
- * s²(JᵀJ)⁻¹ with J taken in the model's own parameters by central differences (one-sided at a
- * bound), so the uncertainties do not depend on the search space and stay in the parameters' units.
+ * s²(JᵀJ)⁻¹ with J taken in the model's own parameters (its analytic derivatives, else central
+ * differences, one-sided at a bound), so the uncertainties do not depend on the search space and stay in the parameters' units.
  * Identifiability is judged on the column-scaled problem (see scaledCovariance), so parameters
  * many decades apart (a CPE magnitude of 1e−9 beside resistances of 1e3) are not mistaken for
- * dependent ones.
+ * dependent ones. A parameter that rests on a bound (a CPE exponent of exactly 1, or a resistance
+ * driven to 0, where its logarithm no longer moves the spectrum) is held there, as a constrained fit
+ * holds it: it gets no row in the covariance (zeros, standard error 0) and the rest are judged alone.
  */
 function covarianceAt(
   p: Float64Array,
@@ -179,22 +195,46 @@ function covarianceAt(
   residual: (pv: Float64Array, out: Float64Array) => boolean,
   rows: number,
   cost: number,
-): Float64Array | null {
+  modelJacobian?: (pv: Float64Array, jac: Float64Array) => boolean,
+): { covariance: Float64Array; atBound: boolean[] } | null {
   const k = p.length;
   const jac = new Float64Array(rows * k);
+  const analytic = modelJacobian ? modelJacobian(p, jac) : false;
   const plus = new Float64Array(rows);
   const minus = new Float64Array(rows);
   const probe = new Float64Array(k);
+  const sensitivity = new Float64Array(k);
   for (let j = 0; j < k; j++) {
-    const h = Math.cbrt(Number.EPSILON) * Math.max(Math.abs(p[j]), 1e-300);
-    const up = Math.min(p[j] + h, bounds[j].upper);
-    const down = Math.max(p[j] - h, bounds[j].lower);
-    probe.set(p);
-    probe[j] = up;
-    if (!residual(probe, plus)) return null;
-    probe[j] = down;
-    if (!residual(probe, minus)) return null;
-    for (let i = 0; i < rows; i++) jac[j * rows + i] = (plus[i] - minus[i]) / (up - down);
+    const { lower, upper } = bounds[j];
+    if (!analytic) {
+      const h = Math.cbrt(Number.EPSILON) * Math.max(Math.abs(p[j]), Number.isFinite(lower) && Number.isFinite(upper) ? upper - lower : 1e-300);
+      const up = Math.min(p[j] + h, upper);
+      const down = Math.max(p[j] - h, lower);
+      probe.set(p);
+      probe[j] = up;
+      if (!residual(probe, plus)) return null;
+      probe[j] = down;
+      if (!residual(probe, minus)) return null;
+      for (let i = 0; i < rows; i++) jac[j * rows + i] = (plus[i] - minus[i]) / (up - down);
+    }
+    let norm = 0;
+    for (let i = 0; i < rows; i++) norm += jac[j * rows + i] ** 2;
+    // How much the spectrum moves for a relative change of a one-sided parameter (its logarithm).
+    sensitivity[j] = Math.sqrt(norm) * (Number.isFinite(lower) && !Number.isFinite(upper) ? p[j] - lower : Number.isFinite(upper) && !Number.isFinite(lower) ? upper - p[j] : 1);
   }
-  return scaledCovariance(jac, rows, k, cost / (rows - k));
+  const largest = Math.max(...sensitivity);
+  const atBound = Array.from(p, (v, j) => {
+    const { lower, upper } = bounds[j];
+    if (Number.isFinite(lower) && Number.isFinite(upper)) return v - lower <= 1e-12 * (upper - lower) || upper - v <= 1e-12 * (upper - lower);
+    if (Number.isFinite(lower) || Number.isFinite(upper)) return sensitivity[j] <= 1e-9 * largest;
+    return false;
+  });
+  const free = atBound.map((b, j) => (b ? -1 : j)).filter((j) => j >= 0);
+  const freeJac = new Float64Array(rows * free.length);
+  free.forEach((j, c) => freeJac.set(jac.subarray(j * rows, (j + 1) * rows), c * rows));
+  const freeCovariance = free.length ? scaledCovariance(freeJac, rows, free.length, cost / (rows - k)) : new Float64Array(0);
+  if (!freeCovariance) return null;
+  const covariance = new Float64Array(k * k);
+  free.forEach((r, a) => free.forEach((c, b) => (covariance[r * k + c] = freeCovariance[a * free.length + b])));
+  return { covariance, atBound };
 }

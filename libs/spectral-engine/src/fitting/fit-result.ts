@@ -9,9 +9,17 @@ export interface FitSuccess {
   readonly parameterNames: readonly string[];
   /** Fitted values in the catalog's units. */
   readonly parameters: Readonly<Record<string, number>>;
-  /** One standard error per parameter, √diag(s²(JᵀJ)⁻¹) with s² = χ²/(2N − p). */
+  /**
+   * One standard error per parameter, √diag(s²(JᵀJ)⁻¹) with s² = χ²/(2N − p), in the parameter's
+   * units; 0 for a parameter held on a bound (see parametersAtBound).
+   */
   readonly standardErrors: Readonly<Record<string, number>>;
   readonly covariance: readonly (readonly number[])[];
+  /**
+   * Parameters that rest on a bound at the optimum (a CPE exponent of 1, a resistance driven to 0):
+   * held there as a constrained fit holds them, with no uncertainty of their own.
+   */
+  readonly parametersAtBound: readonly string[];
   /** Σ of squared weighted residuals (dimensionless for modulus/proportional weighting, Ω² for unit). */
   readonly chiSquare: number;
   /** χ²/(2N − p). */
