@@ -26,15 +26,15 @@ import { clientOrdersRouter } from './orders/router';
 /** Every feature's router, one line each. Paths are under /api. */
 export function apiRoutes(): Router {
   const api = Router();
-  api.use('/health', healthRouter());
+  api.use(healthRouter());
   api.use('/auth', authRouter());
   api.use('/invitations', invitationsRouter());
   api.use('/me', meRouter());
   api.use('/lab/profile', labProfileRouter());
-  api.use('/lab/audit-events', auditLogRouter());
+  api.use(auditLogRouter());
   api.use('/lab/staff', staffRouter());
-  api.use('/lab/client-organisations', clientOrganisationsRouter());
-  api.use('/operator/labs', operatorLabsRouter());
+  api.use(clientOrganisationsRouter());
+  api.use(operatorLabsRouter());
   api.use('/client/team', clientTeamRouter());
   api.use('/lab/reports', labReportsRouter());
   api.use('/lab/signing-credential', signingCredentialRouter());
@@ -42,7 +42,7 @@ export function apiRoutes(): Router {
   api.use('/public/verify', verificationRouter());
   api.use('/lab', samplesRouter());
   api.use('/lab', intakeRouter());
-  api.use('/lab', custodyRouter());
+  api.use(custodyRouter());
   api.use('/lab', measurementsRouter());
   api.use('/lab', instrumentKeysRouter());
   api.use('/lab', librariesRouter());

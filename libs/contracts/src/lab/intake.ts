@@ -90,7 +90,7 @@ export const WorkQueueItemSchema = z.object({
 export type WorkQueueItem = z.infer<typeof WorkQueueItemSchema>;
 
 /** Default order: oldest first. `state` may repeat (`?state=accepted&state=measuring`) or be comma-separated. */
-export const WorkQueueQuerySchema = listQuery(['age', 'code', 'state', 'product', 'client'], 'desc')
+export const WorkQueueQuerySchema = listQuery(['age', 'due', 'code', 'state', 'product', 'client'], 'desc')
   .extend({
     state: z
       .union([z.string(), z.array(z.string())])

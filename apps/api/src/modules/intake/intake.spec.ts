@@ -118,6 +118,16 @@ describe('intake', () => {
     expect(milk.body.items[0]).toMatchObject({ turnaroundDays: 7, overdue: true });
     expect(milk.body.items[0].ageDays).toBeCloseTo(8, 0);
   });
+
+  it('sorts the work queue by due date, soonest first or last', async () => {
+    const analyst = await t.authFor('analyst');
+    const soonest = await request(t.app).get('/api/lab/samples?sort=due&dir=asc&pageSize=100').set(analyst);
+    const dues = soonest.body.items.map((i: { dueAt: string }) => Date.parse(i.dueAt));
+    expect(dues.length).toBeGreaterThan(2);
+    expect(dues).toEqual([...dues].sort((a, b) => a - b));
+    const latest = await request(t.app).get('/api/lab/samples?sort=due&dir=desc&pageSize=100').set(analyst);
+    expect(latest.body.items.map((i: { dueAt: string }) => Date.parse(i.dueAt))).toEqual([...dues].sort((a, b) => b - a));
+  });
 });
 
 describe('chain of custody is append-only', () => {

@@ -20,6 +20,8 @@ interface QueueRow {
 const QUEUE_SORT: Record<WorkQueueQuery['sort'], string> = {
   // Oldest first is "age descending", i.e. the clock's start ascending.
   age: 'COALESCE(s.received_at, o.placed_at)',
+  // The turnaround target is the lab's, so the due date orders as the clock's start does.
+  due: 'COALESCE(s.received_at, o.placed_at)',
   code: 's.code',
   state: 's.state',
   product: 'lower(p.name)',
