@@ -103,6 +103,8 @@ describe('re-analysis after revocation', () => {
 
     const revoked = await request(t.app).post(`/api/lab/reports/${original.id}/revoke`).set(await t.authFor('reviewer')).send({ reason: 'To be re-analysed: wrong cell constant' });
     expect(revoked.status).toBe(200);
+    const detail = await request(t.app).get(`/api/lab/samples/${latest.sample_id}`).set(analyst);
+    expect(detail.body).toMatchObject({ state: 'reported', revokedReport: original.number });
     const rerun = await again();
     expect(rerun.status).toBe(201);
     const [sample] = await t.db.query(`SELECT state FROM sample WHERE id = $1`, [latest.sample_id]);

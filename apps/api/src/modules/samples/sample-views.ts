@@ -3,6 +3,7 @@ import type { IntakePhoto, Page, SampleDetail, WorkQueueItem, WorkQueueQuery } f
 import { ApiError } from '../../core/api-error';
 import { escapeLike, pageParams, toPage } from '../../core/paging';
 import { sampleTiming } from './sample-timing';
+import { revokedReportOf } from '../analyses/revoked-report';
 
 interface QueueRow {
   id: string;
@@ -145,6 +146,7 @@ export async function sampleDetail(manager: EntityManager, labId: string, where:
   const r = rows[0];
   if (!r) throw ApiError.notFound(byCode ? `Sample ${where.code}` : 'Sample');
   const photos = await samplePhotos(manager, labId, r.id);
+  const revoked = r.state === 'reported' ? await revokedReportOf(manager, labId, r.id) : null;
   const { recordedById, recordedByName, ...intake } = r.intake ?? ({} as NonNullable<DetailRow['intake']>);
   const timing = sampleTiming(r.placed_at, r.received_at, r.turnaround_days);
   return {
@@ -165,6 +167,7 @@ export async function sampleDetail(manager: EntityManager, labId: string, where:
     rejectionReason: r.rejection_reason,
     storageLocation: r.storage_location,
     turnaroundDays: r.turnaround_days,
+    revokedReport: revoked?.number ?? null,
     ageDays: timing.ageDays,
     dueAt: timing.dueAt,
   };
