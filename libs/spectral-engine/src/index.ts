@@ -38,3 +38,4 @@ export { referConductivity } from './normalise/temperature-referral';
 export { cellConstantFromStandard, conductivityFromResistance, type CellConstant, type CellConstantOptions } from './normalise/cell-constant';
 export { averageReplicates } from './normalise/average-replicates';
 export { linearKramersKronig, type KramersKronigOptions, type KramersKronigResult } from './quality/linear-kramers-kronig';
+export { readExportMetadata, type ExportMetadata, type ReadExportMetadataOptions, type StatedSample, type StatedTemperature, type StatedDateTime, type StatedText, type TemperatureUnit } from './import/read-export-metadata';

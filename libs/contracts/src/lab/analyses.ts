@@ -26,9 +26,12 @@ export const QualityFlagSchema = z.object({
     'too-few-replicates',
     'too-few-lots',
     'fit-poor',
+    'resembles-other-product',
   ]),
   severity: z.enum(['warning', 'blocking']),
   message: z.string(),
+  /** The report's wording when it must differ from the lab's (another client's product is not named to this client). */
+  reportMessage: z.string().optional(),
 });
 export type QualityFlag = z.infer<typeof QualityFlagSchema>;
 
@@ -72,6 +75,15 @@ export const AnalysisResultSchema = z.object({
 });
 export type AnalysisResult = z.infer<typeof AnalysisResultSchema>;
 
+/** One replicate's measurement temperature and where it came from (see `TemperatureSource`). */
+export const MeasurementTemperatureSchema = z.object({
+  replicateNumber: z.number().int(),
+  fileName: z.string(),
+  temperatureC: z.number(),
+  source: z.enum(['entered', 'file', 'entered-over-file']),
+});
+export type MeasurementTemperature = z.infer<typeof MeasurementTemperatureSchema>;
+
 export const AnalysisSchema = z.object({
   id: z.uuid(),
   sample: z.object({ id: z.uuid(), code: z.string() }),
@@ -86,6 +98,10 @@ export const AnalysisSchema = z.object({
   analyst: UserRefSchema,
   createdAt: z.iso.datetime({ offset: true }),
   submittedAt: z.iso.datetime({ offset: true }).nullable(),
+  /** The scored replicates' measurement temperatures, before referral to `method.referenceTemperatureC`. */
+  measurementTemperatures: z.array(MeasurementTemperatureSchema).optional(),
+  /** The revoked report of this sample that a report from this analysis would follow, if any. */
+  followsRevokedReport: z.string().nullable().optional(),
   reviews: z.array(
     z.object({
       id: z.uuid(),

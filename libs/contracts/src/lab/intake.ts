@@ -89,6 +89,8 @@ export const SampleDetailSchema = z.object({
   ageDays: z.number(),
   turnaroundDays: z.number().int(),
   dueAt: z.iso.datetime({ offset: true }),
+  /** A reported sample's revoked report when none is in force: the sample may be measured and analysed again. */
+  revokedReport: z.string().nullable().optional(),
 });
 export type SampleDetail = z.infer<typeof SampleDetailSchema>;
 

@@ -25,6 +25,11 @@ export const MethodSettingsSchema = z
     kkResidualLimitPercent: z.number().positive().max(50),
     /** Largest pairwise replicate distance accepted. */
     replicateDistanceLimit: z.number().positive().max(1),
+    /**
+     * Largest difference, °C, between a typed sample temperature and the one an export states
+     * before the typed value needs a reason. A lab's choice (0.5 °C by default), not a standard.
+     */
+    temperatureMismatchLimitC: z.number().min(0).max(10).default(0.5),
   })
   .refine((m) => m.bandMaxHz > m.bandMinHz, { path: ['bandMaxHz'], message: 'must be above bandMinHz' })
   .refine((m) => m.upperQuantile > m.lowerQuantile, {

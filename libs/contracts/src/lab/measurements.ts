@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { NamedRefSchema } from '../auth';
 import { UserRefSchema } from './refs';
+import { DeclaredExportSchema, FileRefusalSchema, TemperatureSourceSchema, UploadConfirmationsFieldSchema } from './export-identity';
 
 /** Cell constant from the form, or from the cell's newest KCl calibration. */
 export const CELL_CONSTANT_SOURCES = ['entered', 'latest-calibration'] as const;
@@ -18,8 +19,14 @@ export const MeasurementUploadFieldsSchema = z
     cellConstantSource: CellConstantSourceSchema.default('latest-calibration'),
     /** cm⁻¹; required when `cellConstantSource` is `entered`. */
     cellConstantPerCm: z.coerce.number().positive().max(1000).optional(),
-    /** Sample temperature during the sweep, °C. */
-    temperatureC: z.coerce.number().min(-10).max(90),
+    /**
+     * Sample temperature during the sweep, °C. Needed for files that do not state one; a file's
+     * own temperature is used otherwise, and a typed value that differs from it by more than the
+     * method's limit needs a `temperature` confirmation.
+     */
+    temperatureC: z.preprocess((v) => (v === '' ? undefined : v), z.coerce.number().min(-10).max(90).optional()),
+    /** JSON array of `{ fileName, about, reason }`: what the analyst confirms per file (audited). */
+    confirmations: UploadConfirmationsFieldSchema.optional(),
   })
   .refine((v) => v.cellConstantSource !== 'entered' || v.cellConstantPerCm !== undefined, {
     path: ['cellConstantPerCm'],
@@ -49,6 +56,9 @@ export const ReplicateSchema = z.object({
   cellConstantSource: CellConstantSourceSchema,
   calibrationId: z.uuid().nullable(),
   temperatureC: z.number(),
+  temperatureSource: TemperatureSourceSchema,
+  /** What the export said about itself; null for uploads made before it was read. */
+  declared: DeclaredExportSchema.nullable(),
   pointCount: z.number().int(),
   minFrequencyHz: z.number(),
   maxFrequencyHz: z.number(),
@@ -68,6 +78,12 @@ export const RejectedFileSchema = z.object({
   line: z.number().int().nullable(),
   column: z.number().int().nullable(),
   message: z.string(),
+  /** Why it was refused; a confirmation with a reason keeps `other-sample` and `temperature-mismatch` files. */
+  problem: FileRefusalSchema,
+  /** The other sample's code the file names (`other-sample`). */
+  namedCode: z.string().nullable(),
+  /** The file's own temperature, °C, when it states one. */
+  fileTemperatureC: z.number().nullable(),
 });
 export type RejectedFile = z.infer<typeof RejectedFileSchema>;
 

@@ -123,6 +123,8 @@ export const VerificationResultSchema = z.object({
       productName: z.string(),
       sampleCode: z.string(),
       verdict: VerdictSchema,
+      /** The revoked report of the same sample that this one follows (a re-analysis), if any. */
+      followsRevoked: z.string().nullable().optional(),
     })
     .nullable(),
   supersededBy: z.string().nullable(),

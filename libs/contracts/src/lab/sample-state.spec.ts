@@ -13,9 +13,11 @@ describe('sample codes', () => {
 });
 
 describe('sample state machine', () => {
-  it('lets a returned sample go back to analysis but never a reported one', () => {
+  it('lets a returned or reported sample go back to work, but never straight back to review', () => {
     expect(canMoveSample('returned-for-rework', 'analysed')).toBe(true);
-    expect(canMoveSample('reported', 'measuring')).toBe(false);
+    // a reported sample is re-analysed after its report is revoked (the API checks the revocation)
+    expect(canMoveSample('reported', 'analysed')).toBe(true);
+    expect(canMoveSample('reported', 'in-review')).toBe(false);
     expect(canMoveSample('awaiting-arrival', 'accepted')).toBe(false);
   });
 });

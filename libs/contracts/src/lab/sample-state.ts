@@ -3,6 +3,8 @@ import { z } from 'zod';
 /**
  * Life of a sample in the lab. `returned-for-rework` is set when a reviewer sends an analysis
  * back; the analyst then re-analyses it (back to `analysed`) or re-measures it (`measuring`).
+ * A `reported` sample goes back to work the same way once its report is revoked (the API checks
+ * the revocation; the next report names the revoked one).
  */
 export const SAMPLE_STATES = [
   'awaiting-arrival',
@@ -28,7 +30,7 @@ export const SAMPLE_TRANSITIONS: Readonly<Record<SampleState, readonly SampleSta
   analysed: ['measuring', 'analysed', 'in-review'],
   'in-review': ['reported', 'returned-for-rework'],
   'returned-for-rework': ['measuring', 'analysed'],
-  reported: [],
+  reported: ['measuring', 'analysed'],
 };
 
 export function canMoveSample(from: SampleState, to: SampleState): boolean {

@@ -9,15 +9,19 @@ import { publishedLibrary } from '../libraries/published-library';
 import { Replicate } from '../measurements/replicate.entity';
 import { findLabSample, moveSample, requireSampleState } from '../samples/sample-access';
 import { Analysis } from './analysis.entity';
+import { refreshOrderStatus } from '../orders/order-progress';
 import { compareAnalyses } from './compare-analyses';
 import { computeAnalysis } from './compute-analysis';
+import { otherPublishedLibraries } from './does-not-belong';
+import { requireRevokedIfReported } from './revoked-report';
 
 /** Runs a new analysis of the sample's included replicates; an earlier draft is superseded. */
 export async function runAnalysis(manager: EntityManager, auth: AuthContext, labId: string, sampleId: string, libraryVersionId: string): Promise<string> {
   const sample = await findLabSample(manager, labId, sampleId, true);
-  requireSampleState(sample, ['measuring', 'analysed', 'returned-for-rework'], 'running an analysis');
+  requireSampleState(sample, ['measuring', 'analysed', 'returned-for-rework', 'reported'], 'running an analysis');
+  await requireRevokedIfReported(manager, sample, 'running a new analysis');
   const library = await publishedLibrary(manager, labId, libraryVersionId);
-  const [order] = await manager.query(`SELECT product_id FROM test_order WHERE id = $1 AND lab_id = $2`, [sample.orderId, labId]);
+  const [order] = await manager.query(`SELECT product_id, client_organisation_id FROM test_order WHERE id = $1 AND lab_id = $2`, [sample.orderId, labId]);
   if (order.product_id !== library.productId) {
     throw ApiError.badRequest(`Library version ${library.version} is of ${library.productName}, not of the product this sample was ordered for.`, [
       { field: 'libraryVersionId', message: 'belongs to another product' },
@@ -25,7 +29,8 @@ export async function runAnalysis(manager: EntityManager, auth: AuthContext, lab
   }
   const replicates = await manager.find(Replicate, { where: { labId, sampleId, excluded: false }, order: { replicateNumber: 'ASC' } });
   if (!replicates.length) throw ApiError.conflict(`Sample ${sample.code} has no included replicates; upload measurements first.`);
-  const computed = computeAnalysis(replicates, library);
+  const others = await otherPublishedLibraries(manager, labId, library.productId, order.client_organisation_id);
+  const computed = computeAnalysis(replicates, library, others);
   await manager.update(Analysis, { labId, sampleId, status: 'draft' }, { status: 'superseded' });
   const inserted = await manager.insert(Analysis, {
     labId,
@@ -43,7 +48,9 @@ export async function runAnalysis(manager: EntityManager, auth: AuthContext, lab
     createdAt: new Date(),
   });
   const id = inserted.identifiers[0].id as string;
+  const wasReported = sample.state === 'reported';
   await moveSample(manager, sample, 'analysed');
+  if (wasReported) await refreshOrderStatus(manager, labId, sample.orderId);
   await recordAudit(manager, { labId, actorUserId: auth.userId, action: 'analysis.run', subjectType: 'analysis', subjectId: id, details: { sampleCode: sample.code, libraryVersionId, verdict: computed.result.verdict } });
   return id;
 }
@@ -82,7 +89,12 @@ export async function reproduceAnalysis(manager: EntityManager, labId: string, a
   const replicates = await manager.find(Replicate, { where: { labId, id: In(a.replicateIds) }, order: { replicateNumber: 'ASC' } });
   if (replicates.length !== a.replicateIds.length) throw ApiError.conflict('Some replicates this analysis used are no longer stored; it cannot be reproduced.');
   // Exactly the replicates it ran on, even if one was excluded afterwards.
-  const recomputed = computeAnalysis(replicates, library);
+  const [order] = await manager.query(
+    `SELECT o.client_organisation_id FROM sample s JOIN test_order o ON o.id = s.order_id WHERE s.id = $1 AND s.lab_id = $2`,
+    [a.sampleId, labId],
+  );
+  const others = await otherPublishedLibraries(manager, labId, library.productId, order.client_organisation_id);
+  const recomputed = computeAnalysis(replicates, library, others);
   const { differences, maxAbsoluteDifference } = compareAnalyses(a.result, recomputed.result);
   return {
     reproduced: differences.length === 0,

@@ -2,6 +2,7 @@ import type { EntityManager } from 'typeorm';
 import type { Analysis as AnalysisView, AnalysisListItem, AnalysisListQuery, Page } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
 import { escapeLike, pageParams, toPage } from '../../core/paging';
+import { revokedReportOf } from './revoked-report';
 
 const iso = (d: Date | null) => d?.toISOString() ?? null;
 
@@ -29,6 +30,11 @@ export async function analysisView(manager: EntityManager, labId: string, analys
      WHERE r.analysis_id = $1 AND r.lab_id = $2 ORDER BY r.decided_at`,
     [analysisId, labId],
   );
+  const temperatures: { replicate_number: number; file_name: string; temperature_c: number; temperature_source: 'entered' | 'file' | 'entered-over-file' }[] = await manager.query(
+    `SELECT replicate_number, file_name, temperature_c, temperature_source FROM replicate WHERE lab_id = $1 AND id = ANY($2::uuid[]) ORDER BY replicate_number`,
+    [labId, a.result.replicateIds],
+  );
+  const follows = await revokedReportOf(manager, labId, a.sample_id);
   return {
     id: a.id,
     sample: { id: a.sample_id, code: a.sample_code },
@@ -42,6 +48,9 @@ export async function analysisView(manager: EntityManager, labId: string, analys
     analyst: { id: a.analyst_id, displayName: a.analyst_name },
     createdAt: a.created_at.toISOString(),
     submittedAt: iso(a.submitted_at),
+    measurementTemperatures: temperatures.map((t) => ({ replicateNumber: t.replicate_number, fileName: t.file_name, temperatureC: t.temperature_c, source: t.temperature_source })),
+    // only an analysis run after the revocation is the new one; the revoked report's own analysis is not
+    followsRevokedReport: follows && a.created_at.toISOString() > follows.revokedAt ? follows.number : null,
     reviews: reviews.map((r) => ({ id: r.id, decision: r.decision, comments: r.comments, reviewer: { id: r.reviewer_id, displayName: r.reviewer_name }, decidedAt: r.decided_at.toISOString() })),
   };
 }

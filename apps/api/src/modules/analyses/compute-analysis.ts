@@ -5,6 +5,7 @@ import type { PublishedLibrary } from '../libraries/published-library';
 import { prepareReplicates } from '../measurements/prepared-replicates';
 import type { Replicate } from '../measurements/replicate.entity';
 import { distanceHistogram } from './distance-histogram';
+import { closestOtherLibrary, resemblanceFlag, type OtherLibrary } from './does-not-belong';
 
 /**
  * Lots drawn on the map: the sample's nearest ones. Sixty points keep the map legible and its
@@ -40,10 +41,11 @@ function fittedParameters(model: string, fit: FitSuccess): FittedParameter[] {
 /**
  * Scores a sample against a published library version, every number by the engine: the included
  * replicates normalised and resampled under the version's frozen method, averaged, then distances,
- * verdict, typicality, map and model fit, with the quality flags a reviewer needs to see.
+ * verdict, typicality, map and model fit, with the quality flags a reviewer needs to see — among
+ * them whether the sample resembles one of the lab's `others` libraries more than its own.
  * Pure given its inputs, which is what lets `reproduce` recompute and compare.
  */
-export function computeAnalysis(replicates: readonly Replicate[], library: PublishedLibrary): ComputedAnalysis {
+export function computeAnalysis(replicates: readonly Replicate[], library: PublishedLibrary, others: readonly OtherLibrary[] = []): ComputedAnalysis {
   const method = library.method;
   const flags: QualityFlag[] = [];
   const prepared = prepareReplicates(replicates, method, library.grid);
@@ -87,6 +89,10 @@ export function computeAnalysis(replicates: readonly Replicate[], library: Publi
   if (!fit.converged) flags.push({ code: 'fit-poor', severity: 'warning', message: `The ${method.model} model did not converge: ${fit.reason}.` });
 
   const nearest = judgement.nearest ? lotDistance(judgement.nearest.index) : null;
+  const usableIds = new Set(usable.map((p) => p.id));
+  const t99 = library.calibration.upperThreshold;
+  const resemblance = closestOtherLibrary(replicates.filter((r) => usableIds.has(r.id)), nearest?.distance ?? null, t99, others);
+  if (resemblance && nearest && t99 !== null) flags.push(resemblanceFlag(resemblance, library.productName, nearest.distance, t99));
   return {
     result: {
       verdict: judgement.verdict,

@@ -35,7 +35,9 @@ describe('measurement upload', () => {
       [rep1.fileName, 1],
       [rep2.fileName, 2],
     ]);
-    expect(res.body.rejected).toEqual([{ fileName: broken.fileName, line: 9, column: expect.any(Number), message: expect.stringMatching(new RegExp(`^${broken.fileName}: line 9, column \\d+: .*12\\.3\\.4`)) }]);
+    expect(res.body.rejected).toEqual([
+      { fileName: broken.fileName, line: 9, column: expect.any(Number), problem: 'unreadable', namedCode: null, fileTemperatureC: null, message: expect.stringMatching(new RegExp(`^${broken.fileName}: line 9, column \\d+: .*12\\.3\\.4`)) },
+    ]);
     const saved = res.body.saved[0];
     // Cell constant from the seeded KCl record: K = 1413 µS/cm × 722.0 Ω = 1.020186 cm⁻¹.
     expect(saved).toMatchObject({ cellConstantSource: 'latest-calibration', pointCount: 51, minFrequencyHz: 10, maxFrequencyHz: 1e6, via: 'portal' });

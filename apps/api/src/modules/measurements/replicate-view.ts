@@ -13,6 +13,8 @@ interface ReplicateRow {
   cell_constant_source: ReplicateView['cellConstantSource'];
   calibration_id: string | null;
   temperature_c: number;
+  temperature_source: ReplicateView['temperatureSource'];
+  declared: ReplicateView['declared'];
   point_count: number;
   f_min: number;
   f_max: number;
@@ -30,7 +32,7 @@ export async function replicateViews(manager: EntityManager, labId: string, samp
   const rows: ReplicateRow[] = await manager.query(
     `SELECT r.id, r.replicate_number, r.file_name, i.id AS instrument_id, i.name AS instrument_name,
             c.id AS cell_id, c.name AS cell_name, r.cell_constant_per_cm, r.cell_constant_source, r.calibration_id,
-            r.temperature_c, cardinality(r.frequency_hz) AS point_count,
+            r.temperature_c, r.temperature_source, r.declared, cardinality(r.frequency_hz) AS point_count,
             r.frequency_hz[1] AS f_min, r.frequency_hz[cardinality(r.frequency_hz)] AS f_max,
             r.kramers_kronig, r.excluded, r.exclusion_reason, r.via,
             u.id AS uploaded_by_id, u.display_name AS uploaded_by_name, r.uploaded_at
@@ -52,6 +54,8 @@ export async function replicateViews(manager: EntityManager, labId: string, samp
     cellConstantSource: r.cell_constant_source,
     calibrationId: r.calibration_id,
     temperatureC: r.temperature_c,
+    temperatureSource: r.temperature_source,
+    declared: r.declared,
     pointCount: r.point_count,
     minFrequencyHz: r.f_min,
     maxFrequencyHz: r.f_max,

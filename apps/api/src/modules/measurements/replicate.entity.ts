@@ -1,5 +1,5 @@
 import { Column, Entity, PrimaryGeneratedColumn } from 'typeorm';
-import type { CellConstantSource, KramersKronigSummary } from '@ohmprint/contracts';
+import type { CellConstantSource, DeclaredExport, KramersKronigSummary, TemperatureSource } from '@ohmprint/contracts';
 
 /** One instrument export of a sample: the raw file as uploaded and the spectrum read from it. */
 @Entity({ name: 'replicate' })
@@ -19,6 +19,9 @@ export class Replicate {
   @Column({ name: 'cell_constant_source', type: 'text' }) cellConstantSource!: CellConstantSource;
   @Column({ name: 'calibration_id', type: 'uuid', nullable: true }) calibrationId!: string | null;
   @Column({ name: 'temperature_c', type: 'double precision' }) temperatureC!: number;
+  @Column({ name: 'temperature_source', type: 'text', default: 'entered' }) temperatureSource!: TemperatureSource;
+  /** What the export said about itself at upload; null for uploads made before it was read. */
+  @Column({ type: 'jsonb', nullable: true }) declared!: DeclaredExport | null;
   @Column({ name: 'kramers_kronig', type: 'jsonb' }) kramersKronig!: KramersKronigSummary;
   @Column({ type: 'boolean', default: false }) excluded!: boolean;
   @Column({ name: 'exclusion_reason', type: 'text', nullable: true }) exclusionReason!: string | null;

@@ -3,11 +3,15 @@ import { parseSpectrumFile, SpectrumImportError } from '@ohmprint/spectral-engin
 import type { MeasurementUploadFields, MeasurementUploadResult, RejectedFile, SampleState } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
 import { recordAudit } from '../audit/record-audit';
+import { DEFAULT_METHOD } from '../libraries/default-method';
 import { labMethod } from '../libraries/lab-method';
+import { requireRevokedIfReported } from '../analyses/revoked-report';
+import { refreshOrderStatus } from '../orders/order-progress';
 import { findLabSample, moveSample, requireSampleState } from '../samples/sample-access';
 import { Sample } from '../samples/sample.entity';
 import { CellCalibration } from './cell-calibration.entity';
 import { Instrument } from './instrument.entity';
+import { checkExportIdentity, type AcceptedExport } from './export-identity';
 import { kramersKronigCheck } from './kramers-kronig-check';
 import { MeasurementCell } from './measurement-cell.entity';
 import { Replicate } from './replicate.entity';
@@ -21,7 +25,7 @@ export interface UploadedExport {
   buffer: Buffer;
 }
 
-const MEASURABLE: readonly SampleState[] = ['accepted', 'measuring', 'analysed', 'returned-for-rework'];
+const MEASURABLE: readonly SampleState[] = ['accepted', 'measuring', 'analysed', 'returned-for-rework', 'reported'];
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
 /** A sample named by id (the portal) or by its printed code (a bench computer). */
@@ -43,10 +47,31 @@ async function cellConstantFor(manager: EntityManager, labId: string, fields: Me
   return { k: latest.cellConstantPerCm, calibrationId: latest.id };
 }
 
+/** Nothing saved: 409 when a file names another sample (a confirmation can settle it), 400 otherwise. */
+function nothingSaved(rejected: RejectedFile[]): ApiError {
+  const errors = rejected.map((r) => ({ field: `files[${r.fileName}]`, message: r.message }));
+  const detail = `No file was saved. ${rejected.map((r) => r.message).join(' ')}`;
+  const other = rejected.find((r) => r.problem === 'other-sample');
+  if (other) {
+    return new ApiError(409, 'A file names another sample', detail, {
+      type: 'other-sample',
+      errors,
+      extensions: { problem: other.problem, fileName: other.fileName, namedCode: other.namedCode, line: other.line },
+    });
+  }
+  const temperature = rejected.find((r) => r.problem !== 'unreadable');
+  return new ApiError(400, 'Invalid request', detail, {
+    type: temperature ? 'measurement-temperature' : 'invalid-request',
+    errors,
+    ...(temperature ? { extensions: { problem: temperature.problem, fileName: temperature.fileName, line: temperature.line, fileTemperatureC: temperature.fileTemperatureC } } : {}),
+  });
+}
+
 /**
- * Saves one replicate per readable file; each unreadable file is reported with the engine's
- * message (line and column) under its own name, and does not stop the others. The sample moves
- * to `measuring`. Nothing is saved when no file is readable.
+ * Saves one replicate per readable file whose identity and temperature check out; each other file
+ * is reported under its own name (the engine's line and column for an unreadable one; the code
+ * and line for one naming another sample; the temperatures for a mismatch) and does not stop the
+ * others. The sample moves to `measuring`. Nothing is saved when no file is accepted.
  */
 export async function uploadMeasurements(
   manager: EntityManager,
@@ -59,6 +84,7 @@ export async function uploadMeasurements(
   if (!files.length) throw ApiError.badRequest('Send one instrument export per replicate in the "files" field.', [{ field: 'files', message: 'is required' }]);
   const sample = await sampleByReference(manager, labId, sampleReference);
   requireSampleState(sample, MEASURABLE, 'uploading measurements');
+  await requireRevokedIfReported(manager, sample, 'uploading measurements');
   const [instrument, cell] = await Promise.all([
     manager.findOne(Instrument, { where: { id: fields.instrumentId, labId } }),
     manager.findOne(MeasurementCell, { where: { id: fields.cellId, labId } }),
@@ -72,25 +98,34 @@ export async function uploadMeasurements(
   const method = await labMethod(manager, labId);
 
   const rejected: RejectedFile[] = [];
-  const parsed: { file: UploadedExport; spectrum: ReturnType<typeof parseSpectrumFile> }[] = [];
+  const parsed: { file: UploadedExport; spectrum: ReturnType<typeof parseSpectrumFile>; identity: AcceptedExport }[] = [];
+  const confirmations = fields.confirmations ?? [];
   for (const file of files) {
+    const text = file.buffer.toString('utf8');
+    let spectrum: ReturnType<typeof parseSpectrumFile>;
     try {
-      parsed.push({ file, spectrum: parseSpectrumFile(file.buffer.toString('utf8')) });
+      spectrum = parseSpectrumFile(text);
     } catch (err) {
       if (!(err instanceof SpectrumImportError)) throw err;
-      rejected.push({ fileName: file.originalname, line: err.line ?? null, column: err.column ?? null, message: `${file.originalname}: ${err.message}` });
+      rejected.push({ fileName: file.originalname, line: err.line ?? null, column: err.column ?? null, message: `${file.originalname}: ${err.message}`, problem: 'unreadable', namedCode: null, fileTemperatureC: null });
+      continue;
     }
+    const checked = checkExportIdentity({
+      sampleCode: sample.code,
+      fileName: file.originalname,
+      text,
+      enteredTemperatureC: fields.temperatureC,
+      mismatchLimitC: method.temperatureMismatchLimitC ?? DEFAULT_METHOD.temperatureMismatchLimitC,
+      confirmations,
+    });
+    if (checked.ok) parsed.push({ file, spectrum, identity: checked.value });
+    else rejected.push(checked.refusal);
   }
-  if (!parsed.length) {
-    throw ApiError.badRequest(
-      `No file could be read, so nothing was saved. ${rejected.map((r) => r.message).join(' ')}`,
-      rejected.map((r) => ({ field: `files[${r.fileName}]`, message: r.message })),
-    );
-  }
+  if (!parsed.length) throw nothingSaved(rejected);
 
   const [{ max }] = await manager.query(`SELECT COALESCE(max(replicate_number), 0) AS max FROM replicate WHERE lab_id = $1 AND sample_id = $2`, [labId, sample.id]);
   const now = new Date();
-  const rows = parsed.map(({ file, spectrum }, i) => ({
+  const rows = parsed.map(({ file, spectrum, identity }, i) => ({
     labId,
     sampleId: sample.id,
     replicateNumber: Number(max) + i + 1,
@@ -104,7 +139,9 @@ export async function uploadMeasurements(
     cellConstantPerCm: k,
     cellConstantSource: fields.cellConstantSource,
     calibrationId,
-    temperatureC: fields.temperatureC,
+    temperatureC: identity.temperatureC,
+    temperatureSource: identity.temperatureSource,
+    declared: identity.declared,
     kramersKronig: kramersKronigCheck(spectrum, method.kkResidualLimitPercent),
     via: uploader.kind === 'user' ? ('portal' as const) : ('instrument-key' as const),
     uploadedByUserId: uploader.kind === 'user' ? uploader.userId : null,
@@ -112,11 +149,38 @@ export async function uploadMeasurements(
     uploadedAt: now,
   }));
   const inserted = await manager.insert(Replicate, rows);
-  if (sample.state !== 'measuring') await moveSample(manager, sample, 'measuring');
+  if (sample.state !== 'measuring') {
+    const wasReported = sample.state === 'reported';
+    await moveSample(manager, sample, 'measuring');
+    if (wasReported) await refreshOrderStatus(manager, labId, sample.orderId);
+  }
   const ids = inserted.identifiers.map((x) => x.id as string);
+  const actorUserId = uploader.kind === 'user' ? uploader.userId : null;
+  for (const [i, { file, identity }] of parsed.entries()) {
+    for (const c of identity.confirmed) {
+      const other = c.about === 'sample-code';
+      await recordAudit(manager, {
+        labId,
+        actorUserId,
+        action: other ? 'measurement.other-sample-confirmed' : 'measurement.temperature-confirmed',
+        subjectType: 'sample',
+        subjectId: sample.id,
+        details: {
+          code: sample.code,
+          replicateId: ids[i],
+          fileName: file.originalname,
+          reason: c.reason,
+          ...(other
+            ? { namedCodes: identity.declared.otherCodes }
+            : { fileTemperatureC: identity.declared.temperature?.celsius ?? null, enteredTemperatureC: identity.temperatureC }),
+          ...(uploader.kind === 'instrument-key' ? { instrumentKeyId: uploader.keyId } : {}),
+        },
+      });
+    }
+  }
   await recordAudit(manager, {
     labId,
-    actorUserId: uploader.kind === 'user' ? uploader.userId : null,
+    actorUserId,
     action: 'measurement.uploaded',
     subjectType: 'sample',
     subjectId: sample.id,

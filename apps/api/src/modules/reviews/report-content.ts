@@ -1,6 +1,7 @@
 import type { EntityManager } from 'typeorm';
 import { modelLabel } from '@ohmprint/spectral-engine';
-import type { ReportContent } from '../reports/pdf/report-data';
+import type { MeasurementTemperature, ReportContent } from '../reports/pdf/report-data';
+import { revokedReportOf } from '../analyses/revoked-report';
 import type { Analysis } from '../analyses/analysis.entity';
 import { publishedLibrary } from '../libraries/published-library';
 import { referenceEnvelope } from './reference-envelope';
@@ -57,6 +58,11 @@ export async function reportContentFor(manager: EntityManager, analysis: Analysi
     [analysis.sampleId, analysis.labId, analysis.result.replicateIds, analysis.analystUserId],
   );
   const library = await publishedLibrary(manager, analysis.labId, analysis.libraryVersionId);
+  const temperatures: { replicate_number: number; file_name: string; temperature_c: number; temperature_source: MeasurementTemperature['source'] }[] = await manager.query(
+    `SELECT replicate_number, file_name, temperature_c, temperature_source FROM replicate WHERE lab_id = $1 AND id = ANY($2::uuid[]) ORDER BY replicate_number`,
+    [analysis.labId, analysis.result.replicateIds],
+  );
+  const follows = await revokedReportOf(manager, analysis.labId, analysis.sampleId);
   const r = analysis.result;
   const m = analysis.method;
   const condition = c.container_condition
@@ -92,6 +98,7 @@ export async function reportContentFor(manager: EntityManager, analysis: Analysi
       library: { productName: library.productName, version: String(library.version), lotCount: library.lots.length, publishedAt: library.publishedAt.toISOString() },
       engineVersion: analysis.engineVersion,
       replicateCount: r.replicateIds.length,
+      measurementTemperatures: temperatures.map((t) => ({ replicateNumber: t.replicate_number, fileName: t.file_name, temperatureC: t.temperature_c, source: t.temperature_source })),
       deviations: r.qualityFlags.filter((f) => f.code === 'too-few-replicates' || f.code === 'band-not-covered').map((f) => f.message),
     },
     results: {
@@ -103,7 +110,7 @@ export async function reportContentFor(manager: EntityManager, analysis: Analysi
       typicality: r.typicality,
       fittedParameters: r.fit?.parameters ?? [],
       goodnessOfFit: r.fit?.converged ? r.fit.chiSquare : null,
-      qualityFlags: r.qualityFlags.map((f) => ({ severity: 'warning' as const, message: f.message })),
+      qualityFlags: r.qualityFlags.map((f) => ({ severity: 'warning' as const, message: f.reportMessage ?? f.message })),
     },
     plots: {
       impedanceUnit: 'Ω·cm',
@@ -117,6 +124,7 @@ export async function reportContentFor(manager: EntityManager, analysis: Analysi
     analyst: { name: c.analyst_name, role: 'Analyst' },
     authorisedBy: { name: reviewerName, role: 'Reviewer' },
     remarks: analysis.remarks || null,
+    follows: follows && { reportNumber: follows.number, reason: follows.reason, revokedAt: follows.revokedAt },
     demo: c.lab_is_demo,
   };
   return { content, clientOrganisationId: c.client_id };

@@ -93,7 +93,7 @@ function send(route: RouteCase, auth: Record<string, string>) {
   let req = request(t.app)[route.method](`/api${route.path()}`).set(auth);
   if (route.files === 'photo') return req.attach('photos', PNG, 'p.png');
   if (route.files === 'export') {
-    req = req.field('instrumentId', ids.instrument).field('cellId', ids.cell).field('temperatureC', '20');
+    req = req.field('instrumentId', ids.instrument).field('cellId', ids.cell).field('temperatureC', '22.5');
     return req.attach('files', Buffer.from(demoFiles()[0].text), 'rep.csv');
   }
   return route.body ? req.send(route.body()) : req;

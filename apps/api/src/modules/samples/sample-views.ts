@@ -4,6 +4,7 @@ import { intakeWarnings, limitsFrom } from '../intake/intake-guardrails';
 import { ApiError } from '../../core/api-error';
 import { escapeLike, pageParams, toPage } from '../../core/paging';
 import { sampleTiming } from './sample-timing';
+import { revokedReportOf } from '../analyses/revoked-report';
 
 interface QueueRow {
   id: string;
@@ -153,6 +154,7 @@ export async function sampleDetail(manager: EntityManager, labId: string, where:
   const r = rows[0];
   if (!r) throw ApiError.notFound(byCode ? `Sample ${where.code}` : 'Sample');
   const photos = await samplePhotos(manager, labId, r.id);
+  const revoked = r.state === 'reported' ? await revokedReportOf(manager, labId, r.id) : null;
   const { recordedById, recordedByName, ...intake } = r.intake ?? ({} as NonNullable<DetailRow['intake']>);
   const timing = sampleTiming(r.placed_at, r.received_at, r.turnaround_days);
   return {
@@ -179,6 +181,7 @@ export async function sampleDetail(manager: EntityManager, labId: string, where:
     referenceLot: r.reference_lot,
     shipment: r.shipped_at ? { carrier: r.carrier, trackingNumber: r.tracking_number, shippedAt: r.shipped_at.toISOString() } : null,
     turnaroundDays: r.turnaround_days,
+    revokedReport: revoked?.number ?? null,
     ageDays: timing.ageDays,
     dueAt: timing.dueAt,
   };

@@ -27,6 +27,7 @@ async function describe(manager: EntityManager, report: TestReport, file: Verifi
     productName: report.productName,
     sampleCode: report.sampleCode,
     verdict: report.verdict,
+    followsRevoked: report.content.follows?.reportNumber ?? null,
   };
   const base = { report: facts, supersededBy: null, revocation: null, file };
   if (report.status === 'revoked') {

@@ -32,7 +32,7 @@ const analysis: Analysis = {
   method: {
     bandMinHz: 10, bandMaxHz: 1000, gridPoints: 8, referenceTemperatureC: 20, temperatureCoefficientPerC: 0.02,
     lowerQuantile: 0.95, upperQuantile: 0.99, minimumLots: 5, minimumReplicates: 3, model: 'cole-cole',
-    kkResidualLimitPercent: 2, replicateDistanceLimit: 0.05,
+    kkResidualLimitPercent: 2, replicateDistanceLimit: 0.05, temperatureMismatchLimitC: 0.5,
   },
   sampleSpectrum: { frequencyHz: grid, re: [105, 102, 101], im: [-20, -10, -2] },
   engineVersion: '1.0.0',

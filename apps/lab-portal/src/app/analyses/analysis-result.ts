@@ -6,6 +6,7 @@ import { BodeChart, DistanceHistogram, LibraryMap, NyquistChart, ScreeningCautio
 import { modelLabel } from '@ohmprint/spectral-engine';
 import { AnalysesData } from './analyses-data';
 import { referenceBandOf } from './reference-band';
+import { temperatureText } from './temperature-text';
 
 /** Everything behind a verdict, read-only: shared by the analyst's tab and the reviewer's page. */
 @Component({
@@ -36,6 +37,7 @@ export class AnalysisResult {
   protected readonly fmt = formatNumber;
   protected readonly modelLabel = modelLabel;
   protected readonly result = computed(() => this.analysis().result);
+  protected readonly temperature = computed(() => temperatureText(this.analysis()));
   protected readonly histogram = computed<DistanceHistogramInput>(() => {
     const r = this.result();
     return { calibrationDistances: [], t95: r.t95, t99: r.t99, sampleDistance: r.nearest?.distance ?? null, bins: r.histogram };

@@ -13,6 +13,8 @@ const replicate = {
   cellConstantSource: 'latest-calibration',
   calibrationId: null,
   temperatureC: 20,
+  temperatureSource: 'entered',
+  declared: null,
   pointCount: 61,
   minFrequencyHz: 0.1,
   maxFrequencyHz: 1e5,

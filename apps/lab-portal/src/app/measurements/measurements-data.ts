@@ -41,7 +41,8 @@ export class MeasurementsData {
     form.append('cellId', fields.cellId);
     form.append('cellConstantSource', fields.cellConstantSource);
     if (fields.cellConstantPerCm !== undefined) form.append('cellConstantPerCm', String(fields.cellConstantPerCm));
-    form.append('temperatureC', String(fields.temperatureC));
+    if (fields.temperatureC !== undefined) form.append('temperatureC', String(fields.temperatureC));
+    if (fields.confirmations?.length) form.append('confirmations', JSON.stringify(fields.confirmations));
     form.append('files', file, file.name);
     return this.http
       .post(`/api/lab/samples/${sampleId}/measurements`, form, { reportProgress: true, observe: 'events', context: quietRequest() })

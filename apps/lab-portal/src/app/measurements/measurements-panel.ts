@@ -14,12 +14,13 @@ import { kkResiduals } from './kk-residuals';
 import { MeasurementUpload } from './measurement-upload';
 import { MeasurementsData } from './measurements-data';
 import { normalisedReplicates } from './normalised-replicates';
+import { ReplicateSources } from './replicate-sources';
 
 /** The measurements tab of a sample: upload, the replicates overlaid, their checks, and exclusions. */
 @Component({
   selector: 'ohm-measurements-panel',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [DecimalPipe, MatButtonModule, MatIconModule, MatProgressBarModule, BodeChart, NyquistChart, KkResidualChart, Notice, MeasurementUpload],
+  imports: [DecimalPipe, MatButtonModule, MatIconModule, MatProgressBarModule, BodeChart, NyquistChart, KkResidualChart, Notice, MeasurementUpload, ReplicateSources],
   templateUrl: './measurements-panel.html',
   styleUrl: './measurements-panel.scss',
 })

@@ -7,11 +7,13 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
-import type { Analysis, ApprovalResult } from '@ohmprint/contracts';
+import type { Analysis, ApprovalResult, Replicate } from '@ohmprint/contracts';
 import { ApiProblem, Notice, Notifier, Session } from '@ohmprint/ui';
 import { AnalysesData } from '../analyses/analyses-data';
 import { AnalysisResult } from '../analyses/analysis-result';
 import { MeasurementsPanel } from '../measurements/measurements-panel';
+import { MeasurementsData } from '../measurements/measurements-data';
+import { ReplicateSources } from '../measurements/replicate-sources';
 import { ReportFiles } from '../reports/report-files';
 import { analysisStatusLabel } from '../analyses/analysis-status-label';
 import { filter } from 'rxjs';
@@ -22,7 +24,7 @@ import { reviewRefusal } from './review-refusal';
 @Component({
   selector: 'ohm-review-page',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [ReactiveFormsModule, RouterLink, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatProgressBarModule, Notice, AnalysisResult, MeasurementsPanel],
+  imports: [ReactiveFormsModule, RouterLink, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatProgressBarModule, Notice, AnalysisResult, MeasurementsPanel, ReplicateSources],
   template: `
     @if (analysis(); as a) {
       <header class="ohm-page-header">
@@ -38,6 +40,12 @@ import { reviewRefusal } from './review-refusal';
         <ohm-notice tone="error" icon="block">{{ r }}</ohm-notice>
       }
       <ohm-analysis-result [analysis]="a" />
+      @if (replicates(); as reps) {
+        <section aria-labelledby="files-heading">
+          <h2 id="files-heading" class="title">Files behind this analysis and what each says about itself</h2>
+          <ohm-replicate-sources [replicates]="reps" headingId="files-heading" />
+        </section>
+      }
       <details class="spectra">
         <summary>Measurements behind this analysis (spectra, Kramers–Kronig checks, exclusions)</summary>
         <ohm-measurements-panel [sampleId]="a.sample.id" [canEdit]="false" />
@@ -97,8 +105,18 @@ export class ReviewPage {
   protected readonly statusLabel = analysisStatusLabel;
   protected readonly ownAnalysis = computed(() => this.analysis()?.analyst.id === this.session.user()?.id);
 
+  private readonly measurements = inject(MeasurementsData);
+  /** The replicates the analysis scored, in view without opening anything. */
+  protected readonly replicates = signal<Replicate[] | null>(null);
+
   constructor() {
-    effect(() => this.data.get(this.id()).subscribe((a) => this.analysis.set(a)));
+    effect(() =>
+      this.data.get(this.id()).subscribe((a) => {
+        this.analysis.set(a);
+        const used = new Set(a.result.replicateIds);
+        this.measurements.forSample(a.sample.id).subscribe((m) => this.replicates.set(m.replicates.filter((r) => used.has(r.id))));
+      }),
+    );
   }
 
   /** Asks first, naming the report number to come and the credential that will sign. */

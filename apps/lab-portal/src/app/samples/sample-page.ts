@@ -29,7 +29,12 @@ export class SamplePage {
   protected readonly sample = signal<SampleDetail | null>(null);
   protected readonly custody = signal<readonly CustodyEvent[]>([]);
   protected readonly isAnalyst = computed(() => this.session.hasAnyRole(['analyst']));
-  protected readonly canMeasure = computed(() => this.isAnalyst() && ['accepted', 'measuring', 'analysed', 'returned-for-rework'].includes(this.sample()?.state ?? ''));
+  /** A reported sample is worked on again once its report is revoked (the API checks this too). */
+  protected readonly canMeasure = computed(() => {
+    const s = this.sample();
+    const open = ['accepted', 'measuring', 'analysed', 'returned-for-rework'].includes(s?.state ?? '');
+    return this.isAnalyst() && (open || (s?.state === 'reported' && !!s.revokedReport));
+  });
 
   constructor() {
     effect(() => this.reload(this.id()));

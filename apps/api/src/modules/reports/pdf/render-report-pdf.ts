@@ -1,4 +1,5 @@
 import PDFDocument from 'pdfkit';
+import { followsText, measurementTemperatureText, referralText } from './temperature-wording';
 import { ReportData } from './report-data';
 import { registerInter } from './inter-fonts';
 import { INK, widthOf, write } from './pen';
@@ -71,6 +72,8 @@ function writeTitle(flow: Flow, data: ReportData): void {
       `superseded by this one. Reason for the amendment: ${data.replaces.reason}`;
     panel(flow, text, INK.inconclusive);
   }
+  const follows = followsText(data);
+  if (follows) panel(flow, follows, INK.inconclusive);
 }
 
 function panel(flow: Flow, text: string, accent: string): void {
@@ -153,7 +156,8 @@ function writeMethod(flow: Flow, data: ReportData): void {
   const rows: Array<[string, string]> = [
     ['Method', m.name],
     ['Frequency band', `${formatNumber(m.bandHz.min, 3)} Hz to ${formatNumber(m.bandHz.max, 3)} Hz, ${m.gridPoints} log-spaced points`],
-    ['Normalisation', `divided by the cell constant; referred to ${formatNumber(m.referenceTemperatureC, 1)} °C with a linear coefficient of ${formatNumber(m.temperatureCoefficientPerC * 100, 2)} %/°C`],
+    ...(measurementTemperatureText(data) ? ([['Measurement temperature', measurementTemperatureText(data)]] as Array<[string, string]>) : []),
+    ['Temperature referral', referralText(data)],
     ['Model fitted', m.modelName],
     ['Similarity', 'Canberra distance over real and imaginary parts, divided by the number of terms'],
     ['Reference library', `${m.library.productName}, version ${m.library.version} (${m.library.lotCount} lots, published ${formatDate(m.library.publishedAt)})`],

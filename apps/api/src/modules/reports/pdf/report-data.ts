@@ -52,6 +52,23 @@ export interface ReportMethod {
   replicateCount: number;
   /** Departures from the documented method; empty when there were none. */
   deviations: string[];
+  /** Each replicate's measurement temperature and where it came from (absent in reports issued before it was recorded). */
+  measurementTemperatures?: MeasurementTemperature[];
+}
+
+export interface MeasurementTemperature {
+  replicateNumber: number;
+  fileName: string;
+  temperatureC: number;
+  /** `file`: stated by the export; `entered`: typed (the export states none); `entered-over-file`: typed over the export's, with a reason. */
+  source: 'file' | 'entered' | 'entered-over-file';
+}
+
+/** The revoked report a re-analysis follows. */
+export interface FollowedReport {
+  reportNumber: string;
+  reason: string;
+  revokedAt: string;
 }
 
 export interface FittedParameter {
@@ -126,6 +143,8 @@ export interface ReportContent {
   analyst: ReportPerson;
   authorisedBy: ReportPerson;
   remarks: string | null;
+  /** Set when the sample's earlier report was revoked and this one follows it. */
+  follows?: FollowedReport | null;
   /** Invented demo data: every page then says so in its header. */
   demo?: boolean;
 }
