@@ -38,3 +38,7 @@ export { referConductivity } from './normalise/temperature-referral';
 export { cellConstantFromStandard, conductivityFromResistance, type CellConstant, type CellConstantOptions } from './normalise/cell-constant';
 export { averageReplicates } from './normalise/average-replicates';
 export { linearKramersKronig, type KramersKronigOptions, type KramersKronigResult } from './quality/linear-kramers-kronig';
+export { estimateThresholds, relativeWidth, THRESHOLD_ESTIMATOR_NAMES, BOOTSTRAP_RESAMPLES, BOOTSTRAP_SEED, BOOTSTRAP_CONFIDENCE, type ThresholdEstimator, type ThresholdEstimate, type ThresholdEstimateOptions, type Interval } from './calibration/threshold-estimator';
+export { fitLognormal, lognormalQuantile, type LognormalFit } from './calibration/lognormal-fit';
+export { seededRandom } from './calibration/seeded-random';
+export { ZERO_DISTANCE } from './calibration/calibrate';
