@@ -52,6 +52,19 @@ export interface ReportMethod {
   replicateCount: number;
   /** Departures from the documented method; empty when there were none. */
   deviations: string[];
+  /** How the library's thresholds were estimated and how sure they are (absent on reports issued before it was stated). */
+  thresholds?: ReportThresholds | null;
+}
+
+export interface ReportThresholds {
+  /** Plain words, e.g. "lognormal fitted by maximum likelihood". */
+  estimator: string;
+  lotCount: number;
+  t95Interval: [number, number] | null;
+  t99Interval: [number, number] | null;
+  /** Coverage of the intervals (0.95) and the bootstrap resamples behind them. */
+  confidenceLevel: number | null;
+  resamples: number | null;
 }
 
 export interface FittedParameter {
