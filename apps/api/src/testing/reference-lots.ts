@@ -10,7 +10,7 @@ const CODE_CHARS = '0123456789ABCDEFGHJKMNPQRSTVWXYZ';
 function codeOf(prefix: string, n: number): string {
   const a = CODE_CHARS[Math.floor(n / CODE_CHARS.length) % CODE_CHARS.length];
   const b = CODE_CHARS[n % CODE_CHARS.length];
-  return `OP-${prefix}${a}${b}-RF`;
+  return `OP-${prefix.padEnd(2, 'X').slice(0, 2)}${a}${b}-RF`;
 }
 
 export interface EnrolledLots {
