@@ -102,3 +102,18 @@ export const CrossProductCheckSchema = z.object({
 export type CrossProductCheck = z.infer<typeof CrossProductCheckSchema>;
 
 export const VersionLotParamsSchema = z.object({ id: z.uuid({ message: 'must be a UUID' }), lotId: z.uuid({ message: 'must be a UUID' }) });
+
+/** A product of the lab as the library screen lists it: measured reference lots and its library's versions. */
+export const LibraryProductSchema = z.object({
+  productId: z.uuid(),
+  name: z.string(),
+  matrix: MatrixSchema,
+  clientName: z.string(),
+  /** Reference-lot samples past intake with at least one included replicate. */
+  measuredLots: z.number().int(),
+  versions: z.array(z.object({ id: z.uuid(), version: z.number().int(), status: z.string(), lotCount: z.number().int(), supersededBy: z.number().int().nullable() })),
+});
+export type LibraryProduct = z.infer<typeof LibraryProductSchema>;
+export const LibraryProductPageSchema = pageOf(LibraryProductSchema);
+export const LibraryProductQuerySchema = listQuery(['name', 'client']);
+export type LibraryProductQuery = z.infer<typeof LibraryProductQuerySchema>;

@@ -7,12 +7,15 @@ import {
   LibraryLotPageSchema,
   LibraryLotQuerySchema,
   LibraryOverviewSchema,
+  LibraryProductPageSchema,
+  LibraryProductQuerySchema,
   LibraryVersionDetailSchema,
   LotInclusionSchema,
   RetireLibraryVersionSchema,
   VersionLotParamsSchema,
   type CreateLibraryDraft,
   type LibraryLotQuery,
+  type LibraryProductQuery,
   type LotInclusion,
   type RetireLibraryVersion,
 } from '@ohmprint/contracts';
@@ -24,6 +27,7 @@ import { crossProductCheck } from './cross-product';
 import { createLibraryDraft, discardDraft, recalibrateDraft, retireVersion, setLotInclusion } from './library-build';
 import { libraryLots } from './library-lots';
 import { libraryOverview } from './library-overview';
+import { libraryProducts } from './library-products';
 import { publishVersion } from './library-versions';
 import { libraryVersionDetail } from './library-views';
 
@@ -35,6 +39,10 @@ const id = (params: unknown) => (params as { id: string }).id;
 /** Building a library version: draft from reference lots, include/exclude, calibrate, publish, retire. */
 export function libraryBuildRouter(): Router {
   const { router, route } = routeTable();
+
+  route({ method: 'get', path: '/lab/library-products', tag, summary: 'The lab’s products with their measured reference lots and library versions', roles: READERS, query: LibraryProductQuerySchema, response: LibraryProductPageSchema }, async (_req, res) => {
+    res.json(await libraryProducts(dataSource.manager, labIdOf(res.locals.auth), res.locals.query as LibraryProductQuery));
+  });
 
   route({ method: 'post', path: '/lab/library-drafts', tag, summary: 'Start a draft version of a product’s library from its measured reference lots, under a method version', roles: ['analyst'], body: CreateLibraryDraftSchema, response: LibraryDraftCreatedSchema, status: 201 }, async (_req, res) => {
     const labId = labIdOf(res.locals.auth);

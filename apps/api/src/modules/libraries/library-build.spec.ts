@@ -165,6 +165,7 @@ describe('retiring a version', () => {
 
 describe('role and tenant checks on every library route', () => {
   const routes = (v: string, lot: string) => [
+    { method: 'get' as const, path: '/api/lab/library-products', denied: 'intake-technician' as const },
     { method: 'post' as const, path: '/api/lab/library-drafts', body: { productId, methodVersionId }, denied: 'reviewer' as const },
     { method: 'get' as const, path: `/api/lab/library-versions/${v}/lots`, denied: 'intake-technician' as const },
     { method: 'get' as const, path: `/api/lab/library-versions/${v}/overview`, denied: 'intake-technician' as const },
@@ -183,11 +184,15 @@ describe('role and tenant checks on every library route', () => {
       expect([r.path, (await request(t.app)[r.method](r.path).send(r.body ?? {})).status]).toEqual([r.path, 401]);
       expect([r.path, (await send(await t.authFor(r.denied))).status]).toEqual([r.path, 403]);
       expect([r.path, (await send(await t.authFor('client-admin'))).status]).toEqual([r.path, 403]);
-      if (r.path !== '/api/lab/library-drafts') {
+      if (r.path !== '/api/lab/library-drafts' && r.path !== '/api/lab/library-products') {
         const other = r.denied === 'analyst' || r.path.endsWith('/lots') || r.path.endsWith('overview') || r.path.endsWith('cross-product') || r.path.endsWith('calibrate') ? 'lab-admin' : 'analyst';
         expect([r.path, (await send(await t.authFor(other, 'marlow'))).status]).toEqual([r.path, 404]);
       }
     }
+    const mine = await request(t.app).get('/api/lab/library-products?q=pear').set(await t.authFor('analyst'));
+    expect(mine.body.items).toEqual([expect.objectContaining({ name: 'Sunvale Pear (test)', measuredLots: 7 })]);
+    const theirs = await request(t.app).get('/api/lab/library-products?q=pear').set(await t.authFor('analyst', 'marlow'));
+    expect(theirs.body.items).toEqual([]);
     const foreign = await request(t.app).post('/api/lab/library-drafts').set(await t.authFor('analyst', 'marlow')).send({ productId, methodVersionId });
     expect(foreign.status).toBe(404);
   });
