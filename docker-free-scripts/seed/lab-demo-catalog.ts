@@ -13,17 +13,19 @@ export interface DemoProduct {
   matrix: Matrix;
   description: string;
   profile: string;
-  /** Authentic lots in the published library version (at least 8). */
+  /** Authentic lots in the newest published library version. */
   lots: number;
+  /** Lots of an earlier version the newest one supersedes (built under the method's first version). */
+  earlierLots?: number;
 }
 
 export const DEMO_PRODUCTS: DemoProduct[] = [
-  { key: 'ridgeline-red', lab: 'calder', client: 'Hollin Ridge Cellars', name: 'Ridgeline Red (demo)', matrix: 'wine', description: 'Invented red wine, 13.5 % vol., 750 ml bottle', profile: 'ridgeline-red', lots: 12 },
-  { key: 'hollin-white', lab: 'calder', client: 'Hollin Ridge Cellars', name: 'Hollin Dry White (demo)', matrix: 'wine', description: 'Invented dry white wine, 12 % vol., 750 ml bottle', profile: 'hollin-white', lots: 10 },
-  { key: 'whole-milk', lab: 'calder', client: 'Brightwater Dairy Cooperative', name: 'Brightwater Whole Milk (demo)', matrix: 'milk', description: 'Invented pasteurised whole milk, 3.5 % fat, 1 l carton', profile: 'whole-milk', lots: 10 },
-  { key: 'skimmed-milk', lab: 'calder', client: 'Brightwater Dairy Cooperative', name: 'Brightwater Skimmed Milk (demo)', matrix: 'milk', description: 'Invented pasteurised skimmed milk, 0.1 % fat, 1 l carton', profile: 'skimmed-milk', lots: 9 },
-  { key: 'cloudy-apple', lab: 'calder', client: 'Sunvale Juice Works', name: 'Sunvale Cloudy Apple (demo)', matrix: 'juice', description: 'Invented not-from-concentrate cloudy apple juice, 1 l bottle', profile: 'cloudy-apple', lots: 11 },
-  { key: 'greyfield-apple', lab: 'marlow', client: 'Greyfield Preserves', name: 'Greyfield Apple Juice (demo)', matrix: 'juice', description: 'Invented apple juice of the second demo lab', profile: 'cloudy-apple', lots: 8 },
+  { key: 'ridgeline-red', lab: 'calder', client: 'Hollin Ridge Cellars', name: 'Ridgeline Red (demo)', matrix: 'wine', description: 'Invented red wine, 13.5 % vol., 750 ml bottle', profile: 'ridgeline-red', lots: 80, earlierLots: 40 },
+  { key: 'hollin-white', lab: 'calder', client: 'Hollin Ridge Cellars', name: 'Hollin Dry White (demo)', matrix: 'wine', description: 'Invented dry white wine, 12 % vol., 750 ml bottle', profile: 'hollin-white', lots: 30 },
+  { key: 'whole-milk', lab: 'calder', client: 'Brightwater Dairy Cooperative', name: 'Brightwater Whole Milk (demo)', matrix: 'milk', description: 'Invented pasteurised whole milk, 3.5 % fat, 1 l carton', profile: 'whole-milk', lots: 40 },
+  { key: 'skimmed-milk', lab: 'calder', client: 'Brightwater Dairy Cooperative', name: 'Brightwater Skimmed Milk (demo)', matrix: 'milk', description: 'Invented pasteurised skimmed milk, 0.1 % fat, 1 l carton', profile: 'skimmed-milk', lots: 30 },
+  { key: 'cloudy-apple', lab: 'calder', client: 'Sunvale Juice Works', name: 'Sunvale Cloudy Apple (demo)', matrix: 'juice', description: 'Invented not-from-concentrate cloudy apple juice, 1 l bottle', profile: 'cloudy-apple', lots: 40 },
+  { key: 'greyfield-apple', lab: 'marlow', client: 'Greyfield Preserves', name: 'Greyfield Apple Juice (demo)', matrix: 'juice', description: 'Invented apple juice of the second demo lab', profile: 'cloudy-apple', lots: 24 },
 ];
 
 /** Shapes of instrument export the demo files come in (see demo-files/README.md). */
@@ -54,7 +56,7 @@ export const DEMO_SAMPLES: DemoSample[] = [
   {
     code: 'OP-4HXT-2B', product: 'ridgeline-red', order: { daysAgo: 6, placedBy: 'client-admin' }, state: 'accepted',
     obtainedWhere: 'Invented online marketplace listing, shipped from Demoville', obtainedOn: '2026-11-18', labelText: 'Ridgeline Red 2024 (label slightly faded)', claimedLot: 'L24-131',
-    files: { adulteration: { kind: 'blended', with: white, fraction: 0.11 }, shape: 'semicolon-kilo-negative-imaginary', replicates: 3, temperatureC: 18.0, expect: 'inconclusive' },
+    files: { adulteration: { kind: 'blended', with: white, fraction: 0.11 }, shape: 'semicolon-kilo-negative-imaginary', replicates: 3, temperatureC: 18.0, expect: 'not-consistent' },
   },
   {
     code: 'OP-9RWD-6F', product: 'ridgeline-red', order: { daysAgo: 6, placedBy: 'client-admin' }, state: 'accepted',
@@ -81,7 +83,7 @@ export const DEMO_SAMPLES: DemoSample[] = [
   {
     code: 'OP-6TBS-3H', product: 'cloudy-apple', order: { daysAgo: 4, placedBy: 'client-admin' }, state: 'accepted',
     obtainedWhere: 'Invented farmers’ market stall, Demoville', obtainedOn: '2026-11-24', labelText: 'Sunvale Cloudy Apple, 1 l', claimedLot: 'SV-0913',
-    files: { adulteration: { kind: 'none' }, shape: 'semicolon-kilo-negative-imaginary', replicates: 2, temperatureC: 20.5, expect: 'consistent' },
+    files: { adulteration: { kind: 'watered', waterFraction: 0.015 }, shape: 'semicolon-kilo-negative-imaginary', replicates: 2, temperatureC: 20.5, expect: 'inconclusive' },
   },
   {
     code: 'OP-1PYF-9C', product: 'cloudy-apple', order: { daysAgo: 4, placedBy: 'client-admin' }, state: 'received',

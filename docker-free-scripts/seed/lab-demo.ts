@@ -7,19 +7,17 @@ import type { EntityManager } from 'typeorm';
 import { CustodyEvent } from '../../apps/api/src/modules/custody/custody-event.entity';
 import { SampleIntake } from '../../apps/api/src/modules/intake/sample-intake.entity';
 import { DEFAULT_METHOD } from '../../apps/api/src/modules/libraries/default-method';
-import { createDraftVersion, libraryOf, publishVersion } from '../../apps/api/src/modules/libraries/library-versions';
 import { LabMethodSettings } from '../../apps/api/src/modules/libraries/method-settings.entity';
 import { CellCalibration } from '../../apps/api/src/modules/measurements/cell-calibration.entity';
 import { cellConstantPerCm } from '../../apps/api/src/modules/measurements/cell-constant';
 import { Instrument } from '../../apps/api/src/modules/measurements/instrument.entity';
 import { MeasurementCell } from '../../apps/api/src/modules/measurements/measurement-cell.entity';
-import { methodGrid } from '../../apps/api/src/modules/measurements/prepared-replicates';
 import { Product } from '../../apps/api/src/modules/orders/product.entity';
 import { TestOrder } from '../../apps/api/src/modules/orders/test-order.entity';
 import { Sample } from '../../apps/api/src/modules/samples/sample.entity';
 import { DEMO_LABS } from './accounts-demo-data';
 import { DEMO_BENCH, DEMO_PRODUCTS, DEMO_SAMPLES, type DemoSample } from './lab-demo-catalog';
-import { DEMO_PROFILES, demoLots } from './lab-demo-spectra';
+import { seedDemoLibraries } from './lab-demo-libraries';
 
 const DAY_MS = 86_400_000;
 
@@ -54,16 +52,8 @@ async function seedProducts(manager: EntityManager, labKey: 'calder' | 'marlow',
     let product = await manager.findOne(Product, { where: { labId, clientOrganisationId: clientId, name: demo.name } });
     product ??= await manager.save(Product, manager.create(Product, { labId, clientOrganisationId: clientId, name: demo.name, matrix: demo.matrix, description: demo.description }));
     ids.set(demo.key, product.id);
-    const library = await libraryOf(manager, labId, product.id);
-    const [published] = await manager.query(`SELECT id FROM library_version WHERE library_id = $1 AND status = 'published'`, [library.id]);
-    if (published) continue;
-    const profile = DEMO_PROFILES[demo.profile];
-    const method = { ...DEFAULT_METHOD, model: profile.model };
-    const grid = methodGrid(method);
-    const lots = demoLots(profile, grid, demo.lots, demo.key).map((l) => ({ ...l, note: 'Invented demo lot' }));
-    const versionId = await createDraftVersion(manager, labId, library.id, method, grid, lots);
-    await publishVersion(manager, labId, versionId, adminId);
   }
+  await seedDemoLibraries(manager, labKey, labId, adminId, ids);
   return ids;
 }
 

@@ -39,3 +39,7 @@ export { cellConstantFromStandard, conductivityFromResistance, type CellConstant
 export { averageReplicates } from './normalise/average-replicates';
 export { linearKramersKronig, type KramersKronigOptions, type KramersKronigResult } from './quality/linear-kramers-kronig';
 export { readExportMetadata, type ExportMetadata, type ReadExportMetadataOptions, type StatedSample, type StatedTemperature, type StatedDateTime, type StatedText, type TemperatureUnit } from './import/read-export-metadata';
+export { estimateThresholds, relativeWidth, THRESHOLD_ESTIMATOR_NAMES, BOOTSTRAP_RESAMPLES, BOOTSTRAP_SEED, BOOTSTRAP_CONFIDENCE, type ThresholdEstimator, type ThresholdEstimate, type ThresholdEstimateOptions, type Interval } from './calibration/threshold-estimator';
+export { fitLognormal, lognormalQuantile, type LognormalFit } from './calibration/lognormal-fit';
+export { seededRandom } from './calibration/seeded-random';
+export { ZERO_DISTANCE } from './calibration/calibrate';

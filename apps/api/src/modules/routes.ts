@@ -20,6 +20,8 @@ import { custodyRouter } from './custody/router';
 import { measurementsRouter } from './measurements/router';
 import { instrumentKeysRouter } from './instrument-keys/router';
 import { librariesRouter } from './libraries/router';
+import { methodsRouter } from './libraries/methods.router';
+import { libraryBuildRouter } from './libraries/library-build.router';
 import { analysesRouter } from './analyses/router';
 import { reviewsRouter } from './reviews/router';
 import { clientOrdersRouter } from './orders/router';
@@ -53,6 +55,8 @@ export function apiRoutes(): Router {
   api.use('/lab', measurementsRouter());
   api.use('/lab', instrumentKeysRouter());
   api.use('/lab', librariesRouter());
+  api.use(methodsRouter());
+  api.use(libraryBuildRouter());
   api.use('/lab', analysesRouter());
   api.use('/lab', reviewsRouter());
   api.use(clientOrdersRouter());

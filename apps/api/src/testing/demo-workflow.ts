@@ -29,7 +29,7 @@ export async function measureDemoSample(t: TestApp, code: string): Promise<Measu
   const [row] = await t.db.query(
     `SELECT s.id AS sample_id, v.id AS version_id FROM sample s JOIN test_order o ON o.id = s.order_id
      JOIN reference_library l ON l.product_id = o.product_id JOIN library_version v ON v.library_id = l.id AND v.status = 'published'
-     WHERE s.code = $1`,
+     WHERE s.code = $1 ORDER BY v.version DESC LIMIT 1`,
     [code],
   );
   return { sampleId: row.sample_id, versionId: row.version_id };

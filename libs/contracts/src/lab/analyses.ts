@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { listQuery, pageOf } from '../paging';
 import { UserRefSchema } from './refs';
-import { MethodSettingsSchema } from './libraries';
+import { MethodSettingsSchema, ThresholdEstimatorSchema } from './libraries';
 import { SpectrumPointsSchema } from './measurements';
 
 export const VERDICTS = ['consistent', 'inconclusive', 'not-consistent', 'no-verdict'] as const;
@@ -14,6 +14,17 @@ export type AnalysisStatus = z.infer<typeof AnalysisStatusSchema>;
 
 export const RunAnalysisSchema = z.object({ libraryVersionId: z.uuid() });
 export type RunAnalysis = z.infer<typeof RunAnalysisSchema>;
+
+/** What a library version states about its thresholds; analyses and reports repeat it. */
+export const ThresholdStatementSchema = z.object({
+  estimator: ThresholdEstimatorSchema,
+  lotCount: z.number().int(),
+  t95Interval: z.tuple([z.number(), z.number()]).nullable(),
+  t99Interval: z.tuple([z.number(), z.number()]).nullable(),
+  confidenceLevel: z.number().nullable(),
+  resamples: z.number().int().nullable(),
+});
+export type ThresholdStatement = z.infer<typeof ThresholdStatementSchema>;
 
 export const LotDistanceSchema = z.object({ lotId: z.uuid(), lotCode: z.string(), distance: z.number() });
 export type LotDistance = z.infer<typeof LotDistanceSchema>;
@@ -72,6 +83,8 @@ export const AnalysisResultSchema = z.object({
     .nullable(),
   qualityFlags: z.array(QualityFlagSchema),
   replicateIds: z.array(z.uuid()),
+  /** How the version's thresholds were estimated and how sure they are (absent on older analyses). */
+  thresholds: ThresholdStatementSchema.nullable().optional(),
 });
 export type AnalysisResult = z.infer<typeof AnalysisResultSchema>;
 
@@ -87,7 +100,7 @@ export type MeasurementTemperature = z.infer<typeof MeasurementTemperatureSchema
 export const AnalysisSchema = z.object({
   id: z.uuid(),
   sample: z.object({ id: z.uuid(), code: z.string() }),
-  libraryVersion: z.object({ id: z.uuid(), version: z.number().int(), productName: z.string() }),
+  libraryVersion: z.object({ id: z.uuid(), version: z.number().int(), productName: z.string(), retired: z.boolean().optional() }),
   status: AnalysisStatusSchema,
   result: AnalysisResultSchema,
   method: MethodSettingsSchema,

@@ -8,6 +8,8 @@ export * from './custody';
 export * from './measurements';
 export * from './instrument-keys';
 export * from './libraries';
+export * from './methods';
+export * from './library-build';
 export * from './reference-spectra';
 export * from './analyses';
 export * from './reviews';

@@ -36,6 +36,7 @@ export const DEFAULT_INTAKE_LIMITS: Readonly<Record<Matrix, Omit<IntakeLimit, 'm
   vinegar: { minArrivalC: 0, maxArrivalC: 30, maxAgeDays: 3650 },
   spirit: { minArrivalC: 0, maxArrivalC: 30, maxAgeDays: 3650 },
   brine: { minArrivalC: 0, maxArrivalC: 30, maxAgeDays: 730 },
+  'other-liquid': { minArrivalC: 0, maxArrivalC: 30, maxAgeDays: 365 },
 };
 export const DEFAULT_INTAKE_LIMITS_SOURCE =
   'Ohmprint’s defaults: common practice for chilled and shelf-stable beverage samples, not taken from a standard. Set your lab’s own.';

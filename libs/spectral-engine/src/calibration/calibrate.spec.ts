@@ -100,3 +100,30 @@ describe('decisionRuleText', () => {
     expect(decisionRuleText(calibrate([lot(0), lot(0.01)]))).toMatch(/^No verdict is given: the reference library holds 2 lots and the method requires at least 5/);
   });
 });
+
+describe('calibrate with the lognormal estimator', () => {
+  const offsets = [0, 0.01, 0.03, 0.04, 0.08, 0.1, 0.13, 0.15];
+  const library = offsets.map(lot);
+
+  it('fits the thresholds and gives each an interval that contains it', () => {
+    const c = calibrate(library, { thresholdEstimator: 'lognormal-ml' });
+    expect(c.thresholdEstimator).toBe('lognormal-ml');
+    expect(c.upperThreshold!).toBeGreaterThan(c.lowerThreshold!);
+    expect(c.lowerInterval![0]).toBeLessThanOrEqual(c.lowerThreshold!);
+    expect(c.upperInterval![1]).toBeGreaterThanOrEqual(c.upperThreshold!);
+  });
+
+  it('is reproducible: the same lots give the same intervals', () => {
+    expect(calibrate(library, { thresholdEstimator: 'lognormal-ml' }).upperInterval).toEqual(calibrate(library, { thresholdEstimator: 'lognormal-ml' }).upperInterval);
+  });
+
+  it('withholds thresholds when two lots are identical, saying why', () => {
+    const c = calibrate([...library, lot(0.1)], { thresholdEstimator: 'lognormal-ml' });
+    expect(c.upperThreshold).toBeNull();
+    expect(c.noVerdictReason).toMatch(/identical spectra/);
+  });
+
+  it('keeps the empirical estimator as the default for callers that name none', () => {
+    expect(calibrate(library).thresholdEstimator).toBe('empirical-type7');
+  });
+});

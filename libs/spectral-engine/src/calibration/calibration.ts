@@ -1,4 +1,6 @@
 import type { QuantileDefinition } from '../statistics/quantile';
+import type { LognormalFit } from './lognormal-fit';
+import type { Interval, ThresholdEstimator } from './threshold-estimator';
 
 /** The reason given with `no-verdict` when a library is too small to calibrate. */
 export const NOT_ENOUGH_LOTS = 'not enough reference lots';
@@ -13,6 +15,13 @@ export interface CalibrationOptions {
   readonly quantileDefinition?: QuantileDefinition;
   /** Fewest reference lots that give a verdict (default 5; at least 2). */
   readonly minimumLots?: number;
+  /**
+   * How the thresholds are estimated (default `empirical-type7`, what versions calibrated before
+   * the choice existed used; methods default to `lognormal-ml`).
+   */
+  readonly thresholdEstimator?: ThresholdEstimator;
+  /** Bootstrap resamples behind the threshold intervals (default BOOTSTRAP_RESAMPLES). */
+  readonly bootstrapResamples?: number;
 }
 
 /**
@@ -37,4 +46,16 @@ export interface Calibration {
   readonly noVerdictReason: string | null;
   /** Engine version that computed it, for the report's method section. */
   readonly engineVersion: string;
+  /**
+   * The estimator behind the thresholds. Absent on calibrations stored before the choice existed,
+   * which were all `empirical-type7` without intervals.
+   */
+  readonly thresholdEstimator?: ThresholdEstimator;
+  /** Percentile-bootstrap intervals of T95 and T99 (distance unit), or null without thresholds. */
+  readonly lowerInterval?: Interval | null;
+  readonly upperInterval?: Interval | null;
+  /** How the intervals were drawn: resamples, coverage and the seed of the stream. */
+  readonly bootstrap?: { readonly resamples: number; readonly confidenceLevel: number; readonly seed: number };
+  /** The fitted lognormal (lognormal-ml only). */
+  readonly fit?: LognormalFit | null;
 }

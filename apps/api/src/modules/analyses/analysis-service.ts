@@ -21,6 +21,10 @@ export async function runAnalysis(manager: EntityManager, auth: AuthContext, lab
   requireSampleState(sample, ['measuring', 'analysed', 'returned-for-rework', 'reported'], 'running an analysis');
   await requireRevokedIfReported(manager, sample, 'running a new analysis');
   const library = await publishedLibrary(manager, labId, libraryVersionId);
+  const [{ status }] = await manager.query(`SELECT status FROM library_version WHERE id = $1 AND lab_id = $2`, [libraryVersionId, labId]);
+  if (status === 'retired') {
+    throw new ApiError(409, 'Library version retired', `Library version ${library.version} of ${library.productName} is retired; analyse against a current version.`, { type: 'library-version-retired' });
+  }
   const [order] = await manager.query(`SELECT product_id, client_organisation_id FROM test_order WHERE id = $1 AND lab_id = $2`, [sample.orderId, labId]);
   if (order.product_id !== library.productId) {
     throw ApiError.badRequest(`Library version ${library.version} is of ${library.productName}, not of the product this sample was ordered for.`, [

@@ -9,11 +9,11 @@ const iso = (d: Date | null) => d?.toISOString() ?? null;
 export async function analysisView(manager: EntityManager, labId: string, analysisId: string): Promise<AnalysisView> {
   const [a]: {
     id: string; status: AnalysisView['status']; result: AnalysisView['result']; method: AnalysisView['method']; engine_version: string; remarks: string; sample_spectrum: AnalysisView['sampleSpectrum'];
-    created_at: Date; submitted_at: Date | null; sample_id: string; sample_code: string; version_id: string; version: number; product_name: string;
+    created_at: Date; submitted_at: Date | null; sample_id: string; sample_code: string; version_id: string; version: number; version_status: string; product_name: string;
     analyst_id: string; analyst_name: string;
   }[] = await manager.query(
     `SELECT a.id, a.status, a.result, a.method, a.sample_spectrum, a.engine_version, a.remarks, a.created_at, a.submitted_at,
-            s.id AS sample_id, s.code AS sample_code, v.id AS version_id, v.version, p.name AS product_name,
+            s.id AS sample_id, s.code AS sample_code, v.id AS version_id, v.version, v.status AS version_status, p.name AS product_name,
             u.id AS analyst_id, u.display_name AS analyst_name
      FROM analysis a
      JOIN sample s ON s.id = a.sample_id
@@ -38,7 +38,7 @@ export async function analysisView(manager: EntityManager, labId: string, analys
   return {
     id: a.id,
     sample: { id: a.sample_id, code: a.sample_code },
-    libraryVersion: { id: a.version_id, version: a.version, productName: a.product_name },
+    libraryVersion: { id: a.version_id, version: a.version, productName: a.product_name, retired: a.version_status === 'retired' },
     status: a.status,
     result: a.result,
     method: a.method,

@@ -1,5 +1,5 @@
-import { averageReplicates, fitModel, judge, MODEL_CATALOG, replicateAgreement, sampleMap, type FitSuccess, type Spectrum } from '@ohmprint/spectral-engine';
-import type { AnalysisResult, FittedParameter, QualityFlag, SpectrumPoints } from '@ohmprint/contracts';
+import { averageReplicates, fitModel, judge, MODEL_CATALOG, replicateAgreement, sampleMap, type Calibration, type FitSuccess, type Spectrum } from '@ohmprint/spectral-engine';
+import type { AnalysisResult, FittedParameter, QualityFlag, SpectrumPoints, ThresholdStatement } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
 import type { PublishedLibrary } from '../libraries/published-library';
 import { prepareReplicates } from '../measurements/prepared-replicates';
@@ -36,6 +36,18 @@ function fittedParameters(model: string, fit: FitSuccess): FittedParameter[] {
     standardError: Number.isFinite(fit.standardErrors[name]) ? fit.standardErrors[name] : null,
     unit: (catalog.get(name)?.unit ?? '').replace('Ω', 'Ω·cm'),
   }));
+}
+
+/** What the version states about its thresholds, repeated on the analysis and its report. */
+export function thresholdStatement(c: Calibration): ThresholdStatement {
+  return {
+    estimator: c.thresholdEstimator ?? 'empirical-type7',
+    lotCount: c.lotCount,
+    t95Interval: c.lowerInterval ? [c.lowerInterval[0], c.lowerInterval[1]] : null,
+    t99Interval: c.upperInterval ? [c.upperInterval[0], c.upperInterval[1]] : null,
+    confidenceLevel: c.bootstrap?.confidenceLevel ?? null,
+    resamples: c.bootstrap?.resamples ?? null,
+  };
 }
 
 /**
@@ -107,6 +119,7 @@ export function computeAnalysis(replicates: readonly Replicate[], library: Publi
       fit: fit.converged ? { model: method.model, parameters: fittedParameters(method.model, fit), chiSquare: fit.chiSquare, converged: true } : null,
       qualityFlags: flags,
       replicateIds: usable.map((p) => p.id),
+      thresholds: thresholdStatement(library.calibration),
     },
     sampleSpectrum: points(sample),
   };

@@ -4,6 +4,7 @@ import {
   DEFAULT_INTAKE_LIMITS_SOURCE,
   LAB_INTAKE_LIMITS_SOURCE,
   MATRICES,
+  MATRIX_LABELS,
   type ContainerCondition,
   type IntakeLimit,
   type IntakeLimits,
@@ -55,12 +56,12 @@ export function intakeWarnings(facts: ArrivalFacts, limits: IntakeLimits): Intak
   if (facts.temperatureC < limit.minArrivalC || facts.temperatureC > limit.maxArrivalC) {
     warnings.push({
       field: 'temperatureC',
-      message: `It arrived at ${facts.temperatureC} °C, outside ${limit.minArrivalC}–${limit.maxArrivalC} °C for ${facts.matrix}.`,
+      message: `It arrived at ${facts.temperatureC} °C, outside ${limit.minArrivalC}–${limit.maxArrivalC} °C for ${MATRIX_LABELS[facts.matrix].toLowerCase()}.`,
     });
   }
   const ageDays = Math.floor((facts.arrivedAt.getTime() - Date.parse(`${facts.obtainedOn}T00:00:00Z`)) / DAY_MS);
   if (ageDays > limit.maxAgeDays) {
-    warnings.push({ field: 'obtainedOn', message: `It was obtained ${ageDays} days before arrival; ${facts.matrix} is tested within ${limit.maxAgeDays} days.` });
+    warnings.push({ field: 'obtainedOn', message: `It was obtained ${ageDays} days before arrival; ${MATRIX_LABELS[facts.matrix].toLowerCase()} is tested within ${limit.maxAgeDays} days.` });
   }
   return warnings;
 }

@@ -18,11 +18,11 @@ const INTAKE_BENCH = 'Intake bench';
 /** Records the parcel on arrival: awaiting-arrival → received, and the first custody link. */
 export async function recordArrival(manager: EntityManager, auth: AuthContext, labId: string, sampleId: string, arrival: RecordArrival): Promise<void> {
   // The order first, as cancelling does, so an arrival and a cancellation cannot cross.
-  const [order] = await manager.query(
+  const [placed] = await manager.query(
     'SELECT o.status FROM test_order o JOIN sample s ON s.order_id = o.id AND s.lab_id = o.lab_id WHERE s.id = $1 AND s.lab_id = $2 FOR UPDATE OF o',
     [sampleId, labId],
   );
-  if (order?.status === 'cancelled') throw ApiError.conflict('The client cancelled this order; its samples are not to be received for testing.');
+  if (placed?.status === 'cancelled') throw ApiError.conflict('The client cancelled this order; its samples are not to be received for testing.');
   const sample = await findLabSample(manager, labId, sampleId, true);
   const arrivedAt = new Date(arrival.arrivedAt);
   if (arrivedAt.getTime() > Date.now() + 5 * 60_000) {

@@ -6,6 +6,10 @@ import type { MethodSettings } from '@ohmprint/contracts';
  * linear temperature coefficient (common practice); the 2 % Kramers–Kronig limit is a rule of
  * thumb, not a standard, which is why it is a setting. The 0.5 °C allowed between a typed and a
  * file's temperature is the lab's choice: at 2 %/°C it moves a spectrum by about 1 %.
+ * Thresholds come from a lognormal fitted to
+ * the leave-one-out distances (see the engine's threshold-estimator.ts); a version whose 95 %
+ * bootstrap interval of a threshold spans more than the threshold itself is not published — a
+ * starting point for the lab to tighten, not a standard.
  */
 export const DEFAULT_METHOD: MethodSettings = {
   bandMinHz: 100,
@@ -21,4 +25,6 @@ export const DEFAULT_METHOD: MethodSettings = {
   kkResidualLimitPercent: 2,
   replicateDistanceLimit: 0.01,
   temperatureMismatchLimitC: 0.5,
+  thresholdEstimator: 'lognormal-ml',
+  maxThresholdIntervalWidth: 1,
 };

@@ -26,7 +26,7 @@ export interface PublishedLibrary {
 const cache = new Map<string, PublishedLibrary>();
 const CACHE_LIMIT = 16;
 
-/** A published version of the lab's library, with its lots decoded; 404 for a draft or another lab's. */
+/** A published (or retired) version of the lab's library, with its included lots decoded; 409 for a draft, 404 for another lab's. */
 export async function publishedLibrary(manager: EntityManager, labId: string, versionId: string): Promise<PublishedLibrary> {
   const cached = cache.get(versionId);
   if (cached && cached.labId === labId) return cached;
@@ -38,9 +38,10 @@ export async function publishedLibrary(manager: EntityManager, labId: string, ve
       [versionId, labId],
     );
   if (!v) throw ApiError.notFound('Library version');
-  if (v.status !== 'published') throw ApiError.conflict(`Library version ${v.version} of ${v.product_name} is a draft; analyses use published versions only.`);
+  // A retired version stays readable here so its analyses can be reproduced; new analyses check the status themselves.
+  if (v.status === 'draft') throw ApiError.conflict(`Library version ${v.version} of ${v.product_name} is a draft; analyses use published versions only.`);
   const rows: { id: string; lot_code: string; spectrum: Buffer }[] = await manager.query(
-    `SELECT id, lot_code, spectrum FROM reference_lot WHERE library_version_id = $1 AND lab_id = $2 ORDER BY lot_code, id`,
+    `SELECT id, lot_code, spectrum FROM reference_lot WHERE library_version_id = $1 AND lab_id = $2 AND included ORDER BY lot_code, id`,
     [versionId, labId],
   );
   const grid = Float64Array.from(v.grid_hz);

@@ -1,5 +1,5 @@
 import { Column, Entity, PrimaryGeneratedColumn } from 'typeorm';
-import type { Chemistry } from '@ohmprint/contracts';
+import type { Chemistry, LotQuality } from '@ohmprint/contracts';
 
 /** An authentic lot in a library version: its normalised spectrum on the version's grid. */
 @Entity({ name: 'reference_lot' })
@@ -14,6 +14,11 @@ export class ReferenceLot {
   @Column({ name: 'sample_id', type: 'uuid', nullable: true }) sampleId!: string | null;
   /** Chemistry known for the lot, in the units of CHEMISTRY_FIELDS. */
   @Column({ type: 'jsonb', default: {} }) chemistry!: Chemistry;
+  /** Excluded lots stay in the draft (and in the frozen version) with the reason, but take no part in calibration or analyses. */
+  @Column({ type: 'boolean', default: true }) included!: boolean;
+  @Column({ name: 'exclusion_reason', type: 'text', nullable: true }) exclusionReason!: string | null;
+  /** Measurement quality when the lot was taken in (see LotQuality in the contracts). */
+  @Column({ type: 'jsonb', default: {} }) quality!: LotQuality | Record<string, never>;
   /** Little-endian float64: the real parts, then the imaginary parts (see lot-spectrum-bytes.ts). */
   @Column({ type: 'bytea' }) spectrum!: Buffer;
 }

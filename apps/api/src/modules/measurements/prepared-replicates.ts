@@ -10,9 +10,9 @@ export interface PreparedReplicate {
   coverageProblem: string | null;
 }
 
-/** The method's grid, Hz ascending. */
+/** The method's grid, Hz ascending: over its sub-band when it names one, else over the band. */
 export function methodGrid(method: MethodSettings): Float64Array {
-  return logGrid(method.bandMinHz, method.bandMaxHz, method.gridPoints);
+  return logGrid(method.subBandMinHz ?? method.bandMinHz, method.subBandMaxHz ?? method.bandMaxHz, method.gridPoints);
 }
 
 export function measuredSpectrum(r: Pick<Replicate, 'frequencyHz' | 're' | 'im'>): Spectrum {

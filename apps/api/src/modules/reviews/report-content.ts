@@ -1,5 +1,5 @@
 import type { EntityManager } from 'typeorm';
-import { modelLabel } from '@ohmprint/spectral-engine';
+import { modelLabel, THRESHOLD_ESTIMATOR_NAMES } from '@ohmprint/spectral-engine';
 import type { MeasurementTemperature, ReportContent } from '../reports/pdf/report-data';
 import { revokedReportOf } from '../analyses/revoked-report';
 import type { Analysis } from '../analyses/analysis.entity';
@@ -100,6 +100,16 @@ export async function reportContentFor(manager: EntityManager, analysis: Analysi
       replicateCount: r.replicateIds.length,
       measurementTemperatures: temperatures.map((t) => ({ replicateNumber: t.replicate_number, fileName: t.file_name, temperatureC: t.temperature_c, source: t.temperature_source })),
       deviations: r.qualityFlags.filter((f) => f.code === 'too-few-replicates' || f.code === 'band-not-covered').map((f) => f.message),
+      thresholds: r.thresholds
+        ? {
+            estimator: THRESHOLD_ESTIMATOR_NAMES[r.thresholds.estimator],
+            lotCount: r.thresholds.lotCount,
+            t95Interval: r.thresholds.t95Interval,
+            t99Interval: r.thresholds.t99Interval,
+            confidenceLevel: r.thresholds.confidenceLevel,
+            resamples: r.thresholds.resamples,
+          }
+        : null,
     },
     results: {
       verdict: r.verdict,

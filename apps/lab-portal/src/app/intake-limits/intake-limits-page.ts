@@ -5,18 +5,9 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import type { IntakeLimit, IntakeLimits, Matrix } from '@ohmprint/contracts';
+import { MATRIX_LABELS, type IntakeLimit, type IntakeLimits, type Matrix } from '@ohmprint/contracts';
 import { ApiProblem, Notice, Notifier, Session } from '@ohmprint/ui';
 import { IntakeLimitsData } from './intake-limits-data';
-
-const MATRIX_WORDS: Readonly<Record<Matrix, string>> = {
-  wine: 'Wine',
-  milk: 'Milk',
-  juice: 'Fruit juice',
-  vinegar: 'Vinegar',
-  spirit: 'Spirit',
-  brine: 'Brine',
-};
 
 /** Per matrix: the arrival temperatures and sample age intake accepts without asking for a reason. */
 @Component({
@@ -96,7 +87,7 @@ export class IntakeLimitsPage {
   private readonly notifier = inject(Notifier);
   private readonly fb = inject(FormBuilder).nonNullable;
 
-  protected readonly words = MATRIX_WORDS;
+  protected readonly words = MATRIX_LABELS;
   protected readonly canEdit = inject(Session).hasAnyRole(['lab-admin']);
   protected readonly source = signal<string | null>(null);
   protected readonly saving = signal(false);

@@ -56,6 +56,7 @@ export function demoReportContent(overrides: Partial<ReportContent> = {}): Repor
       engineVersion: '0.1.0',
       replicateCount: 3,
       deviations: [],
+      thresholds: { estimator: 'lognormal fitted by maximum likelihood', lotCount: 12, t95Interval: [0.0031, 0.0049], t99Interval: [0.0039, 0.0071], confidenceLevel: 0.95, resamples: 2000 },
     },
     results: {
       verdict: 'consistent',

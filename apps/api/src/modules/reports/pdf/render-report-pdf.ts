@@ -8,7 +8,7 @@ import { drawBode, drawNyquist } from './spectrum-plots';
 import { drawDistanceHistogram, drawLotMap } from './library-plots';
 import { drawVerdict } from './verdict-badge';
 import { drawQr } from './qr-vector';
-import { DEMO_MARK, ITEMS_TESTED, REPRODUCTION, SAFETY_NOTE, SCREENING_CAUTION, decisionRule } from './report-wording';
+import { DEMO_MARK, ITEMS_TESTED, REPRODUCTION, SAFETY_NOTE, SCREENING_CAUTION, decisionRule, thresholdStatement } from './report-wording';
 import { formatDate, formatDateTime, formatNumber, formatPercent } from './report-formats';
 
 /**
@@ -148,6 +148,8 @@ function writeResult(flow: Flow, data: ReportData): void {
   flow.y += flow.rows(rows);
   flow.gap(2);
   flow.paragraph(decisionRule(data), 8.5, INK.text, 600);
+  const thresholds = thresholdStatement(data);
+  if (thresholds) flow.paragraph(thresholds, 8.5, INK.text, 600);
 }
 
 function writeMethod(flow: Flow, data: ReportData): void {

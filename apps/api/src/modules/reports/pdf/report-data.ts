@@ -52,8 +52,21 @@ export interface ReportMethod {
   replicateCount: number;
   /** Departures from the documented method; empty when there were none. */
   deviations: string[];
+  /** How the library's thresholds were estimated and how sure they are (absent on reports issued before it was stated). */
+  thresholds?: ReportThresholds | null;
   /** Each replicate's measurement temperature and where it came from (absent in reports issued before it was recorded). */
   measurementTemperatures?: MeasurementTemperature[];
+}
+
+export interface ReportThresholds {
+  /** Plain words, e.g. "lognormal fitted by maximum likelihood". */
+  estimator: string;
+  lotCount: number;
+  t95Interval: [number, number] | null;
+  t99Interval: [number, number] | null;
+  /** Coverage of the intervals (0.95) and the bootstrap resamples behind them. */
+  confidenceLevel: number | null;
+  resamples: number | null;
 }
 
 export interface MeasurementTemperature {

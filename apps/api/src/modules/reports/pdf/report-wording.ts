@@ -36,3 +36,16 @@ export function decisionRule(data: ReportData): string {
     'to T99 as inconclusive; above T99 as not consistent. A library with too few lots gives no verdict.'
   );
 }
+
+/** How the thresholds were set and how sure they are, in one sentence; null when the report predates it. */
+export function thresholdStatement(data: ReportData): string | null {
+  const t = data.method.thresholds;
+  if (!t) return null;
+  const range = (i: [number, number] | null) => (i ? `${i[0].toFixed(4)} to ${i[1].toFixed(4)}` : 'not available');
+  const level = t.confidenceLevel === null ? '' : `${Math.round(t.confidenceLevel * 100)} % `;
+  const intervals =
+    t.t95Interval || t.t99Interval
+      ? ` ${level}bootstrap intervals${t.resamples ? ` (${t.resamples} resamples)` : ''}: T95 ${range(t.t95Interval)}, T99 ${range(t.t99Interval)}.`
+      : ' No uncertainty interval was computed for this library version.';
+  return `Thresholds estimated by ${t.estimator} from the leave-one-out distances of n = ${t.lotCount} reference lots.${intervals}`;
+}
