@@ -38,3 +38,6 @@ export { referConductivity } from './normalise/temperature-referral';
 export { cellConstantFromStandard, conductivityFromResistance, type CellConstant, type CellConstantOptions } from './normalise/cell-constant';
 export { averageReplicates } from './normalise/average-replicates';
 export { linearKramersKronig, type KramersKronigOptions, type KramersKronigResult } from './quality/linear-kramers-kronig';
+export { KCL_STANDARDS, KCL_COEFFICIENT_PER_C, kclStandard, kclConductivity, conductivityAt, type KclStandard, type ConcentrationBasis, type StandardConductivity } from './validation/kcl-standard';
+export { controlChart, type ControlChart, type ControlChartOptions, type ControlPoint, type ControlRule, type ControlSignal } from './validation/control-chart';
+export { binomialTestGreater } from './validation/binomial-test';

@@ -22,6 +22,7 @@ import { librariesRouter } from './libraries/router';
 import { analysesRouter } from './analyses/router';
 import { reviewsRouter } from './reviews/router';
 import { clientOrdersRouter } from './orders/router';
+import { validationRouter } from './validation/router';
 
 /** Every feature's router, one line each. Paths are under /api. */
 export function apiRoutes(): Router {
@@ -49,5 +50,6 @@ export function apiRoutes(): Router {
   api.use('/lab', analysesRouter());
   api.use('/lab', reviewsRouter());
   api.use(clientOrdersRouter());
+  api.use(validationRouter());
   return api;
 }

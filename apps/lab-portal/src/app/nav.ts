@@ -7,6 +7,8 @@ export const LAB_NAV: readonly NavItem[] = [
   { label: 'Receive samples', icon: 'qr_code_scanner', path: '/intake', roles: ['intake-technician'] },
   { label: 'Reviews', icon: 'rate_review', path: '/reviews', roles: ['reviewer'] },
   { label: 'Reports', icon: 'description', path: '/reports', roles: ['reviewer', 'lab-admin', 'analyst'] },
+  { label: 'Instruments and cells', icon: 'science', path: '/bench', roles: ['intake-technician', 'analyst', 'reviewer', 'lab-admin'] },
+  { label: 'Method validation', icon: 'fact_check', path: '/validation', roles: ['lab-admin', 'analyst', 'reviewer'] },
   { label: 'Instrument keys', icon: 'key', path: '/instrument-keys', roles: ['lab-admin'] },
   { label: 'Staff', icon: 'group', path: '/staff', roles: ['lab-admin'] },
   { label: 'Client organisations', icon: 'storefront', path: '/clients', roles: ['lab-admin'] },

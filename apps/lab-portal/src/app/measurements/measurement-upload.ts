@@ -8,6 +8,7 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatRadioModule } from '@angular/material/radio';
 import { MatSelectModule } from '@angular/material/select';
+import { RouterLink } from '@angular/router';
 import type { MeasurementUploadFields, RejectedFile, Replicate } from '@ohmprint/contracts';
 import { ApiProblem } from '@ohmprint/ui';
 import { MeasurementsData } from './measurements-data';
@@ -24,7 +25,7 @@ interface FileRow {
 @Component({
   selector: 'ohm-measurement-upload',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [ReactiveFormsModule, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatProgressBarModule, MatRadioModule, MatSelectModule],
+  imports: [ReactiveFormsModule, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatProgressBarModule, MatRadioModule, MatSelectModule, RouterLink],
   templateUrl: './measurement-upload.html',
   styleUrl: './measurement-upload.scss',
 })
@@ -68,7 +69,8 @@ export class MeasurementUpload {
   protected canUpload(): boolean {
     const v = this.form.getRawValue();
     const constantOk = v.cellConstantSource === 'latest-calibration' ? !!this.selectedCell()?.latestCalibration : v.cellConstantPerCm !== null;
-    return this.form.valid && constantOk && this.waiting() > 0 && !this.busy();
+    const blocked = this.selectedCell()?.control?.state === 'out-of-control';
+    return this.form.valid && constantOk && !blocked && this.waiting() > 0 && !this.busy();
   }
 
   /** Files go one after another: two cores on a bench PC, and the order of replicates stays the order of files. */
