@@ -33,26 +33,20 @@ export async function createCell(manager: EntityManager, auth: AuthContext, labI
   }
 }
 
-export interface StandardResistance {
-  resistanceOhm: number;
-  source: 'plateau' | 'entered';
-  how: string;
-}
-
 /**
  * The standard's resistance from its spectrum: the median real part where the phase is within 1°
  * of 0° (the resistive plateau); without such a plateau, R of an R + CPE fit over the whole sweep.
  */
-export function standardResistance(spectrum: Spectrum): { resistanceOhm: number; how: string } {
+export function standardResistance(spectrum: Spectrum): { resistanceOhm: number; source: 'plateau' | 'fit'; how: string } {
   try {
     const c = cellConstantFromStandard(spectrum, { standardConductivityUSPerCm: 1 });
-    return { resistanceOhm: c.plateauResistanceOhm, how: `plateau of ${c.plateauFrequenciesHz.length} point(s) with |phase| ≤ 1°` };
+    return { resistanceOhm: c.plateauResistanceOhm, source: 'plateau', how: `plateau of ${c.plateauFrequenciesHz.length} point(s) with |phase| ≤ 1°` };
   } catch (err) {
     if (!(err instanceof RangeError)) throw err;
   }
   const fit = fitModel(spectrum, 'r-cpe', { restarts: 1 });
   if (!fit.converged) throw ApiError.badRequest(`The standard's spectrum has no resistive plateau and an R + CPE fit did not converge (${fit.reason}).`, [{ field: 'file', message: 'no plateau and no usable fit' }]);
-  return { resistanceOhm: fit.parameters.r, how: 'R of an R + CPE fit (no point within 1° of 0°)' };
+  return { resistanceOhm: fit.parameters.r, source: 'fit', how: 'R of an R + CPE fit (no point within 1° of 0°)' };
 }
 
 /**
@@ -89,18 +83,18 @@ export async function recordStandardRun(
     if (!(err instanceof SpectrumImportError)) throw err;
     throw ApiError.badRequest(`${file.originalname}: ${err.message}`, [{ field: 'file', message: `${file.originalname}: ${err.message}` }]);
   }
-  const { resistanceOhm, how } = standardResistance(spectrum);
+  const { resistanceOhm, source, how } = standardResistance(spectrum);
   const k = standard.conductivityUsPerCm * 1e-6 * resistanceOhm;
   const [row] = await manager.query(
     `INSERT INTO cell_calibration (lab_id, cell_id, standard_name, standard_conductivity_us_per_cm, standard_temperature_c,
         plateau_resistance_ohm, cell_constant_per_cm, measured_at, measured_by_user_id, concentration, concentration_basis,
         conductivity_source, resistance_source, file_name, raw_file, frequency_hz, re, im)
-     VALUES ($1,$2,$3,$4,$5,$6,$7,$8,$9,$10,$11,$12,'plateau',$13,$14,$15,$16,$17) RETURNING id`,
+     VALUES ($1,$2,$3,$4,$5,$6,$7,$8,$9,$10,$11,$12,$18,$13,$14,$15,$16,$17) RETURNING id`,
     [
       labId, cellId, `KCl ${fields.concentration} mol/${fields.basis === 'molal' ? 'kg' : 'L'}`, standard.conductivityUsPerCm, fields.temperatureC,
       resistanceOhm, k, measuredAt, auth.userId, fields.concentration, fields.basis,
       `${standard.source}; ${standard.temperatureFormula}`, file.originalname, file.buffer,
-      Array.from(spectrum.frequencyHz), Array.from(spectrum.re), Array.from(spectrum.im),
+      Array.from(spectrum.frequencyHz), Array.from(spectrum.re), Array.from(spectrum.im), source,
     ],
   );
   await recordAudit(manager, {
