@@ -6,7 +6,7 @@
  * judged against its published library. Idempotent: each part is created only when missing.
  */
 import type { EntityManager } from 'typeorm';
-import { impedance, judge, kclConductivity, type Spectrum } from '@ohmprint/spectral-engine';
+import { averageReplicates, impedance, judge, kclConductivity, spectrumDistance, type Spectrum } from '@ohmprint/spectral-engine';
 import { publishedLibrary } from '../../apps/api/src/modules/libraries/published-library';
 import { standardResistance } from '../../apps/api/src/modules/validation/standard-runs';
 import { DEMO_LABS } from './accounts-demo-data';
@@ -109,12 +109,28 @@ async function seedLotChemistry(manager: EntityManager, labId: string): Promise<
   await manager.query(`ALTER TABLE reference_lot ENABLE TRIGGER reference_lot_frozen`);
 }
 
-/** An invented sample's normalised spectrum on the library grid (what averaged replicates give). */
+/** Invented noise of one sweep (as the lab demo's), relative to each component. */
+const SWEEP_NOISE = 0.0015;
+
+function noisy(s: Spectrum, rng: DemoRandom, relative: number): Spectrum {
+  return { frequencyHz: s.frequencyHz, re: s.re.map((v) => v * (1 + rng.normal(0, relative))), im: s.im.map((v) => v * (1 + rng.normal(0, relative))) };
+}
+
+/** An invented sample's normalised spectrum on the library grid (what three averaged sweeps give). */
 function synthesised(profileKey: string, adulteration: Adulteration, grid: Float64Array, rng: DemoRandom): Spectrum {
   const profile = DEMO_PROFILES[profileKey];
-  const s = impedance(profile.model, suspectParameters(profile, adulteration, rng), grid);
-  const noise = 0.0015 / Math.sqrt(3);
-  return { frequencyHz: s.frequencyHz, re: s.re.map((v) => v * (1 + rng.normal(0, noise))), im: s.im.map((v) => v * (1 + rng.normal(0, noise))) };
+  return noisy(impedance(profile.model, suspectParameters(profile, adulteration, rng), grid), rng, SWEEP_NOISE / Math.sqrt(3));
+}
+
+/** Three sweeps of one invented authentic sample, their mean, and the distances between the sweeps. */
+function synthesisedWithReplicates(profileKey: string, grid: Float64Array, rng: DemoRandom): { mean: Spectrum; distances: number[] } {
+  const profile = DEMO_PROFILES[profileKey];
+  const clean = impedance(profile.model, suspectParameters(profile, { kind: 'none' }, rng), grid);
+  const sweeps = [0, 1, 2].map(() => noisy(clean, rng, SWEEP_NOISE));
+  return {
+    mean: averageReplicates(sweeps),
+    distances: [spectrumDistance(sweeps[0], sweeps[1]), spectrumDistance(sweeps[0], sweeps[2]), spectrumDistance(sweeps[1], sweeps[2])],
+  };
 }
 
 const WATER_LEVELS = [2, 5, 8, 12, 16, 20];
@@ -138,9 +154,9 @@ async function seedStudies(manager: EntityManager, labId: string, now: Date): Pr
   const rng = demoRandom(seedFrom('validation:studies'));
   const blendWith = DEMO_PROFILES['hollin-white'];
   const rows: unknown[][] = [];
-  const add = (kind: string, admixture: string | null, name: string | null, level: number | null, reference: string, spectrum: Spectrum, decidedAt: Date) => {
+  const add = (kind: string, admixture: string | null, name: string | null, level: number | null, reference: string, spectrum: Spectrum, decidedAt: Date, replicateDistances: number[] = []) => {
     const j = judge(spectrum, library.spectra, library.calibration);
-    rows.push([labId, product.id, version.id, kind, admixture, name, level, reference, j.verdict, j.nearest?.distance ?? null, decidedAt]);
+    rows.push([labId, product.id, version.id, kind, admixture, name, level, reference, j.verdict, j.nearest?.distance ?? null, decidedAt, replicateDistances]);
   };
   for (const level of WATER_LEVELS) {
     for (let i = 0; i < TRIALS_PER_LEVEL; i++) {
@@ -153,12 +169,13 @@ async function seedStudies(manager: EntityManager, labId: string, now: Date): Pr
     }
   }
   for (let i = 0; i < BLIND_CHECKS; i++) {
-    add('blind-check', null, null, null, `DEMO-BLIND-${String(i + 1).padStart(2, '0')}`, synthesised(DEMO_STUDY_PRODUCT, { kind: 'none' }, library.grid, rng), new Date(now.getTime() - (90 - 1.8 * i) * DAY_MS));
+    const check = synthesisedWithReplicates(DEMO_STUDY_PRODUCT, library.grid, rng);
+    add('blind-check', null, null, null, `DEMO-BLIND-${String(i + 1).padStart(2, '0')}`, check.mean, new Date(now.getTime() - (90 - 1.8 * i) * DAY_MS), check.distances);
   }
   for (const r of rows) {
     await manager.query(
-      `INSERT INTO synthesised_trial (lab_id, product_id, library_version_id, kind, admixture, admixture_name, level_percent, reference, verdict, nearest_distance, decided_at)
-       VALUES ($1,$2,$3,$4,$5,$6,$7,$8,$9,$10,$11)`,
+      `INSERT INTO synthesised_trial (lab_id, product_id, library_version_id, kind, admixture, admixture_name, level_percent, reference, verdict, nearest_distance, decided_at, replicate_distances)
+       VALUES ($1,$2,$3,$4,$5,$6,$7,$8,$9,$10,$11,$12)`,
       r,
     );
   }

@@ -60,6 +60,7 @@ export class ControlStandardsAndValidation1796188000000 implements MigrationInte
         reference text NOT NULL,
         verdict text NOT NULL CHECK (verdict IN ('consistent', 'inconclusive', 'not-consistent', 'no-verdict')),
         nearest_distance double precision,
+        replicate_distances double precision[] NOT NULL DEFAULT '{}',
         decided_at timestamptz NOT NULL,
         CHECK ((kind = 'detection') = (admixture IS NOT NULL AND level_percent IS NOT NULL))
       );

@@ -119,6 +119,8 @@ export const RepeatabilityStudySchema = z.object({
   histogram: HistogramSchema,
   /** median(between) ÷ median(within); large means replicates agree far better than lots differ. */
   ratio: z.number().nullable(),
+  /** True when some replicate distances come from the demo's synthesised trials. */
+  synthesisedForDemo: z.boolean(),
 });
 export type RepeatabilityStudy = z.infer<typeof RepeatabilityStudySchema>;
 

@@ -39,7 +39,8 @@ const q = (values: number[], p: number) => (values.length ? quantile(values, p) 
 
 /**
  * Replicate distances within each sample of the product (prepared under the version's frozen
- * method) against the distances between the version's lots.
+ * method) against the distances between the version's lots. The demo's synthesised blind checks
+ * add theirs (three sweeps each, so three pairs per check), flagged as such.
  */
 export async function repeatabilityStudy(manager: EntityManager, labId: string, versionId: string): Promise<RepeatabilityStudy> {
   const library = await publishedLibrary(manager, labId, versionId);
@@ -61,6 +62,16 @@ export async function repeatabilityStudy(manager: EntityManager, labId: string, 
     used++;
     within.push(...pairwise(spectra));
   }
+  const [demo]: { distances: number[] | null }[] = await manager.query(
+    `SELECT array_agg(d) AS distances FROM synthesised_trial t, unnest(t.replicate_distances) AS d
+     WHERE t.lab_id = $1 AND t.product_id = $2 AND t.kind = 'blind-check'`,
+    [labId, library.productId],
+  );
+  const synthesised = demo?.distances ?? [];
+  if (synthesised.length) {
+    within.push(...synthesised);
+    used += synthesised.length / 3;
+  }
   const between = pairwise(library.spectra.slice(0, LOT_LIMIT));
   const medWithin = q(within, 0.5);
   const medBetween = q(between, 0.5);
@@ -70,5 +81,6 @@ export async function repeatabilityStudy(manager: EntityManager, labId: string, 
     between: { count: between.length, median: medBetween, p5: q(between, 0.05), min: between.length ? Math.min(...between) : null },
     histogram: sharedHistogram(within, between),
     ratio: medWithin && medBetween ? medBetween / medWithin : null,
+    synthesisedForDemo: synthesised.length > 0,
   };
 }

@@ -143,7 +143,8 @@ export function renderValidationSummary(data: ValidationSummaryData): Promise<Bu
   flow.paragraph(
     `${r.within.count} replicate pairs in ${r.within.samples} samples: median ${r.within.median?.toPrecision(3) ?? '–'}, 95th percentile ${r.within.p95?.toPrecision(3) ?? '–'}. ` +
       `${r.between.count} pairs of lots: median ${r.between.median?.toPrecision(3) ?? '–'}, 5th percentile ${r.between.p5?.toPrecision(3) ?? '–'}.` +
-      (r.ratio ? ` Lots differ ${r.ratio.toPrecision(3)} times more than replicates (medians).` : ''),
+      (r.ratio ? ` Lots differ ${r.ratio.toPrecision(3)} times more than replicates (medians).` : '') +
+      (r.synthesisedForDemo ? ' Includes invented demo sweeps.' : ''),
   );
   histogram(doc, flow, r);
 

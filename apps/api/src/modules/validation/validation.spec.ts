@@ -176,7 +176,8 @@ describe('method validation figures', () => {
     const res = await request(t.app).get(`/api/lab/validation/library-versions/${red.versions[0].id}/repeatability`).set(await t.authFor('analyst'));
     expect(res.status).toBe(200);
     expect(res.body.within.samples).toBeGreaterThanOrEqual(1);
-    expect(res.body.within.count).toBe(3);
+    expect(res.body.within.count).toBe(3 + 48 * 3); // the measured sample's 3 pairs and the demo's 48 synthesised blind checks
+    expect(res.body.synthesisedForDemo).toBe(true);
     expect(res.body.between.count).toBe(66); // 12 lots → 12·11/2 pairs
     expect(res.body.ratio).toBeGreaterThan(1);
   });

@@ -13,7 +13,7 @@ const num = (v: number | null) => (v === null ? '–' : v.toPrecision(3));
   template: `
     @let r = study();
     <dl class="figures">
-      <div><dt>Replicates within a sample</dt><dd>{{ r.within.count }} pairs in {{ r.within.samples }} samples · median {{ num(r.within.median) }} · 95th percentile {{ num(r.within.p95) }}</dd></div>
+      <div><dt>Replicates within a sample</dt><dd>{{ r.within.count }} pairs in {{ r.within.samples }} samples · median {{ num(r.within.median) }} · 95th percentile {{ num(r.within.p95) }}@if (r.synthesisedForDemo) { · includes invented demo sweeps }</dd></div>
       <div><dt>Pairs of reference lots</dt><dd>{{ r.between.count }} pairs · median {{ num(r.between.median) }} · 5th percentile {{ num(r.between.p5) }}</dd></div>
       <div><dt>Lots differ from each other</dt><dd>{{ r.ratio === null ? '–' : r.ratio.toPrecision(3) + ' times more than replicates (medians)' }}</dd></div>
     </dl>
