@@ -10,6 +10,7 @@ import { demoAccountsTable } from './demo-accounts-table';
 import { seedLabDemo } from './lab-demo';
 import { seedOrderingDemo } from './ordering-demo';
 import { seedBillingDemo } from './billing-demo';
+import { seedValidationDemo } from './validation-demo';
 
 /** `npm run db:seed`: the invented demo, idempotent. Each part is one line here. */
 async function seed(): Promise<void> {
@@ -20,6 +21,7 @@ async function seed(): Promise<void> {
     await dataSource.transaction((manager) => seedLabDemo(manager));
     await dataSource.transaction((manager) => seedOrderingDemo(manager));
     await dataSource.transaction((manager) => seedBillingDemo(manager));
+    await dataSource.transaction((manager) => seedValidationDemo(manager));
     mkdirSync(config.dataDir, { recursive: true });
     writeFileSync(join(config.dataDir, 'demo-accounts.txt'), demoAccountsTable(config.publicBaseUrl));
     logger.info('demo seed complete');

@@ -43,3 +43,6 @@ export { estimateThresholds, relativeWidth, THRESHOLD_ESTIMATOR_NAMES, BOOTSTRAP
 export { fitLognormal, lognormalQuantile, type LognormalFit } from './calibration/lognormal-fit';
 export { seededRandom } from './calibration/seeded-random';
 export { ZERO_DISTANCE } from './calibration/calibrate';
+export { KCL_STANDARDS, KCL_COEFFICIENT_PER_C, kclStandard, kclConductivity, conductivityAt, type KclStandard, type ConcentrationBasis, type StandardConductivity } from './validation/kcl-standard';
+export { controlChart, type ControlChart, type ControlChartOptions, type ControlPoint, type ControlRule, type ControlSignal } from './validation/control-chart';
+export { binomialTestGreater } from './validation/binomial-test';

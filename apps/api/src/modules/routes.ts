@@ -30,6 +30,7 @@ import { clientBillingRouter } from './billing/client-billing.router';
 import { labBillingRouter } from './billing/lab-billing.router';
 import { clientNotificationsRouter } from './notifications/router';
 import { nextIssueRouter } from './reports/next-issue.router';
+import { validationRouter } from './validation/router';
 
 /** Every feature's router, one line each. Paths are under /api. */
 export function apiRoutes(): Router {
@@ -65,5 +66,6 @@ export function apiRoutes(): Router {
   api.use(labBillingRouter());
   api.use(clientNotificationsRouter());
   api.use(nextIssueRouter());
+  api.use(validationRouter());
   return api;
 }

@@ -27,6 +27,8 @@ export const routes: Routes = [
       { path: 'reports', canActivate: [roleGuard('reviewer', 'lab-admin', 'analyst')], loadChildren: () => import('./reports/reports.routes') },
       { path: 'lab-settings', canActivate: [roleGuard('lab-admin')], loadChildren: () => import('./lab-settings/lab-settings.routes') },
       { path: 'instrument-keys', canActivate: [roleGuard('lab-admin')], loadChildren: () => import('./instrument-keys/instrument-keys.routes') },
+      { path: 'bench', canActivate: [roleGuard('intake-technician', 'analyst', 'reviewer', 'lab-admin')], loadChildren: () => import('./bench/bench.routes') },
+      { path: 'validation', canActivate: [roleGuard('lab-admin', 'analyst', 'reviewer')], loadChildren: () => import('./validation/validation.routes') },
       { path: '**', title: 'Not found · Ohmprint lab', component: NotFoundPage },
     ],
   },

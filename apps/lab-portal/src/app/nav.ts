@@ -8,6 +8,8 @@ export const LAB_NAV: readonly NavItem[] = [
   { label: 'Reviews', icon: 'rate_review', path: '/reviews', roles: ['reviewer'] },
   { label: 'Reports', icon: 'description', path: '/reports', roles: ['reviewer', 'lab-admin', 'analyst'] },
   { label: 'Intake limits', icon: 'device_thermostat', path: '/intake-limits', roles: ['lab-admin'] },
+  { label: 'Instruments and cells', icon: 'science', path: '/bench', roles: ['intake-technician', 'analyst', 'reviewer', 'lab-admin'] },
+  { label: 'Method validation', icon: 'fact_check', path: '/validation', roles: ['lab-admin', 'analyst', 'reviewer'] },
   { label: 'Instrument keys', icon: 'key', path: '/instrument-keys', roles: ['lab-admin'] },
   { label: 'Lab profile', icon: 'apartment', path: '/lab-settings/profile', roles: ['lab-admin'] },
   { label: 'Signing certificate', icon: 'verified_user', path: '/lab-settings/signing-certificate', roles: ['lab-admin'] },

@@ -16,3 +16,4 @@ export * from './reviews';
 export * from './chemistry';
 export * from './intake-limits';
 export * from './export-identity';
+export * from './validation';

@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { NamedRefSchema } from '../auth';
 import { UserRefSchema } from './refs';
 import { DeclaredExportSchema, FileRefusalSchema, TemperatureSourceSchema, UploadConfirmationsFieldSchema } from './export-identity';
+import { CellControlStatusSchema } from './validation';
 
 /** Cell constant from the form, or from the cell's newest KCl calibration. */
 export const CELL_CONSTANT_SOURCES = ['entered', 'latest-calibration'] as const;
@@ -152,6 +153,8 @@ export const MeasurementCellSchema = z.object({
   name: z.string(),
   nominalConstantPerCm: z.number(),
   latestCalibration: CellCalibrationSchema.nullable(),
+  /** Whether the cell's control chart lets it be used (an out-of-control cell refuses uploads). */
+  control: CellControlStatusSchema.nullable().optional(),
 });
 export type MeasurementCell = z.infer<typeof MeasurementCellSchema>;
 

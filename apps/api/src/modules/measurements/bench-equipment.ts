@@ -5,6 +5,7 @@ import type { AuthContext } from '../auth/auth-context';
 import { recordAudit } from '../audit/record-audit';
 import { cellConstantPerCm } from './cell-constant';
 import { CellCalibration } from './cell-calibration.entity';
+import { cellStatuses } from '../validation/cell-control';
 
 interface CalibrationRow {
   id: string;
@@ -46,11 +47,12 @@ export async function benchEquipment(manager: EntityManager, labId: string): Pro
      WHERE c.lab_id = $1 ORDER BY c.cell_id, c.measured_at DESC`,
     [labId],
   );
+  const control = await cellStatuses(manager, labId);
   return {
     instruments: instruments.map((i) => ({ id: i.id, name: i.name, model: i.model, serialNumber: i.serial_number })),
     cells: cells.map((c) => {
       const cal = latest.find((l) => l.cell_id === c.id);
-      return { id: c.id, name: c.name, nominalConstantPerCm: c.nominal_constant_per_cm, latestCalibration: cal ? calibrationView(cal) : null };
+      return { id: c.id, name: c.name, nominalConstantPerCm: c.nominal_constant_per_cm, latestCalibration: cal ? calibrationView(cal) : null, control: control.get(c.id) ?? null };
     }),
   };
 }

@@ -16,6 +16,7 @@ import { kramersKronigCheck } from './kramers-kronig-check';
 import { MeasurementCell } from './measurement-cell.entity';
 import { Replicate } from './replicate.entity';
 import { replicateViews } from './replicate-view';
+import { requireCellInControl } from '../validation/cell-control';
 
 /** Who is posting: a signed-in analyst, or a bench computer holding an instrument key. */
 export type Uploader = { kind: 'user'; userId: string } | { kind: 'instrument-key'; keyId: string };
@@ -94,6 +95,7 @@ export async function uploadMeasurements(
     ...(cell ? [] : [{ field: 'cellId', message: 'is not a cell of this lab' }]),
   ];
   if (missing.length) throw ApiError.badRequest(missing.map((m) => `${m.field} ${m.message}`).join('; ') + '.', missing);
+  await requireCellInControl(manager, labId, fields.cellId, sample.code);
   const { k, calibrationId } = await cellConstantFor(manager, labId, fields);
   const method = await labMethod(manager, labId);
 

@@ -11,6 +11,7 @@ import { MatSelectModule } from '@angular/material/select';
 import { HttpErrorResponse } from '@angular/common/http';
 import { SAMPLE_CODE_PATTERN, type MeasurementUploadFields, type RejectedFile, type Replicate, type UploadConfirmation } from '@ohmprint/contracts';
 import { readExportMetadata, type ExportMetadata } from '@ohmprint/spectral-engine';
+import { RouterLink } from '@angular/router';
 import { ApiProblem } from '@ohmprint/ui';
 import { MeasurementsData } from './measurements-data';
 import { rejectionText } from './rejection-text';
@@ -47,7 +48,7 @@ export function readSummary(read: ExportMetadata | null): string {
 @Component({
   selector: 'ohm-measurement-upload',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [ReactiveFormsModule, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatProgressBarModule, MatRadioModule, MatSelectModule],
+  imports: [ReactiveFormsModule, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatProgressBarModule, MatRadioModule, MatSelectModule, RouterLink],
   templateUrl: './measurement-upload.html',
   styleUrl: './measurement-upload.scss',
 })
@@ -100,7 +101,8 @@ export class MeasurementUpload {
     const v = this.form.getRawValue();
     const constantOk = v.cellConstantSource === 'latest-calibration' ? !!this.selectedCell()?.latestCalibration : v.cellConstantPerCm !== null;
     const temperatureOk = this.needTemperature().length === 0 || this.typedTemperature() !== null;
-    return this.form.valid && constantOk && temperatureOk && this.waiting() > 0 && !this.busy();
+    const blocked = this.selectedCell()?.control?.state === 'out-of-control';
+    return this.form.valid && constantOk && temperatureOk && !blocked && this.waiting() > 0 && !this.busy();
   }
 
   protected setReason(row: FileRow, event: Event): void {
