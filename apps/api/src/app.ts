@@ -5,6 +5,7 @@ import { resolve } from 'node:path';
 import { config } from './config';
 import { errorMiddleware, notFoundHandler } from './core/error-middleware';
 import { requestLogging } from './core/request-logging';
+import { rejectUnsafeText } from './core/safe-text';
 import { apiRoutes } from './modules/routes';
 import { openApiRouter } from './openapi/router';
 import { servePortals } from './serve-portals';
@@ -13,7 +14,8 @@ import { servePortals } from './serve-portals';
 export function createApp(): Express {
   const app = express();
   app.disable('x-powered-by');
-  app.set('trust proxy', 'loopback');
+  // X-Forwarded-For is believed only from the proxies TRUST_PROXY names (none by default).
+  app.set('trust proxy', config.trustProxy);
   app.set('query parser', 'simple');
 
   app.use(
@@ -42,6 +44,7 @@ export function createApp(): Express {
 
   const api = express.Router();
   api.use(express.json({ limit: config.bodyLimit }));
+  api.use(rejectUnsafeText);
   api.use(cookieParser());
   api.use(openApiRouter());
   api.use(apiRoutes());

@@ -10,7 +10,7 @@ import { Replicate } from '../measurements/replicate.entity';
 import { findLabSample, moveSample, requireSampleState } from '../samples/sample-access';
 import { Analysis } from './analysis.entity';
 import { compareAnalyses } from './compare-analyses';
-import { computeAnalysis } from './compute-analysis';
+import { analyseOffThread } from './analyse-off-thread';
 
 /** Runs a new analysis of the sample's included replicates; an earlier draft is superseded. */
 export async function runAnalysis(manager: EntityManager, auth: AuthContext, labId: string, sampleId: string, libraryVersionId: string): Promise<string> {
@@ -25,7 +25,7 @@ export async function runAnalysis(manager: EntityManager, auth: AuthContext, lab
   }
   const replicates = await manager.find(Replicate, { where: { labId, sampleId, excluded: false }, order: { replicateNumber: 'ASC' } });
   if (!replicates.length) throw ApiError.conflict(`Sample ${sample.code} has no included replicates; upload measurements first.`);
-  const computed = computeAnalysis(replicates, library);
+  const computed = await analyseOffThread(replicates, library);
   await manager.update(Analysis, { labId, sampleId, status: 'draft' }, { status: 'superseded' });
   const inserted = await manager.insert(Analysis, {
     labId,
@@ -82,7 +82,7 @@ export async function reproduceAnalysis(manager: EntityManager, labId: string, a
   const replicates = await manager.find(Replicate, { where: { labId, id: In(a.replicateIds) }, order: { replicateNumber: 'ASC' } });
   if (replicates.length !== a.replicateIds.length) throw ApiError.conflict('Some replicates this analysis used are no longer stored; it cannot be reproduced.');
   // Exactly the replicates it ran on, even if one was excluded afterwards.
-  const recomputed = computeAnalysis(replicates, library);
+  const recomputed = await analyseOffThread(replicates, library);
   const { differences, maxAbsoluteDifference } = compareAnalyses(a.result, recomputed.result);
   return {
     reproduced: differences.length === 0,

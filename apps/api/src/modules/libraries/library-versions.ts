@@ -1,5 +1,6 @@
 import type { EntityManager } from 'typeorm';
-import { calibrate, ENGINE_VERSION, type Spectrum } from '@ohmprint/spectral-engine';
+import { ENGINE_VERSION, type Spectrum } from '@ohmprint/spectral-engine';
+import { runCpuTask } from '../../core/cpu-pool/cpu-pool';
 import type { MethodSettings } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
 import { recordAudit } from '../audit/record-audit';
@@ -51,10 +52,10 @@ export async function publishVersion(manager: EntityManager, labId: string, vers
     throw ApiError.conflict(`Version ${version.version} holds ${rows.length} lots; the method needs at least ${version.method.minimumLots} before it can be published.`);
   }
   const grid = Float64Array.from(version.gridHz);
-  const calibration = calibrate(
-    rows.map((r) => decodeLotSpectrum(r.spectrum, grid)),
-    { lowerQuantile: version.method.lowerQuantile, upperQuantile: version.method.upperQuantile, minimumLots: version.method.minimumLots },
-  );
+  // Calibration compares every lot with every other: a worker thread does it.
+  const calibration = await runCpuTask('calibrateLibrary', {
+    args: [rows.map((r) => decodeLotSpectrum(r.spectrum, grid)), { lowerQuantile: version.method.lowerQuantile, upperQuantile: version.method.upperQuantile, minimumLots: version.method.minimumLots }],
+  });
   await manager.update(LibraryVersion, { id: versionId, labId }, { calibration, status: 'published', publishedAt: new Date(), publishedByUserId: userId, engineVersion: ENGINE_VERSION });
   await recordAudit(manager, {
     labId,

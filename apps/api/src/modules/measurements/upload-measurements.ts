@@ -1,6 +1,7 @@
 import type { EntityManager } from 'typeorm';
-import { parseSpectrumFile, SpectrumImportError } from '@ohmprint/spectral-engine';
-import type { MeasurementUploadFields, MeasurementUploadResult, RejectedFile, SampleState } from '@ohmprint/contracts';
+import type { Spectrum } from '@ohmprint/spectral-engine';
+import type { KramersKronigSummary, MeasurementUploadFields, MeasurementUploadResult, RejectedFile, SampleState } from '@ohmprint/contracts';
+import { runCpuTask } from '../../core/cpu-pool/cpu-pool';
 import { ApiError } from '../../core/api-error';
 import { recordAudit } from '../audit/record-audit';
 import { labMethod } from '../libraries/lab-method';
@@ -8,7 +9,6 @@ import { findLabSample, moveSample, requireSampleState } from '../samples/sample
 import { Sample } from '../samples/sample.entity';
 import { CellCalibration } from './cell-calibration.entity';
 import { Instrument } from './instrument.entity';
-import { kramersKronigCheck } from './kramers-kronig-check';
 import { MeasurementCell } from './measurement-cell.entity';
 import { Replicate } from './replicate.entity';
 import { replicateViews } from './replicate-view';
@@ -20,6 +20,13 @@ export interface UploadedExport {
   originalname: string;
   buffer: Buffer;
 }
+
+/**
+ * Limits of one upload, each named in the refusal when exceeded. An impedance sweep has tens to a
+ * few hundred frequencies (common practice); 20,000 rows leaves room for any real export while a
+ * hostile file stops early instead of costing seconds of CPU and hundreds of MB.
+ */
+export const MEASUREMENT_LIMITS = { pointsPerFile: 20_000, files: 20, fileSizeBytes: 5 * 1048576 } as const;
 
 const MEASURABLE: readonly SampleState[] = ['accepted', 'measuring', 'analysed', 'returned-for-rework'];
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
@@ -71,16 +78,18 @@ export async function uploadMeasurements(
   const { k, calibrationId } = await cellConstantFor(manager, labId, fields);
   const method = await labMethod(manager, labId);
 
+  // Parsing and the Kramers–Kronig check run in a worker thread; each bad file is reported alone.
+  const results = await runCpuTask('parseExports', {
+    files: files.map((f) => ({ name: f.originalname, bytes: new Uint8Array(f.buffer.buffer, f.buffer.byteOffset, f.buffer.byteLength) })),
+    maxPoints: MEASUREMENT_LIMITS.pointsPerFile,
+    kkLimitPercent: method.kkResidualLimitPercent,
+  });
   const rejected: RejectedFile[] = [];
-  const parsed: { file: UploadedExport; spectrum: ReturnType<typeof parseSpectrumFile> }[] = [];
-  for (const file of files) {
-    try {
-      parsed.push({ file, spectrum: parseSpectrumFile(file.buffer.toString('utf8')) });
-    } catch (err) {
-      if (!(err instanceof SpectrumImportError)) throw err;
-      rejected.push({ fileName: file.originalname, line: err.line ?? null, column: err.column ?? null, message: `${file.originalname}: ${err.message}` });
-    }
-  }
+  const parsed: { file: UploadedExport; spectrum: Spectrum; kramersKronig: KramersKronigSummary }[] = [];
+  results.forEach((result, i) => {
+    if (result.ok) parsed.push({ file: files[i], spectrum: result.spectrum, kramersKronig: result.kramersKronig });
+    else rejected.push({ fileName: result.name, line: result.line, column: result.column, message: `${result.name}: ${result.message}` });
+  });
   if (!parsed.length) {
     throw ApiError.badRequest(
       `No file could be read, so nothing was saved. ${rejected.map((r) => r.message).join(' ')}`,
@@ -90,7 +99,7 @@ export async function uploadMeasurements(
 
   const [{ max }] = await manager.query(`SELECT COALESCE(max(replicate_number), 0) AS max FROM replicate WHERE lab_id = $1 AND sample_id = $2`, [labId, sample.id]);
   const now = new Date();
-  const rows = parsed.map(({ file, spectrum }, i) => ({
+  const rows = parsed.map(({ file, spectrum, kramersKronig }, i) => ({
     labId,
     sampleId: sample.id,
     replicateNumber: Number(max) + i + 1,
@@ -105,7 +114,7 @@ export async function uploadMeasurements(
     cellConstantSource: fields.cellConstantSource,
     calibrationId,
     temperatureC: fields.temperatureC,
-    kramersKronig: kramersKronigCheck(spectrum, method.kkResidualLimitPercent),
+    kramersKronig,
     via: uploader.kind === 'user' ? ('portal' as const) : ('instrument-key' as const),
     uploadedByUserId: uploader.kind === 'user' ? uploader.userId : null,
     instrumentKeyId: uploader.kind === 'instrument-key' ? uploader.keyId : null,
