@@ -34,7 +34,7 @@ function fromClientStatus(err: BodyParserError & { statusCode?: number; expose?:
 }
 
 const CONNECTION_CODES = new Set(['ECONNREFUSED', 'ECONNRESET', 'EPIPE', 'ETIMEDOUT', 'ENOTFOUND', 'EAI_AGAIN', 'EHOSTUNREACH']);
-const CONNECTION_MESSAGES = /Connection terminated|terminating connection|the database system is (starting up|shutting down|in recovery)|timeout exceeded when trying to connect|Client has encountered a connection error|Connection ended|not queryable/i;
+const CONNECTION_MESSAGES = /Connection terminated|terminating connection|is not currently accepting connections|the database system is (starting up|shutting down|in recovery)|timeout exceeded when trying to connect|Client has encountered a connection error|Connection ended|not queryable/i;
 
 /**
  * True when the database could not be reached or dropped the connection (a restart, a failover,
