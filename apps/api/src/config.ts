@@ -20,7 +20,7 @@ const EnvSchema = z.object({
   TRUST_PROXY: z
     .string()
     .trim()
-    .regex(/^(false|true|\d+|[0-9a-fA-F:.\/, ]+|loopback|linklocal|uniquelocal)$/, 'false, a hop count, loopback, or addresses/CIDRs separated by commas')
+    .regex(/^(false|true|\d+|[0-9a-fA-F:./, ]+|loopback|linklocal|uniquelocal)$/, 'false, a hop count, loopback, or addresses/CIDRs separated by commas')
     .default('false'),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   BODY_LIMIT: z.string().regex(/^\d+(b|kb|mb)$/i, 'like 256kb or 2mb').default('256kb'),

@@ -1,6 +1,5 @@
 import { Client } from 'pg';
 import type { EntityManager } from 'typeorm';
-import type { PostgresConnectionOptions } from 'typeorm/driver/postgres/PostgresConnectionOptions';
 import { dataSource } from '../../db/data-source';
 
 /** A lab's report prefix: up to three letters of its name, e.g. "Calder Analytical" → CAL. */
@@ -61,7 +60,7 @@ export interface ReportNumberClaim {
  * claim commits at once and a burst of issuances can never wait on the pool it is holding.
  */
 async function withOwnConnection<T>(work: (manager: EntityManager) => Promise<T>): Promise<T> {
-  const o = dataSource.options as PostgresConnectionOptions;
+  const o = dataSource.options as { host?: string; port?: number; username?: string; password?: unknown; database?: string };
   const client = new Client({ host: o.host, port: o.port, user: o.username, password: o.password as string, database: o.database, application_name: 'ohmprint-report-number' });
   await client.connect();
   const manager = { query: async (sql: string, params?: unknown[]) => (await client.query(sql, params)).rows } as unknown as EntityManager;
