@@ -1,6 +1,7 @@
 import { availableParallelism } from 'node:os';
 import { extname, join } from 'node:path';
 import { Piscina } from 'piscina';
+import { config } from '../../config';
 import { ApiError } from '../api-error';
 import type * as Tasks from './cpu-tasks';
 
@@ -22,8 +23,7 @@ function workerFile(): string {
 }
 
 export function cpuWorkerCount(): number {
-  const configured = Number(process.env.CPU_WORKERS);
-  return Number.isInteger(configured) && configured > 0 ? configured : Math.max(1, Math.min(2, availableParallelism()));
+  return config.cpuWorkers ?? Math.max(1, Math.min(2, availableParallelism()));
 }
 
 function thePool(): Piscina {
