@@ -33,7 +33,7 @@ const ReplicateParamsSchema = z.object({ id: z.uuid(), replicateId: z.uuid() });
 const UploadParamsSchema = z.object({ id: z.string().trim().min(1).max(60).meta({ description: 'Sample id, or its printed code (OP-XXXX-XX)' }) });
 const UploadBodySchema = z.object({
   ...MeasurementUploadFieldsSchema.shape,
-  files: z.array(z.string().meta({ format: 'binary' })).meta({ description: 'One instrument export (text) per replicate: at most 20 files, each at most 5 MB and 20,000 rows' }),
+  files: z.array(z.string().meta({ format: 'binary' })).meta({ description: 'One instrument export (text) per replicate: at most 20 files, each at most 5 MB and 5,000 rows' }),
 });
 
 /** Bench equipment, measurement uploads and replicates (mounted at /lab). */

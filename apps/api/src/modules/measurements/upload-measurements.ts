@@ -23,10 +23,10 @@ export interface UploadedExport {
 
 /**
  * Limits of one upload, each named in the refusal when exceeded. An impedance sweep has tens to a
- * few hundred frequencies (common practice); 20,000 rows leaves room for any real export while a
+ * few hundred frequencies (common practice); 5,000 rows leaves room for any real export while a
  * hostile file stops early instead of costing seconds of CPU and hundreds of MB.
  */
-export const MEASUREMENT_LIMITS = { pointsPerFile: 20_000, files: 20, fileSizeBytes: 5 * 1048576 } as const;
+export const MEASUREMENT_LIMITS = { pointsPerFile: 5_000, files: 20, fileSizeBytes: 5 * 1048576 } as const;
 
 const MEASURABLE: readonly SampleState[] = ['accepted', 'measuring', 'analysed', 'returned-for-rework'];
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
