@@ -14,6 +14,11 @@ MAIL_SMTP_PORT="${OHMPRINT_SMTP_PORT:-1025}"
 MAIL_WEB_PORT="${OHMPRINT_MAIL_WEB_PORT:-1080}"
 PAYMENT_FAKE_PORT="${OHMPRINT_PAYMENT_FAKE_PORT:-12111}"
 APP_PORT="${PORT:-4300}"
+# fsync stays on for the cluster npm start runs (a crash or power loss must not corrupt a lab's
+# data); test.sh sets OHMPRINT_PG_FSYNC=off for a throwaway test cluster's speed.
+PG_FSYNC="${OHMPRINT_PG_FSYNC:-on}"
+# Each clone's mail catcher keeps its messages in its own .data folder.
+MAIL_DIR="$DATA/mail"
 
 log() { printf '\033[36m[ohmprint]\033[0m %s\n' "$*"; }
 die() { printf '\033[31m[ohmprint] %s\033[0m\n' "$*" >&2; exit 1; }
@@ -83,7 +88,7 @@ start_postgres() {
   if ! pg_as "$bin/pg_ctl" -D "$PG_DIR/data" status >/dev/null 2>&1; then
     log "starting PostgreSQL on 127.0.0.1:$PG_PORT"
     pg_as "$bin/pg_ctl" -D "$PG_DIR/data" -l "$PG_DIR/server.log" -w -t 60 \
-      -o "-p $PG_PORT -c listen_addresses=127.0.0.1 -k $PG_DIR/sock -c fsync=off -c max_connections=200" start >/dev/null \
+      -o "-p $PG_PORT -c listen_addresses=127.0.0.1 -k $PG_DIR/sock -c fsync=$PG_FSYNC -c max_connections=200" start >/dev/null \
       || die "PostgreSQL did not start; see $PG_DIR/server.log"
   fi
   if [ "$(psql_super -d postgres -c "select 1 from pg_roles where rolname='ohmprint'")" != 1 ]; then
@@ -128,7 +133,7 @@ wait_for_port() { # wait_for_port <port> <name> [seconds]
 
 start_mail_catcher() {
   start_background mail-catcher "$ROOT/node_modules/.bin/maildev" --ip 127.0.0.1 --smtp "$MAIL_SMTP_PORT" \
-    --web-ip 127.0.0.1 --web "$MAIL_WEB_PORT" --silent
+    --web-ip 127.0.0.1 --web "$MAIL_WEB_PORT" --mail-directory "$MAIL_DIR" --silent
   wait_for_port "$MAIL_SMTP_PORT" mail-catcher
 }
 

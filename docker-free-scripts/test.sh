@@ -1,5 +1,6 @@
 #!/usr/bin/env bash
 # npm test: the same setup as npm start, then lint and every test (jest runs all projects).
+export OHMPRINT_PG_FSYNC="${OHMPRINT_PG_FSYNC:-off}" # a test cluster is throwaway: speed over durability
 . "$(dirname "$0")/lib.sh"
 
 ensure_node_modules

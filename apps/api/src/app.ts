@@ -6,6 +6,7 @@ import { resolve } from 'node:path';
 import { config } from './config';
 import { errorMiddleware, notFoundHandler } from './core/error-middleware';
 import { requestLogging } from './core/request-logging';
+import { rejectUnsafeText } from './core/safe-text';
 import { paymentWebhookRouter } from './modules/billing/webhook.router';
 import { apiRoutes } from './modules/routes';
 import { openApiRouter } from './openapi/router';
@@ -15,7 +16,8 @@ import { servePortals } from './serve-portals';
 export function createApp(): Express {
   const app = express();
   app.disable('x-powered-by');
-  app.set('trust proxy', 'loopback');
+  // X-Forwarded-For is believed only from the proxies TRUST_PROXY names (none by default).
+  app.set('trust proxy', config.trustProxy);
   app.set('query parser', 'simple');
 
   app.use(
@@ -47,6 +49,7 @@ export function createApp(): Express {
   const api = express.Router();
   api.use(paymentWebhookRouter()); // raw body: before the JSON parser
   api.use(express.json({ limit: config.bodyLimit }));
+  api.use(rejectUnsafeText);
   api.use(cookieParser());
   api.use(openApiRouter());
   api.use(apiRoutes());

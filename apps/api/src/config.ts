@@ -11,7 +11,17 @@ const EnvSchema = z.object({
   NODE_ENV: z.enum(['development', 'test', 'production']).default('development'),
   HOST: z.string().default('127.0.0.1'),
   PORT: z.coerce.number({ error: 'must be a port number' }).int().min(1).max(65535).default(4300),
-  PUBLIC_BASE_URL: z.url().default('http://127.0.0.1:4300'),
+  /** Default: the API's own address on PORT, so links in e-mails and reports reach this instance. */
+  PUBLIC_BASE_URL: z.url().optional(),
+  /**
+   * Which hops may set X-Forwarded-For (Express's "trust proxy"): off by default, so no caller can
+   * pick the address that rate limits count. `loopback`, a hop count like `1`, or addresses/CIDRs.
+   */
+  TRUST_PROXY: z
+    .string()
+    .trim()
+    .regex(/^(false|true|\d+|[0-9a-fA-F:./, ]+|loopback|linklocal|uniquelocal)$/, 'false, a hop count, loopback, or addresses/CIDRs separated by commas')
+    .default('false'),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   BODY_LIMIT: z.string().regex(/^\d+(b|kb|mb)$/i, 'like 256kb or 2mb').default('256kb'),
   DATABASE_HOST: z.string().default('127.0.0.1'),
@@ -28,6 +38,9 @@ const EnvSchema = z.object({
   BCRYPT_COST: z.coerce.number().int().min(4).max(15).default(12),
   SIGN_IN_MAX_FAILURES: z.coerce.number().int().min(1).default(10),
   SIGN_IN_WINDOW_MINUTES: z.coerce.number().int().min(1).default(15),
+  SIGN_IN_MAX_FAILURES_PER_ADDRESS: z.coerce.number().int().min(1).default(30),
+  SIGN_IN_MAX_FAILURES_PER_ACCOUNT: z.coerce.number().int().min(1).default(50),
+  SIGN_IN_GLOBAL_PER_MINUTE: z.coerce.number().int().min(1).default(600),
   PASSWORD_RESET_TTL_MINUTES: z.coerce.number().int().min(5).max(1440).default(60),
   INVITATION_TTL_DAYS: z.coerce.number().int().min(1).max(60).default(14),
   SMTP_HOST: z.string().default('127.0.0.1'),
@@ -43,6 +56,7 @@ const EnvSchema = z.object({
   STRIPE_API_BASE: z.union([z.literal(''), z.url()]).default('http://127.0.0.1:12111'),
   STRIPE_SECRET_KEY: z.string().min(1).default('sk_test_ohmprint_local'),
   PAYMENT_WEBHOOK_SECRET: z.string().optional(),
+  CPU_WORKERS: z.coerce.number().int().min(1).max(64).optional(),
   SHUTDOWN_TIMEOUT_MS: z.coerce.number().int().min(100).default(10000),
   OHMPRINT_DATA_DIR: z.string().default('.data'),
   PORTALS_DIR: z.string().default('dist'),
@@ -59,14 +73,23 @@ export function parseEnv(env: NodeJS.ProcessEnv): Env {
   return parsed.data;
 }
 
-function buildConfig(env: Env) {
+/** Express's "trust proxy" value: false, a hop count, or the list of trusted addresses. */
+export function trustProxySetting(value: string): boolean | number | string {
+  if (value === 'false') return false;
+  if (value === 'true') return true;
+  if (/^\d+$/.test(value)) return Number(value);
+  return value;
+}
+
+export function buildConfig(env: Env) {
   const production = env.NODE_ENV === 'production';
   return {
     env: env.NODE_ENV,
     production,
     host: env.HOST,
     port: env.PORT,
-    publicBaseUrl: env.PUBLIC_BASE_URL.replace(/\/+$/, ''),
+    publicBaseUrl: (env.PUBLIC_BASE_URL ?? `http://127.0.0.1:${env.PORT}`).replace(/\/+$/, ''),
+    trustProxy: trustProxySetting(env.TRUST_PROXY),
     logLevel: env.NODE_ENV === 'test' && env.LOG_LEVEL === 'info' ? 'silent' : env.LOG_LEVEL,
     bodyLimit: env.BODY_LIMIT,
     database: {
@@ -86,6 +109,9 @@ function buildConfig(env: Env) {
       bcryptCost: env.BCRYPT_COST,
       signInMaxFailures: env.SIGN_IN_MAX_FAILURES,
       signInWindowMinutes: env.SIGN_IN_WINDOW_MINUTES,
+      signInMaxFailuresPerAddress: env.SIGN_IN_MAX_FAILURES_PER_ADDRESS,
+      signInMaxFailuresPerAccount: env.SIGN_IN_MAX_FAILURES_PER_ACCOUNT,
+      signInGlobalPerMinute: env.SIGN_IN_GLOBAL_PER_MINUTE,
       passwordResetTtlMinutes: env.PASSWORD_RESET_TTL_MINUTES,
       invitationTtlDays: env.INVITATION_TTL_DAYS,
     },
@@ -105,6 +131,7 @@ function buildConfig(env: Env) {
       secretKey: env.STRIPE_SECRET_KEY,
       webhookSecret: env.PAYMENT_WEBHOOK_SECRET,
     },
+    cpuWorkers: env.CPU_WORKERS,
     shutdownTimeoutMs: env.SHUTDOWN_TIMEOUT_MS,
     dataDir: env.OHMPRINT_DATA_DIR,
     portalsDir: env.PORTALS_DIR,

@@ -1,6 +1,7 @@
 import type { Server } from 'node:http';
 import { createApp } from './app';
 import { config } from './config';
+import { closeCpuPool } from './core/cpu-pool/cpu-pool';
 import { logger } from './core/logger';
 import { dataSource } from './db/data-source';
 import { createMailTransport } from './modules/mail/mail-transport';
@@ -29,6 +30,7 @@ async function main(): Promise<void> {
     hardStop.unref();
     server.close(async () => {
       await worker?.stop();
+      await closeCpuPool();
       await dataSource.destroy();
       logger.info('stopped');
       process.exit(0);

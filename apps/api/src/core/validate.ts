@@ -2,6 +2,7 @@ import type { NextFunction, Request, Response } from 'express';
 import type { z } from 'zod';
 import type { FieldError } from '@ohmprint/contracts';
 import { ApiError } from './api-error';
+import { refuseUnsafeText, unsafeTextFields } from './safe-text';
 
 export interface RequestSchemas {
   body?: z.ZodType;
@@ -25,6 +26,9 @@ export function fieldErrors(error: z.ZodError): FieldError[] {
  */
 export function validate(schemas: RequestSchemas) {
   return (req: Request, res: Response, next: NextFunction): void => {
+    // Multipart text fields arrive after the app-wide check, so they are checked here too.
+    const unsafe = schemas.body ? unsafeTextFields(req.body) : [];
+    if (unsafe.length) return next(refuseUnsafeText('request body', unsafe));
     const errors: FieldError[] = [];
     const where: string[] = [];
     for (const part of ['params', 'query', 'body'] as const) {

@@ -2,6 +2,7 @@ import type { Express } from 'express';
 import request from 'supertest';
 import type { Role, SessionResponse } from '@ohmprint/contracts';
 import { createApp } from '../app';
+import { closeCpuPool } from '../core/cpu-pool/cpu-pool';
 import { dataSource } from '../db/data-source';
 import { signAccessToken } from '../modules/auth/access-token';
 import { User } from '../modules/accounts/user.entity';
@@ -42,6 +43,7 @@ export function useTestApp(): TestApp {
   });
 
   afterAll(async () => {
+    await closeCpuPool();
     if (dataSource.isInitialized) await dataSource.destroy();
     if (databaseName) await dropTestDatabase(databaseName);
   });

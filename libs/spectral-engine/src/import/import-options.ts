@@ -19,4 +19,6 @@ export interface ImportOptions {
   readonly delimiter?: '\t' | ';' | ',';
   /** Fewest data rows accepted; default 5. */
   readonly minPoints?: number;
+  /** Most data rows accepted (refused at the first row beyond it); default: no limit. */
+  readonly maxPoints?: number;
 }

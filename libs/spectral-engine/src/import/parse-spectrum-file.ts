@@ -29,6 +29,14 @@ type Layout =
   | { readonly kind: 'cartesian'; readonly frequency: Column; readonly real: Column; readonly imaginary: Column; readonly negated: boolean }
   | { readonly kind: 'polar'; readonly frequency: Column; readonly modulus: Column; readonly phase: Column; readonly negated: boolean };
 
+/**
+ * Plausible measured values (common practice for impedance spectroscopy: µHz to THz, and
+ * impedances between a picoohm and a petaohm). Anything outside is a unit mistake or a corrupt
+ * file, and its squares would underflow or overflow later arithmetic (1e-300² is 0, 1e200² is ∞).
+ */
+export const PLAUSIBLE_FREQUENCY_HZ = { min: 1e-6, max: 1e12 } as const;
+export const PLAUSIBLE_IMPEDANCE_OHM = { min: 1e-12, max: 1e15 } as const;
+
 /** More cells than this on one line is not an impedance export; stops hostile input early. */
 const MAX_CELLS = 1000;
 
@@ -228,6 +236,7 @@ export function parseSpectrumFile(text: string, options: ImportOptions = {}): Sp
   if (body.trim() === '') throw new SpectrumImportError('the file is empty: expected a header row and rows of numbers');
   rejectBinary(body);
   const minPoints = options.minPoints ?? 5;
+  const maxPoints = options.maxPoints;
   const lines: Line[] = body.split(/\r\n|\r|\n/).map((t, i) => ({ number: i + 1, text: t }));
   const { delimiter, block } = chooseDelimiter(lines, options);
   const decimalComma = delimiter !== ',';
@@ -302,15 +311,47 @@ export function parseSpectrumFile(text: string, options: ImportOptions = {}): Sp
     if (!(f > 0)) {
       throw new SpectrumImportError(`frequency must be positive, found ${cells[layout.frequency.index].text}`, line.number, cells[layout.frequency.index].column);
     }
+    if (f < PLAUSIBLE_FREQUENCY_HZ.min || f > PLAUSIBLE_FREQUENCY_HZ.max) {
+      throw new SpectrumImportError(
+        `frequency ${cells[layout.frequency.index].text} is outside the plausible range ${PLAUSIBLE_FREQUENCY_HZ.min} Hz to ${PLAUSIBLE_FREQUENCY_HZ.max} Hz`,
+        line.number,
+        cells[layout.frequency.index].column,
+      );
+    }
+    if (maxPoints !== undefined && rows.length === maxPoints) {
+      throw new SpectrumImportError(`more than ${maxPoints} data rows: an export may hold at most ${maxPoints} frequencies`, line.number);
+    }
+    const plausible = (v: number, c: Column): number => {
+      const size = Math.abs(v);
+      if (size !== 0 && (size < PLAUSIBLE_IMPEDANCE_OHM.min || size > PLAUSIBLE_IMPEDANCE_OHM.max)) {
+        throw new SpectrumImportError(
+          `'${c.header}' value ${cells[c.index].text} is outside the plausible range of ${PLAUSIBLE_IMPEDANCE_OHM.min} Ω to ${PLAUSIBLE_IMPEDANCE_OHM.max} Ω in size`,
+          line.number,
+          cells[c.index].column,
+        );
+      }
+      return v;
+    };
+    let re: number;
+    let im: number;
+    let first: Column;
     if (layout.kind === 'cartesian') {
-      const im = value(layout.imaginary);
-      rows.push({ f, re: value(layout.real), im: layout.negated ? -im : im, line: line.number });
+      first = layout.real;
+      const imaginary = plausible(value(layout.imaginary), layout.imaginary);
+      re = plausible(value(layout.real), layout.real);
+      im = layout.negated ? -imaginary : imaginary;
     } else {
-      const modulus = value(layout.modulus);
+      first = layout.modulus;
+      const modulus = plausible(value(layout.modulus), layout.modulus);
       const phase = (layout.negated ? -1 : 1) * value(layout.phase);
       if (modulus < 0) throw new SpectrumImportError(`|Z| cannot be negative, found ${cells[layout.modulus.index].text}`, line.number, cells[layout.modulus.index].column);
-      rows.push({ f, re: modulus * Math.cos(phase), im: modulus * Math.sin(phase), line: line.number });
+      re = modulus * Math.cos(phase);
+      im = modulus * Math.sin(phase);
     }
+    if (re === 0 && im === 0) {
+      throw new SpectrumImportError('the impedance is zero (no measured value): expected a non-zero impedance at every frequency', line.number, cells[first.index].column);
+    }
+    rows.push({ f, re, im, line: line.number });
   }
   if (rows.length < minPoints) {
     throw new SpectrumImportError(`only ${rows.length} data row${rows.length === 1 ? '' : 's'}: expected at least ${minPoints} frequencies`, lines.length);

@@ -11,7 +11,7 @@ import { findLabSample, moveSample, requireSampleState } from '../samples/sample
 import { Analysis } from './analysis.entity';
 import { refreshOrderStatus } from '../orders/order-progress';
 import { compareAnalyses } from './compare-analyses';
-import { computeAnalysis } from './compute-analysis';
+import { analyseOffThread } from './analyse-off-thread';
 import { otherPublishedLibraries } from './does-not-belong';
 import { requireRevokedIfReported } from './revoked-report';
 
@@ -34,7 +34,7 @@ export async function runAnalysis(manager: EntityManager, auth: AuthContext, lab
   const replicates = await manager.find(Replicate, { where: { labId, sampleId, excluded: false }, order: { replicateNumber: 'ASC' } });
   if (!replicates.length) throw ApiError.conflict(`Sample ${sample.code} has no included replicates; upload measurements first.`);
   const others = await otherPublishedLibraries(manager, labId, library.productId, order.client_organisation_id);
-  const computed = computeAnalysis(replicates, library, others);
+  const computed = await analyseOffThread(replicates, library, others);
   await manager.update(Analysis, { labId, sampleId, status: 'draft' }, { status: 'superseded' });
   const inserted = await manager.insert(Analysis, {
     labId,
@@ -98,7 +98,7 @@ export async function reproduceAnalysis(manager: EntityManager, labId: string, a
     [a.sampleId, labId],
   );
   const others = await otherPublishedLibraries(manager, labId, library.productId, order.client_organisation_id);
-  const recomputed = computeAnalysis(replicates, library, others);
+  const recomputed = await analyseOffThread(replicates, library, others);
   const { differences, maxAbsoluteDifference } = compareAnalyses(a.result, recomputed.result);
   return {
     reproduced: differences.length === 0,

@@ -66,7 +66,10 @@ export function computeAnalysis(replicates: readonly Replicate[], library: Publi
   if (!usable.length) throw ApiError.conflict('No included replicate covers the method band, so there is nothing to analyse. Re-measure over the full band.');
   for (const r of replicates) {
     if (!r.kramersKronig.passed) {
-      flags.push({ code: 'kk-failed', severity: 'warning', message: `Replicate ${r.replicateNumber} (${r.fileName}) fails the Kramers–Kronig test: ${r.kramersKronig.maxResidualPercent.toFixed(2)} % > ${r.kramersKronig.limitPercent} %.` });
+      // A residual stored as null (NaN in JSON) from an older file with absurd values still reads.
+      const residual = r.kramersKronig.maxResidualPercent as number | null;
+      const shown = typeof residual === 'number' && Number.isFinite(residual) ? `${residual.toFixed(2)} %` : 'not computable';
+      flags.push({ code: 'kk-failed', severity: 'warning', message: `Replicate ${r.replicateNumber} (${r.fileName}) fails the Kramers–Kronig test: ${shown} > ${r.kramersKronig.limitPercent} %.` });
     }
   }
   if (usable.length < method.minimumReplicates) {

@@ -5,9 +5,28 @@ import { ApiError } from '../../core/api-error';
 const ISSUER = 'ohmprint';
 const AUDIENCE = 'ohmprint-api';
 
-/** A short-lived HS256 token naming only the user; roles are read from the database per request. */
-export function signAccessToken(userId: string): string {
-  return jwt.sign({}, config.auth.accessSecret, {
+/** What an access token stands for besides its user. */
+export interface AccessTokenSession {
+  /** The sign-in (refresh-token family) it belongs to: revoking the family ends the token at once. */
+  familyId?: string;
+  /** The user's token version when issued: a password change or reset moves it on. */
+  tokenVersion?: number;
+}
+
+export interface VerifiedAccessToken {
+  userId: string;
+  familyId: string | null;
+  tokenVersion: number;
+}
+
+/**
+ * A short-lived HS256 token naming the user, their sign-in and their token version; roles are read
+ * from the database per request, and so is whether the sign-in or the version still holds.
+ */
+export function signAccessToken(userId: string, session: AccessTokenSession = {}): string {
+  const claims: Record<string, unknown> = { tv: session.tokenVersion ?? 0 };
+  if (session.familyId) claims.sid = session.familyId;
+  return jwt.sign(claims, config.auth.accessSecret, {
     algorithm: 'HS256',
     subject: userId,
     issuer: ISSUER,
@@ -17,11 +36,12 @@ export function signAccessToken(userId: string): string {
 }
 
 /** Only HS256 is accepted: `alg: none` and every other algorithm are refused before any claim is read. */
-export function verifyAccessToken(token: string): string {
+export function verifyAccessToken(token: string): VerifiedAccessToken {
   try {
     const payload = jwt.verify(token, config.auth.accessSecret, { algorithms: ['HS256'], issuer: ISSUER, audience: AUDIENCE });
     if (typeof payload === 'string' || !payload.sub) throw new Error('no subject');
-    return payload.sub;
+    const sid = typeof payload.sid === 'string' && /^[0-9a-f-]{36}$/i.test(payload.sid) ? payload.sid : null;
+    return { userId: payload.sub, familyId: sid, tokenVersion: typeof payload.tv === 'number' ? payload.tv : 0 };
   } catch (err) {
     if (err instanceof jwt.TokenExpiredError) {
       throw ApiError.unauthorized('The access token has expired; refresh it (POST /api/auth/refresh) or sign in again.');

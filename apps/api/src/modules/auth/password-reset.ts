@@ -9,7 +9,7 @@ import { ClientMembership } from '../client-organisations/client-membership.enti
 import { hashPassword } from './passwords';
 import { PasswordResetToken } from './password-reset-token.entity';
 import { portalLink } from './portal-links';
-import { revokeAllSessionsOf } from './refresh-sessions';
+import { endAccessTokensOf, revokeAllSessionsOf } from './refresh-sessions';
 import { hashToken, newSecureToken } from './secure-token';
 
 /** E-mails a single-use link to an active account; unknown addresses get the same answer (no enumeration). */
@@ -55,6 +55,7 @@ export async function resetPassword(token: string, newPassword: string): Promise
     const user = await manager.findOne(User, { where: { id: row.userId } });
     if (!user || user.status !== 'active') throw ApiError.gone('This account is no longer active.');
     await manager.update(User, user.id, { passwordHash });
+    await endAccessTokensOf(manager, user.id);
     await manager.update(PasswordResetToken, { userId: user.id, usedAt: IsNull() }, { usedAt: new Date() });
     await revokeAllSessionsOf(manager, user.id, 'password-reset');
     await recordAudit(manager, { labId: user.labId, actorUserId: user.id, action: 'auth.password-reset', subjectType: 'user', subjectId: user.id });

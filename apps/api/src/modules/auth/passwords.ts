@@ -1,12 +1,14 @@
 import bcrypt from 'bcryptjs';
 import { config } from '../../config';
+import { runCpuTask } from '../../core/cpu-pool/cpu-pool';
 
+/** Hashed in a worker thread: bcrypt's own async API still computes on the event loop. */
 export function hashPassword(password: string): Promise<string> {
-  return bcrypt.hash(password, config.auth.bcryptCost);
+  return runCpuTask('hashPassword', { password, cost: config.auth.bcryptCost });
 }
 
 export function verifyPassword(password: string, hash: string): Promise<boolean> {
-  return bcrypt.compare(password, hash);
+  return runCpuTask('verifyPassword', { password, hash });
 }
 
 /** Compared against when the e-mail is unknown, so a miss costs as long as a wrong password. */

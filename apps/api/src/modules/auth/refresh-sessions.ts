@@ -30,6 +30,11 @@ export async function revokeFamily(manager: EntityManager, familyId: string, rea
   await manager.update(RefreshSession, { familyId, revokedAt: IsNull() }, { revokedAt: new Date(), revokedReason: reason });
 }
 
+/** Moves the user's token version on: every access token issued before stops working at once. */
+export async function endAccessTokensOf(manager: EntityManager, userId: string): Promise<void> {
+  await manager.query('UPDATE app_user SET token_version = token_version + 1 WHERE id = $1', [userId]);
+}
+
 /** Ends every sign-in of a user, e.g. after a password change or deactivation. */
 export async function revokeAllSessionsOf(manager: EntityManager, userId: string, reason: string): Promise<void> {
   await manager.update(RefreshSession, { userId, revokedAt: IsNull() }, { revokedAt: new Date(), revokedReason: reason });

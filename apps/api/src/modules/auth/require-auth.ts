@@ -10,9 +10,12 @@ async function authenticate(req: Request, res: Response): Promise<void> {
   const header = req.headers.authorization;
   const match = header?.match(/^Bearer\s+(\S+)$/i);
   if (!match) throw ApiError.unauthorized('Sign in first: send the access token as "Authorization: Bearer <token>".');
-  const userId = verifyAccessToken(match[1]);
-  const account = await loadAccount(dataSource.manager, userId);
+  const token = verifyAccessToken(match[1]);
+  const account = await loadAccount(dataSource.manager, token.userId, token.familyId);
   if (!account) throw ApiError.unauthorized('The account of this access token no longer exists; sign in again.');
+  // Checked on every request, so a password reset or a revoked sign-in ends its tokens at once.
+  if (account.tokenVersion !== token.tokenVersion) throw ApiError.unauthorized('The password of this account was changed or reset since this token was issued; sign in again.');
+  if (account.sessionEnded) throw ApiError.unauthorized('This sign-in has ended (signed out, or revoked after its token was used twice); sign in again.');
   assertAccountMaySignIn(account);
   res.locals.auth = account.auth;
   res.locals.me = account.me;

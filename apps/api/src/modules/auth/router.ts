@@ -55,7 +55,7 @@ export function authRouter(): Router {
       throw err;
     }
     setRefreshCookie(res, rotated.token);
-    res.json({ accessToken: signAccessToken(account.auth.userId), user: account.me });
+    res.json({ accessToken: signAccessToken(account.auth.userId, { familyId: rotated.familyId, tokenVersion: account.tokenVersion }), user: account.me });
   });
 
   registerRoute({ method: 'post', path: '/auth/sign-out', tag, summary: 'End this sign-in (revokes its refresh tokens, clears the cookie)', roles: [] });

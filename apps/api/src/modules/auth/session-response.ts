@@ -1,3 +1,4 @@
+import { randomUUID } from 'node:crypto';
 import type { Request, Response } from 'express';
 import type { EntityManager } from 'typeorm';
 import type { SessionResponse } from '@ohmprint/contracts';
@@ -8,7 +9,8 @@ import { issueRefreshToken } from './refresh-sessions';
 
 /** Opens a new sign-in for an account: refresh cookie set, access token and `Me` returned. */
 export async function openSession(manager: EntityManager, req: Request, res: Response, account: Account): Promise<SessionResponse> {
-  const refresh = await issueRefreshToken(manager, { userId: account.auth.userId, labId: account.auth.labId }, req.headers['user-agent']);
+  const familyId = randomUUID();
+  const refresh = await issueRefreshToken(manager, { userId: account.auth.userId, labId: account.auth.labId }, req.headers['user-agent'], familyId);
   setRefreshCookie(res, refresh);
-  return { accessToken: signAccessToken(account.auth.userId), user: account.me };
+  return { accessToken: signAccessToken(account.auth.userId, { familyId, tokenVersion: account.tokenVersion }), user: account.me };
 }

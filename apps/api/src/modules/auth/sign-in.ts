@@ -8,6 +8,7 @@ import { assertAccountMaySignIn } from './account-access';
 import { loadAccount } from './load-auth-context';
 import { UNKNOWN_USER_HASH, verifyPassword } from './passwords';
 import { openSession } from './session-response';
+import { countFailedSignIn } from './sign-in-limiter';
 
 const WRONG_CREDENTIALS = 'The e-mail address or password is incorrect.';
 
@@ -15,6 +16,7 @@ export async function signIn(req: Request, res: Response, input: SignInRequest):
   const user = await dataSource.manager.findOne(User, { where: { email: input.email } });
   const passwordOk = await verifyPassword(input.password, user?.passwordHash ?? UNKNOWN_USER_HASH);
   if (!user || !passwordOk) {
+    await countFailedSignIn(req, input.email);
     await recordAudit(dataSource.manager, {
       labId: user?.labId ?? null,
       actorUserId: null,

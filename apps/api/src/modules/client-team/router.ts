@@ -73,6 +73,7 @@ export function clientTeamRouter(): Router {
         roles: [input.role],
         invitedByUserId: auth.userId,
         emailField: 'email',
+        quietWhenTaken: true,
       });
     });
     res.status(201).json(toInvitationDto(invitation));

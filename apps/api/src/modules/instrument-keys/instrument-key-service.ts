@@ -86,11 +86,13 @@ export async function revokeInstrumentKey(manager: EntityManager, auth: AuthCont
 
 /** The live key a bench computer presented, with its lab; its last-used time is brought up to date. */
 export async function authenticateInstrumentKey(manager: EntityManager, secret: string): Promise<{ keyId: string; labId: string }> {
-  const rows: { id: string; lab_id: string }[] = await manager.query(
+  const rows: { id: string; lab_id: string; lab_status: string }[] = await manager.query(
     `WITH used AS (UPDATE instrument_key SET last_used_at = now() WHERE secret_sha256 = $1 AND revoked_at IS NULL RETURNING id, lab_id)
-     SELECT id, lab_id FROM used`,
+     SELECT used.id, used.lab_id, l.status AS lab_status FROM used JOIN lab l ON l.id = used.lab_id`,
     [sha256Hex(secret)],
   );
   if (!rows.length) throw ApiError.unauthorized('This instrument key is unknown or has been revoked; ask a lab admin for a new one.');
+  // A suspended lab's keys open nothing, like its people's sign-ins.
+  if (rows[0].lab_status !== 'active') throw new ApiError(403, 'Lab suspended', 'This lab is suspended on Ohmprint, so its instrument keys cannot upload. Contact the platform operator.', { type: 'lab-suspended' });
   return { keyId: rows[0].id, labId: rows[0].lab_id };
 }

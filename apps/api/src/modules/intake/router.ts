@@ -18,7 +18,7 @@ import { dataSource } from '../../db/data-source';
 import { registerRoute } from '../../openapi/registry';
 import { requireRole } from '../auth/require-auth';
 import { LAB_STAFF } from '../samples/lab-roles';
-import { multipart } from '../samples/multipart-problem';
+import { multerLimits, multipart } from '../samples/multipart-problem';
 import { sampleDetail } from '../samples/sample-views';
 import { acceptSample, addPhotos, photoContent, recordArrival, rejectSample } from './intake-service';
 
@@ -30,7 +30,7 @@ const PhotoUploadSchema = z.object({ photos: z.array(z.string().meta({ format: '
 /** Receiving shipments: arrival, photos, accept or reject (mounted at /lab). */
 export function intakeRouter(): Router {
   const router = Router();
-  const upload = multipart(multer({ storage: multer.memoryStorage(), limits: { fileSize: PHOTO_LIMITS.fileSizeBytes, files: PHOTO_LIMITS.files } }).array('photos'), PHOTO_LIMITS);
+  const upload = multipart(multer({ storage: multer.memoryStorage(), limits: multerLimits(PHOTO_LIMITS) }).array('photos'), PHOTO_LIMITS);
   const intake = requireRole('intake-technician');
   const id = (params: unknown) => (params as { id: string }).id;
 

@@ -20,6 +20,12 @@ export interface NewInvitation {
   invitedByUserId: string;
   /** Where the e-mail address came from in the request, for the error if it is taken. */
   emailField: string;
+  /**
+   * Answer the same whether or not the address already has an account (a client admin must not
+   * learn who uses Ohmprint elsewhere): a taken address gets an e-mail saying what to do instead
+   * of a link, and the invitation simply stays open. Otherwise a taken address is a 409.
+   */
+  quietWhenTaken?: boolean;
 }
 
 function invitationText(inv: NewInvitation, link: string): string {
@@ -32,15 +38,44 @@ function invitationText(inv: NewInvitation, link: string): string {
   );
 }
 
+/** For an address that already has an account: no link (it could not be used), but what to do. */
+function alreadyRegisteredText(inv: NewInvitation): string {
+  const where = inv.clientOrganisationName ? `${inv.clientOrganisationName}, a client of ${inv.labName},` : inv.labName;
+  return (
+    `Hello${inv.displayName ? ` ${inv.displayName}` : ''},\n\n` +
+    `You were invited to join ${where} on Ohmprint as ${inv.roles.join(', ')}.\n` +
+    `This e-mail address already belongs to an Ohmprint account, and an address can hold only one account, ` +
+    `so the invitation cannot be accepted with it. To join, ask the person who invited you to invite another ` +
+    `address of yours. To use your existing account, sign in as usual; if you forgot its password, use ` +
+    `"Forgot password" on the sign-in page.\n\nIf you did not expect this invitation, ignore this message.\n`
+  );
+}
+
 /**
  * Invites a person by e-mail. An address can hold one account only, so a taken address is refused;
  * an earlier open invitation to the same address is revoked (only the newest link works).
  */
 export async function sendInvitation(manager: EntityManager, inv: NewInvitation): Promise<Invitation> {
-  if (await manager.exists(User, { where: { email: inv.email } })) {
+  const taken = await manager.exists(User, { where: { email: inv.email } });
+  if (taken && !inv.quietWhenTaken) {
     throw ApiError.conflict(`${inv.email} already has an Ohmprint account.`, [{ field: inv.emailField, message: 'already has an Ohmprint account' }]);
   }
-  await manager.update(Invitation, { email: inv.email, acceptedAt: IsNull(), revokedAt: IsNull() }, { revokedAt: new Date() });
+  // Only this lab's own open invitations to the address give way to the new one; another lab's
+  // invitations are that lab's business.
+  const superseded = await manager.find(Invitation, { where: { labId: inv.labId, email: inv.email, acceptedAt: IsNull(), revokedAt: IsNull() } });
+  if (superseded.length) {
+    await manager.update(Invitation, superseded.map((i) => i.id), { revokedAt: new Date() });
+    for (const old of superseded) {
+      await recordAudit(manager, {
+        labId: inv.labId,
+        actorUserId: inv.invitedByUserId,
+        action: 'invitation.revoked',
+        subjectType: 'invitation',
+        subjectId: old.id,
+        details: { email: old.email, reason: 'replaced by a newer invitation to the same address' },
+      });
+    }
+  }
   const token = newSecureToken();
   const invitation = await manager.save(
     Invitation,
@@ -57,7 +92,7 @@ export async function sendInvitation(manager: EntityManager, inv: NewInvitation)
   );
   await enqueueLabEmail(manager, inv.labId, inv.email, {
     subject: `Your invitation to ${inv.clientOrganisationName ?? inv.labName} on Ohmprint`,
-    text: invitationText(inv, portalLink(inv.clientOrganisationId !== null, 'accept-invitation', token)),
+    text: taken ? alreadyRegisteredText(inv) : invitationText(inv, portalLink(inv.clientOrganisationId !== null, 'accept-invitation', token)),
   });
   await recordAudit(manager, {
     labId: inv.labId,

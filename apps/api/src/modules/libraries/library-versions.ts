@@ -1,6 +1,7 @@
 import type { EntityManager } from 'typeorm';
-import { calibrate, ENGINE_VERSION, relativeWidth, type Calibration, type Spectrum } from '@ohmprint/spectral-engine';
+import { ENGINE_VERSION, relativeWidth, type Calibration, type Spectrum } from '@ohmprint/spectral-engine';
 import type { Chemistry, LotQuality, MethodSettings } from '@ohmprint/contracts';
+import { runCpuTask } from '../../core/cpu-pool/cpu-pool';
 import { ApiError } from '../../core/api-error';
 import { recordAudit } from '../audit/record-audit';
 import { LibraryVersion } from './library-version.entity';
@@ -76,10 +77,13 @@ export async function calibrateVersion(manager: EntityManager, labId: string, ve
   );
   const grid = Float64Array.from(version.gridHz);
   const m = version.method;
-  return calibrate(
-    rows.map((r) => decodeLotSpectrum(r.spectrum, grid)),
-    { lowerQuantile: m.lowerQuantile, upperQuantile: m.upperQuantile, minimumLots: m.minimumLots, thresholdEstimator: m.thresholdEstimator ?? 'empirical-type7' },
-  );
+  // Calibration compares every lot with every other and bootstraps the thresholds: a worker thread does it.
+  return runCpuTask('calibrateLibrary', {
+    args: [
+      rows.map((r) => decodeLotSpectrum(r.spectrum, grid)),
+      { lowerQuantile: m.lowerQuantile, upperQuantile: m.upperQuantile, minimumLots: m.minimumLots, thresholdEstimator: m.thresholdEstimator ?? 'empirical-type7' },
+    ],
+  });
 }
 
 const percentOf = (x: number) => `${Math.round(x * 100)} %`;

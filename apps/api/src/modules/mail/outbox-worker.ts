@@ -18,40 +18,65 @@ export interface DeliveryRound {
   failed: number;
 }
 
+/** How long a claimed message is left alone while one process sends it (then it is due again). */
+const SEND_LEASE_SECONDS = 120;
+
 /**
- * Sends the messages that are due. Rows are claimed with FOR UPDATE SKIP LOCKED, so several API
- * processes can run this side by side without sending a message twice.
+ * The Message-ID of an outbox row: the same on every attempt, so a message sent again after a
+ * crash between sending and recording it is recognisable as the same message.
  */
-export async function deliverDueEmails(dataSource: DataSource, transport: Transporter, from = config.mail.from): Promise<DeliveryRound> {
-  const round: DeliveryRound = { sent: 0, failed: 0 };
-  await dataSource.transaction(async (manager) => {
-    const due = await manager
+export function outboxMessageId(outboxId: string, from = config.mail.from): string {
+  const domain = /@([A-Za-z0-9.-]+)>?\s*$/.exec(from)?.[1] ?? 'ohmprint.invalid';
+  return `<outbox-${outboxId}@${domain}>`;
+}
+
+/** Claims one due message in its own short transaction: its attempt is counted and leased. */
+async function claimNext(dataSource: DataSource): Promise<EmailOutbox | null> {
+  return dataSource.transaction(async (manager) => {
+    const message = await manager
       .createQueryBuilder(EmailOutbox, 'm')
       .where("m.status = 'pending' AND m.next_attempt_at <= now()")
       .orderBy('m.next_attempt_at', 'ASC')
-      .limit(BATCH_SIZE)
+      .limit(1)
       .setLock('pessimistic_write')
       .setOnLocked('skip_locked')
-      .getMany();
-    for (const message of due) {
-      const attempts = message.attempts + 1;
-      try {
-        const info = await transport.sendMail({ from, to: message.to, subject: message.subject, text: message.text, html: message.html ?? undefined, replyTo: message.replyTo ?? undefined });
-        await manager.update(EmailOutbox, message.id, { status: 'sent', attempts, sentAt: new Date(), lastError: null, messageId: info.messageId ?? null });
-        round.sent += 1;
-      } catch (err) {
-        const giveUp = attempts >= config.mail.maxAttempts;
-        await manager.update(EmailOutbox, message.id, {
-          status: giveUp ? 'failed' : 'pending',
-          attempts,
-          lastError: String((err as Error)?.message ?? err).slice(0, 2000),
-          nextAttemptAt: new Date(Date.now() + retryDelaySeconds(attempts) * 1000),
-        });
-        round.failed += 1;
-        logger.warn({ outboxId: message.id, attempts, giveUp, err: (err as Error)?.message }, 'e-mail delivery failed');
-      }
-    }
+      .getOne();
+    if (!message) return null;
+    message.attempts += 1;
+    await manager.update(EmailOutbox, message.id, { attempts: message.attempts, nextAttemptAt: new Date(Date.now() + SEND_LEASE_SECONDS * 1000) });
+    return message;
   });
+}
+
+/**
+ * Sends the messages that are due, each on its own: a message is claimed (attempt counted, leased
+ * for two minutes) and committed, sent, and its outcome committed at once, so an outage or crash
+ * mid-round never sends again a message already recorded as sent. Rows are claimed with FOR UPDATE
+ * SKIP LOCKED, so several processes can run this side by side. Every attempt carries the same
+ * Message-ID.
+ */
+export async function deliverDueEmails(dataSource: DataSource, transport: Transporter, from = config.mail.from): Promise<DeliveryRound> {
+  const round: DeliveryRound = { sent: 0, failed: 0 };
+  for (let i = 0; i < BATCH_SIZE; i++) {
+    const message = await claimNext(dataSource);
+    if (!message) break;
+    const attempts = message.attempts;
+    try {
+      const messageId = outboxMessageId(message.id, from);
+      await transport.sendMail({ from, to: message.to, subject: message.subject, text: message.text, html: message.html ?? undefined, replyTo: message.replyTo ?? undefined, messageId });
+      await dataSource.manager.update(EmailOutbox, message.id, { status: 'sent', sentAt: new Date(), lastError: null, messageId });
+      round.sent += 1;
+    } catch (err) {
+      const giveUp = attempts >= config.mail.maxAttempts;
+      await dataSource.manager.update(EmailOutbox, message.id, {
+        status: giveUp ? 'failed' : 'pending',
+        lastError: String((err as Error)?.message ?? err).slice(0, 2000),
+        nextAttemptAt: new Date(Date.now() + retryDelaySeconds(attempts) * 1000),
+      });
+      round.failed += 1;
+      logger.warn({ outboxId: message.id, attempts, giveUp, err: (err as Error)?.message }, 'e-mail delivery failed');
+    }
+  }
   return round;
 }
 

@@ -15,8 +15,9 @@ import { User } from '../accounts/user.entity';
 import { recordAudit } from '../audit/record-audit';
 import { loadAccount } from '../auth/load-auth-context';
 import { hashPassword, verifyPassword } from '../auth/passwords';
-import { revokeAllSessionsOf } from '../auth/refresh-sessions';
+import { endAccessTokensOf, revokeAllSessionsOf } from '../auth/refresh-sessions';
 import { requireAuth } from '../auth/require-auth';
+import { checkPasswordChangeAllowed, countWrongCurrentPassword } from '../auth/sign-in-limiter';
 import { openSession } from '../auth/session-response';
 
 const tag = 'My account';
@@ -53,13 +54,16 @@ export function meRouter(): Router {
   router.post('/password', validate({ body: ChangePasswordRequestSchema }), async (req, res) => {
     const { currentPassword, newPassword } = res.locals.body as ChangePasswordRequest;
     const { userId, labId } = res.locals.auth;
+    await checkPasswordChangeAllowed(userId);
     const user = await dataSource.manager.findOneByOrFail(User, { id: userId });
     if (!(await verifyPassword(currentPassword, user.passwordHash))) {
+      await countWrongCurrentPassword(userId);
       throw ApiError.badRequest('The current password is not correct; the password was not changed.', [{ field: 'currentPassword', message: 'is not correct' }]);
     }
     const passwordHash = await hashPassword(newPassword);
     const session = await dataSource.transaction(async (manager) => {
       await manager.update(User, userId, { passwordHash });
+      await endAccessTokensOf(manager, userId);
       await revokeAllSessionsOf(manager, userId, 'password-changed');
       await recordAudit(manager, { labId, actorUserId: userId, action: 'account.password-changed', subjectType: 'user', subjectId: userId });
       const account = await loadAccount(manager, userId);

@@ -22,25 +22,24 @@ import { registerRoute } from '../../openapi/registry';
 import { requireRole } from '../auth/require-auth';
 import { requireMeasurementUploader } from '../instrument-keys/measurement-uploader';
 import { LAB_STAFF } from '../samples/lab-roles';
-import { multipart } from '../samples/multipart-problem';
+import { multerLimits, multipart } from '../samples/multipart-problem';
 import { benchEquipment, recordCellCalibration } from './bench-equipment';
 import { Replicate } from './replicate.entity';
 import { excludeReplicate, replicateSpectrum, sampleMeasurements } from './sample-measurements';
-import { uploadMeasurements } from './upload-measurements';
+import { MEASUREMENT_LIMITS, uploadMeasurements } from './upload-measurements';
 
 const tag = 'Measurements';
-const EXPORT_LIMITS = { fileSizeBytes: 5 * 1048576, files: 20 };
 const ReplicateParamsSchema = z.object({ id: z.uuid(), replicateId: z.uuid() });
 const UploadParamsSchema = z.object({ id: z.string().trim().min(1).max(60).meta({ description: 'Sample id, or its printed code (OP-XXXX-XX)' }) });
 const UploadBodySchema = z.object({
   ...MeasurementUploadFieldsSchema.shape,
-  files: z.array(z.string().meta({ format: 'binary' })).meta({ description: 'One instrument export (text) per replicate, each at most 5 MB' }),
+  files: z.array(z.string().meta({ format: 'binary' })).meta({ description: 'One instrument export (text) per replicate: at most 20 files, each at most 5 MB and 5,000 rows' }),
 });
 
 /** Bench equipment, measurement uploads and replicates (mounted at /lab). */
 export function measurementsRouter(): Router {
   const router = Router();
-  const upload = multipart(multer({ storage: multer.memoryStorage(), limits: { fileSize: EXPORT_LIMITS.fileSizeBytes, files: EXPORT_LIMITS.files } }).array('files'), EXPORT_LIMITS);
+  const upload = multipart(multer({ storage: multer.memoryStorage(), limits: multerLimits(MEASUREMENT_LIMITS) }).array('files'), MEASUREMENT_LIMITS);
   const analyst = requireRole('analyst');
   const ids = (params: unknown) => params as z.infer<typeof ReplicateParamsSchema>;
 

@@ -1,6 +1,7 @@
 import type { EntityManager } from 'typeorm';
-import { parseSpectrumFile, SpectrumImportError } from '@ohmprint/spectral-engine';
-import type { MeasurementUploadFields, MeasurementUploadResult, RejectedFile, SampleState } from '@ohmprint/contracts';
+import type { Spectrum } from '@ohmprint/spectral-engine';
+import type { KramersKronigSummary, MeasurementUploadFields, MeasurementUploadResult, RejectedFile, SampleState } from '@ohmprint/contracts';
+import { runCpuTask } from '../../core/cpu-pool/cpu-pool';
 import { ApiError } from '../../core/api-error';
 import { recordAudit } from '../audit/record-audit';
 import { DEFAULT_METHOD } from '../libraries/default-method';
@@ -12,7 +13,6 @@ import { Sample } from '../samples/sample.entity';
 import { CellCalibration } from './cell-calibration.entity';
 import { Instrument } from './instrument.entity';
 import { checkExportIdentity, type AcceptedExport } from './export-identity';
-import { kramersKronigCheck } from './kramers-kronig-check';
 import { MeasurementCell } from './measurement-cell.entity';
 import { Replicate } from './replicate.entity';
 import { replicateViews } from './replicate-view';
@@ -25,6 +25,13 @@ export interface UploadedExport {
   originalname: string;
   buffer: Buffer;
 }
+
+/**
+ * Limits of one upload, each named in the refusal when exceeded. An impedance sweep has tens to a
+ * few hundred frequencies (common practice); 5,000 rows leaves room for any real export while a
+ * hostile file stops early instead of costing seconds of CPU and hundreds of MB.
+ */
+export const MEASUREMENT_LIMITS = { pointsPerFile: 5_000, files: 20, fileSizeBytes: 5 * 1048576 } as const;
 
 const MEASURABLE: readonly SampleState[] = ['accepted', 'measuring', 'analysed', 'returned-for-rework', 'reported'];
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
@@ -99,35 +106,36 @@ export async function uploadMeasurements(
   const { k, calibrationId } = await cellConstantFor(manager, labId, fields);
   const method = await labMethod(manager, labId);
 
+  // Parsing and the Kramers–Kronig check run in a worker thread; each bad file is reported alone.
+  const results = await runCpuTask('parseExports', {
+    files: files.map((f) => ({ name: f.originalname, bytes: new Uint8Array(f.buffer.buffer, f.buffer.byteOffset, f.buffer.byteLength) })),
+    maxPoints: MEASUREMENT_LIMITS.pointsPerFile,
+    kkLimitPercent: method.kkResidualLimitPercent,
+  });
   const rejected: RejectedFile[] = [];
-  const parsed: { file: UploadedExport; spectrum: ReturnType<typeof parseSpectrumFile>; identity: AcceptedExport }[] = [];
+  const parsed: { file: UploadedExport; spectrum: Spectrum; kramersKronig: KramersKronigSummary; identity: AcceptedExport }[] = [];
   const confirmations = fields.confirmations ?? [];
-  for (const file of files) {
-    const text = file.buffer.toString('utf8');
-    let spectrum: ReturnType<typeof parseSpectrumFile>;
-    try {
-      spectrum = parseSpectrumFile(text);
-    } catch (err) {
-      if (!(err instanceof SpectrumImportError)) throw err;
-      rejected.push({ fileName: file.originalname, line: err.line ?? null, column: err.column ?? null, message: `${file.originalname}: ${err.message}`, problem: 'unreadable', namedCode: null, fileTemperatureC: null });
-      continue;
+  results.forEach((result, i) => {
+    if (!result.ok) {
+      rejected.push({ fileName: result.name, line: result.line, column: result.column, message: `${result.name}: ${result.message}`, problem: 'unreadable', namedCode: null, fileTemperatureC: null });
+      return;
     }
     const checked = checkExportIdentity({
       sampleCode: sample.code,
-      fileName: file.originalname,
-      text,
+      fileName: files[i].originalname,
+      text: files[i].buffer.toString('utf8'),
       enteredTemperatureC: fields.temperatureC,
       mismatchLimitC: method.temperatureMismatchLimitC ?? DEFAULT_METHOD.temperatureMismatchLimitC,
       confirmations,
     });
-    if (checked.ok) parsed.push({ file, spectrum, identity: checked.value });
+    if (checked.ok) parsed.push({ file: files[i], spectrum: result.spectrum, kramersKronig: result.kramersKronig, identity: checked.value });
     else rejected.push(checked.refusal);
-  }
+  });
   if (!parsed.length) throw nothingSaved(rejected);
 
   const [{ max }] = await manager.query(`SELECT COALESCE(max(replicate_number), 0) AS max FROM replicate WHERE lab_id = $1 AND sample_id = $2`, [labId, sample.id]);
   const now = new Date();
-  const rows = parsed.map(({ file, spectrum, identity }, i) => ({
+  const rows = parsed.map(({ file, spectrum, kramersKronig, identity }, i) => ({
     labId,
     sampleId: sample.id,
     replicateNumber: Number(max) + i + 1,
@@ -144,7 +152,7 @@ export async function uploadMeasurements(
     temperatureC: identity.temperatureC,
     temperatureSource: identity.temperatureSource,
     declared: identity.declared,
-    kramersKronig: kramersKronigCheck(spectrum, method.kkResidualLimitPercent),
+    kramersKronig,
     via: uploader.kind === 'user' ? ('portal' as const) : ('instrument-key' as const),
     uploadedByUserId: uploader.kind === 'user' ? uploader.userId : null,
     instrumentKeyId: uploader.kind === 'instrument-key' ? uploader.keyId : null,

@@ -7,7 +7,7 @@ import request from 'supertest';
 import type { EntityManager } from 'typeorm';
 import { useTestApp } from '../../testing';
 import { signAccessToken } from '../auth/access-token';
-import * as signing from './signing/sign-pdf';
+import * as cpuPool from '../../core/cpu-pool/cpu-pool';
 import { demoReportContent } from './pdf/demo-report-content';
 import { SCREENING_CAUTION } from './pdf/report-wording';
 import { issueReport, type IssuanceStep } from './issue-report';
@@ -41,7 +41,7 @@ async function counts(a: SubmittedAnalysis) {
   const [row] = await t.db.query(
     `SELECT (SELECT status FROM analysis WHERE id = $1) AS analysis_status,
             (SELECT count(*)::int FROM test_report WHERE lab_id = $2) AS reports,
-            (SELECT coalesce(max(last_value), 0)::int FROM report_number_sequence WHERE lab_id = $2) AS numbers_used,
+            (SELECT count(*)::int FROM report_number_claim WHERE lab_id = $2 AND state = 'issued') AS numbers_used,
             (SELECT count(*)::int FROM email_outbox WHERE lab_id = $2 AND subject LIKE 'Test report%') AS emails,
             (SELECT count(*)::int FROM audit_event WHERE lab_id = $2 AND action = 'report.issued') AS audits`,
     [a.analysisId, a.labId],
@@ -53,9 +53,12 @@ describe('issuing a report on approval', () => {
   it('leaves nothing behind when signing fails after rendering, and the analysis still awaits review', async () => {
     const a = await insertSubmittedAnalysis(t.db.manager, CALDER);
     const before = await counts(a);
-    const spy = jest.spyOn(signing, 'signPdf').mockRejectedValueOnce(new Error('signing device unavailable'));
+    // Rendering and signing run in a worker thread: the failure is injected where the API hands them over.
+    const run = cpuPool.runCpuTask;
+    const spy = jest.spyOn(cpuPool, 'runCpuTask').mockImplementation(((name: string, input: never) =>
+      name === 'renderAndSign' ? Promise.reject(new Error('signing device unavailable')) : run(name as never, input)) as typeof run);
     await expect(approve(a)).rejects.toThrow('signing device unavailable');
-    expect(spy).toHaveBeenCalledTimes(1);
+    expect(spy.mock.calls.filter(([name]) => name === 'renderAndSign')).toHaveLength(1);
     spy.mockRestore();
     expect(await counts(a)).toEqual({ ...before, analysis_status: 'submitted' });
   });

@@ -7,7 +7,7 @@ import { ReportContent, ReportData } from './pdf/report-data';
 import { VERDICT_WORDS } from './pdf/verdict-badge';
 import { SCREENING_CAUTION } from './pdf/report-wording';
 import { TestReport } from './test-report.entity';
-import { nextReportNumber } from './report-numbering';
+import { claimReportNumber, markClaimIssued } from './report-numbering';
 import { formatVerificationCode, newVerificationCode, verificationUrl } from './verification-code';
 import { produceSignedReport } from './produce-signed-report';
 
@@ -33,13 +33,16 @@ export interface IssueReportInput {
 /**
  * Issues a report inside the caller's transaction: number, render, sign, store with its hash,
  * audit, notify the client, then the caller's steps. Any failure throws, and the caller's
- * rollback leaves no number used, no report row, no e-mail and the analysis as it was.
+ * rollback leaves no report row, no e-mail and the analysis as it was; the number it had claimed
+ * is handed to the next issuance (see `claimReportNumber`), so none is lost.
  */
 export async function issueReport(manager: EntityManager, input: IssueReportInput): Promise<TestReport> {
   const lab = await manager.findOneBy(Lab, { id: input.labId });
   if (!lab) throw ApiError.notFound('The lab');
   const issuedAt = input.issuedAt ?? new Date();
-  const number = await nextReportNumber(manager, lab, issuedAt);
+  // Claimed in a moment of its own: the lab's counter is not locked while the PDF renders and signs.
+  const claim = await claimReportNumber(manager, lab, issuedAt);
+  const number = claim.number;
   const report = await storeSignedReport(manager, lab, {
     content: input.content,
     number,
@@ -52,6 +55,7 @@ export async function issueReport(manager: EntityManager, input: IssueReportInpu
     sampleId: input.sampleId,
     clientOrganisationId: input.clientOrganisationId,
   });
+  await markClaimIssued(manager, claim, report.id);
   await recordAudit(manager, {
     labId: lab.id,
     actorUserId: input.actorUserId,

@@ -1,8 +1,7 @@
 import { createHash } from 'node:crypto';
 import type { EntityManager } from 'typeorm';
 import { ReportData } from './pdf/report-data';
-import { renderReportPdf } from './pdf/render-report-pdf';
-import { signPdf } from './signing/sign-pdf';
+import { runCpuTask } from '../../core/cpu-pool/cpu-pool';
 import { credentialForSigning } from './signing/signing-credentials';
 
 export interface SignedReport {
@@ -14,16 +13,23 @@ export interface SignedReport {
 /** Renders the report and signs it with the lab's credential; the hash is of the signed bytes. */
 export async function produceSignedReport(manager: EntityManager, lab: { id: string; name: string }, data: ReportData): Promise<SignedReport> {
   const [row]: Array<{ logo: Buffer | null }> = await manager.query('SELECT logo FROM lab WHERE id = $1', [lab.id]);
-  const unsigned = await renderReportPdf(data, { logo: row?.logo ?? null });
   const credential = await credentialForSigning(manager, lab);
-  const pdf = await signPdf(unsigned, credential.p12, credential.passphrase, {
-    // The number in the signature's reason is readable in the file without decompressing anything,
-    // which lets the public page say which report an altered upload claims to be.
-    reason: `Test report ${data.reportNumber}`,
-    signerName: data.lab.name,
-    location: data.lab.siteOfTesting ?? data.lab.address.join(', '),
-    contactInfo: data.lab.contactEmail ?? '',
-    signingTime: new Date(data.issuedAt),
+  // Rendering and signing take a few hundred milliseconds of CPU: a worker thread does both.
+  const signed = await runCpuTask('renderAndSign', {
+    data,
+    logo: row?.logo ? new Uint8Array(row.logo) : null,
+    p12: new Uint8Array(credential.p12),
+    passphrase: credential.passphrase,
+    signature: {
+      // The number in the signature's reason is readable in the file without decompressing anything,
+      // which lets the public page say which report an altered upload claims to be.
+      reason: `Test report ${data.reportNumber}`,
+      signerName: data.lab.name,
+      location: data.lab.siteOfTesting ?? data.lab.address.join(', '),
+      contactInfo: data.lab.contactEmail ?? '',
+      signingTime: new Date(data.issuedAt),
+    },
   });
+  const pdf = Buffer.from(signed.buffer, signed.byteOffset, signed.byteLength);
   return { pdf, sha256: createHash('sha256').update(pdf).digest('hex'), signingCredentialId: credential.id };
 }

@@ -1,6 +1,7 @@
 import type { NextFunction, Request, Response } from 'express';
 import multer from 'multer';
 import { ApiError } from '../../core/api-error';
+import { multerLimits, multerProblem } from '../samples/multipart-problem';
 
 /** A byte limit as people say it: 512 KB, 1 MB, 25 MB. */
 export function sizeInWords(bytes: number): string {
@@ -12,14 +13,15 @@ export function sizeInWords(bytes: number): string {
  * with multer's errors turned into problems that name the field and the limit.
  */
 export function singleFileUpload(field: string, maxBytes: number, what: string) {
-  const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: maxBytes, files: 1, fields: 10 } }).single(field);
+  const limits = { fileSizeBytes: maxBytes, files: 1 };
+  const upload = multer({ storage: multer.memoryStorage(), limits: multerLimits(limits) }).single(field);
   return (req: Request, res: Response, next: NextFunction): void => {
     upload(req, res, (err: unknown) => {
       if (err instanceof multer.MulterError) {
         if (err.code === 'LIMIT_FILE_SIZE') {
           next(new ApiError(413, 'File too large', `The ${what} is larger than ${sizeInWords(maxBytes)}.`, { type: 'file-too-large', errors: [{ field, message: `must be at most ${maxBytes} bytes` }] }));
         } else {
-          next(ApiError.badRequest(`The upload could not be read: ${err.message} (field "${err.field ?? field}").`, [{ field: err.field ?? field, message: err.message }]));
+          next(multerProblem(err, limits, `The ${what}`));
         }
         return;
       }

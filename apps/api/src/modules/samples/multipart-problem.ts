@@ -2,21 +2,53 @@ import type { NextFunction, Request, RequestHandler, Response } from 'express';
 import multer from 'multer';
 import { ApiError } from '../../core/api-error';
 
+/**
+ * Limits on the text parts of every multipart upload: an upload carries a handful of short form
+ * fields beside its files, so thousands of fields or megabyte-long values are refused at once
+ * instead of being held in memory.
+ */
+export const MULTIPART_TEXT_LIMITS = { fields: 30, fieldSizeBytes: 16 * 1024, fieldNameBytes: 100 } as const;
+
+/** multer's `limits` for `files` files of at most `fileSizeBytes` each, with the text limits. */
+export function multerLimits(limits: { fileSizeBytes: number; files: number }): multer.Options['limits'] {
+  return {
+    fileSize: limits.fileSizeBytes,
+    files: limits.files,
+    fields: MULTIPART_TEXT_LIMITS.fields,
+    fieldSize: MULTIPART_TEXT_LIMITS.fieldSizeBytes,
+    fieldNameSize: MULTIPART_TEXT_LIMITS.fieldNameBytes,
+    parts: limits.files + MULTIPART_TEXT_LIMITS.fields,
+  };
+}
+
+/** The problem for a multer limit, naming the limit that was hit (and the field, when known). */
+export function multerProblem(err: multer.MulterError, limits: { fileSizeBytes: number; files: number }, what = 'A file'): ApiError {
+  const field = err.field ? ` (field "${err.field}")` : '';
+  const errors = err.field ? [{ field: err.field, message: err.message }] : undefined;
+  switch (err.code) {
+    case 'LIMIT_FILE_SIZE':
+      return new ApiError(413, 'File too large', `${what}${field} is larger than ${limits.fileSizeBytes / 1048576} MB.`, { type: 'file-too-large', errors });
+    case 'LIMIT_FILE_COUNT':
+      return new ApiError(413, 'Too many files', `At most ${limits.files} files may be sent at once.`, { type: 'too-many-files' });
+    case 'LIMIT_FIELD_COUNT':
+      return new ApiError(413, 'Too many form fields', `At most ${MULTIPART_TEXT_LIMITS.fields} text fields may be sent with an upload.`, { type: 'too-many-fields' });
+    case 'LIMIT_PART_COUNT':
+      return new ApiError(413, 'Too many parts', `At most ${limits.files + MULTIPART_TEXT_LIMITS.fields} parts (files and fields) may be sent at once.`, { type: 'too-many-parts' });
+    case 'LIMIT_FIELD_VALUE':
+      return new ApiError(413, 'Form field too long', `A text field${field} is longer than ${MULTIPART_TEXT_LIMITS.fieldSizeBytes / 1024} KB.`, { type: 'field-too-long', errors });
+    case 'LIMIT_FIELD_KEY':
+      return new ApiError(413, 'Field name too long', `A field name is longer than ${MULTIPART_TEXT_LIMITS.fieldNameBytes} bytes.`, { type: 'field-name-too-long' });
+    default:
+      return ApiError.badRequest(`The upload could not be read: ${err.message}${field}.`, errors);
+  }
+}
+
 /** Runs a multer middleware and turns its errors into problems that say which limit was hit. */
 export function multipart(handler: RequestHandler, limits: { fileSizeBytes: number; files: number }): RequestHandler {
   return (req: Request, res: Response, next: NextFunction) => {
     handler(req, res, (err?: unknown) => {
       if (!err) return next();
-      if (err instanceof multer.MulterError) {
-        const field = err.field ? ` (field "${err.field}")` : '';
-        if (err.code === 'LIMIT_FILE_SIZE') {
-          return next(new ApiError(413, 'File too large', `A file${field} is larger than ${limits.fileSizeBytes / 1048576} MB.`, { type: 'file-too-large' }));
-        }
-        if (err.code === 'LIMIT_FILE_COUNT') {
-          return next(ApiError.badRequest(`At most ${limits.files} files may be sent at once.`));
-        }
-        return next(ApiError.badRequest(`The upload could not be read: ${err.message}${field}.`));
-      }
+      if (err instanceof multer.MulterError) return next(multerProblem(err, limits));
       next(err);
     });
   };

@@ -29,7 +29,7 @@ import { Invitation } from '../invitations/invitation.entity';
 import { sendInvitation } from '../invitations/send-invitation';
 import { withdrawInvitation } from '../invitations/withdraw-invitation';
 import { Lab } from '../labs/lab.entity';
-import { findStaffMember, listStaff, otherActiveAdmins } from './staff-queries';
+import { assertStillActiveAdmin, findStaffMember, listStaff, otherActiveAdmins } from './staff-queries';
 
 const tag = 'Lab staff';
 const roles = ['lab-admin'] as const;
@@ -114,9 +114,15 @@ export function staffRouter(): Router {
     if (id === auth.userId) throw ApiError.conflict('You cannot deactivate your own account.');
     const updated = await dataSource.transaction(async (manager) => {
       await manager.query('SELECT pg_advisory_xact_lock(hashtext($1))', [`lab-admins:${labId}`]);
+      // Under the lab's admin lock: the caller may have been deactivated a moment ago by the very
+      // admin they are deactivating, and the lab must keep one active admin whatever the order.
+      await assertStillActiveAdmin(manager, labId, auth.userId);
       const member = await findStaffMember(manager, labId, id);
       if (!member) throw ApiError.notFound('Staff member');
       if (member.status === 'deactivated') return member;
+      if (member.roles.includes('lab-admin') && (await otherActiveAdmins(manager, labId, id)) === 0) {
+        throw ApiError.conflict('The lab must keep at least one active lab admin; this is the last one.');
+      }
       await manager.update(User, { id, labId }, { status: 'deactivated' });
       await revokeAllSessionsOf(manager, id, 'deactivated');
       await recordAudit(manager, { labId, actorUserId: auth.userId, action: 'staff.deactivated', subjectType: 'user', subjectId: id, details: { email: member.email } });

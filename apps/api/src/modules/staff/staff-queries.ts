@@ -1,3 +1,4 @@
+import { ApiError } from '../../core/api-error';
 import type { EntityManager } from 'typeorm';
 import type { LabRole, ListQuery, Page, StaffMember } from '@ohmprint/contracts';
 import { escapeLike, pageParams, toPage } from '../../core/paging';
@@ -56,4 +57,14 @@ export async function otherActiveAdmins(manager: EntityManager, labId: string, e
     [labId, exceptUserId],
   );
   return Number(row.n);
+}
+
+/** Refuses a caller who is no longer an active lab admin of this lab (read under the admin lock). */
+export async function assertStillActiveAdmin(manager: EntityManager, labId: string, userId: string): Promise<void> {
+  const [row] = await manager.query(
+    `SELECT 1 AS ok FROM lab_role_membership r JOIN app_user u ON u.id = r.user_id
+     WHERE r.lab_id = $1 AND r.role = 'lab-admin' AND u.status = 'active' AND u.id = $2`,
+    [labId, userId],
+  );
+  if (!row) throw ApiError.forbidden('You are no longer an active lab admin of this lab.');
 }

@@ -7,6 +7,7 @@ import {
   type VerifyReportQuery,
 } from '@ohmprint/contracts';
 import { ApiError, validate } from '../../core';
+import { concurrencyLimit } from '../../core/concurrency-limit';
 import { PostgresRateStore } from '../../core/postgres-rate-store';
 import { dataSource } from '../../db/data-source';
 import { registerRoute } from '../../openapi/registry';
@@ -15,6 +16,8 @@ import { verifyByCode, verifyUpload } from './verify-report';
 
 const tag = 'Public verification';
 export const MAX_UPLOAD_BYTES = 20 * 1024 * 1024;
+/** Anonymous PDF checks handled at once per API process (each may hold up to 20 MB). */
+export const MAX_CONCURRENT_UPLOADS = 4;
 
 export interface VerificationRouterOptions {
   /** Checks per client address per window; codes carry ~59 bits, the limit keeps scraping slow. */
@@ -45,7 +48,7 @@ export function verificationRouter({ limit = 30, windowMs = 60_000 }: Verificati
   });
 
   registerRoute({ method: 'post', path: '/public/verify/upload', tag, summary: 'Check an uploaded PDF (field "file", ≤ 20 MB) against the issued reports by SHA-256', roles: [], body: VerifyUploadFieldsSchema, requestMediaType: 'multipart/form-data', response: VerificationResultSchema });
-  router.post('/upload', singleFileUpload('file', MAX_UPLOAD_BYTES, 'PDF'), validate({ body: VerifyUploadFieldsSchema }), async (req, res) => {
+  router.post('/upload', concurrencyLimit(MAX_CONCURRENT_UPLOADS, 'uploaded PDF checks'), singleFileUpload('file', MAX_UPLOAD_BYTES, 'PDF'), validate({ body: VerifyUploadFieldsSchema }), async (req, res) => {
     const pdf = req.file!.buffer;
     if (pdf.subarray(0, 5).toString('latin1') !== '%PDF-') {
       throw ApiError.badRequest('The uploaded file is not a PDF (it does not start with "%PDF-").', [{ field: 'file', message: 'must be a PDF' }]);

@@ -5,7 +5,7 @@ import { ApiError } from '../../../core/api-error';
 import { config } from '../../../config';
 import { recordAudit } from '../../audit/record-audit';
 import { SigningCredential, CredentialOrigin } from './signing-credential.entity';
-import { createSelfSignedCredential } from './self-signed-credential';
+import { runCpuTask } from '../../../core/cpu-pool/cpu-pool';
 import { CredentialError, readCredential } from './credential-details';
 import { credentialSealingKey } from './sealing-key';
 import { seal, unseal } from './sealed-secret';
@@ -73,7 +73,9 @@ export async function credentialForSigning(manager: EntityManager, lab: { id: st
       throw ApiError.conflict('This lab has no signing credential yet: a lab admin must upload its PKCS#12 file before reports can be issued.');
     }
     const passphrase = randomBytes(24).toString('base64url');
-    const p12 = createSelfSignedCredential({ labName: lab.name, passphrase });
+    // An RSA key pair takes a moment to generate: a worker thread does it.
+    const generated = await runCpuTask('selfSignedCredential', { labName: lab.name, passphrase });
+    const p12 = Buffer.from(generated.buffer, generated.byteOffset, generated.byteLength);
     credential = (await store(manager, lab.id, 'development', p12, passphrase, null)) ?? (await currentCredential(manager, lab.id));
     if (!credential) throw new Error(`No signing credential could be created for lab ${lab.id}.`);
   }

@@ -1,0 +1,40 @@
+import { ApiError } from '../api-error';
+import { closeCpuPool, cpuWorkerCount, runCpuTask } from './cpu-pool';
+
+afterAll(() => closeCpuPool());
+
+describe('the CPU worker pool', () => {
+  it('hashes and verifies a password in a worker thread (bcrypt format, checked by bcryptjs)', async () => {
+    const hash = await runCpuTask('hashPassword', { password: 'correct horse battery', cost: 4 });
+    expect(hash).toMatch(/^\$2[aby]\$04\$.{53}$/);
+    expect(await runCpuTask('verifyPassword', { password: 'correct horse battery', hash })).toBe(true);
+    expect(await runCpuTask('verifyPassword', { password: 'wrong horse battery', hash })).toBe(false);
+  });
+
+  it('parses exports in a worker, keeping each bad file’s line and column beside the good ones', async () => {
+    const good = "Frequency (Hz);Z' (Ω);Z'' (Ω)\n1000;120;-30\n100;150;-60\n10;200;-90\n1;260;-40\n0.1;300;-10\n";
+    const bad = good.replace('10;200;-90', '10;200;abc');
+    const [a, b] = await runCpuTask('parseExports', {
+      files: [
+        { name: 'good.csv', bytes: new TextEncoder().encode(good) },
+        { name: 'bad.csv', bytes: new TextEncoder().encode(bad) },
+      ],
+      maxPoints: 100,
+      kkLimitPercent: 2,
+    });
+    expect(a.ok && Array.from(a.spectrum.frequencyHz)).toEqual([0.1, 1, 10, 100, 1000]);
+    expect(b).toMatchObject({ name: 'bad.csv', ok: false, line: 4, column: 8 });
+  });
+
+  it('carries a refusal from a worker back as the same ApiError', async () => {
+    const library = { method: { minimumReplicates: 1 }, grid: new Float64Array([1, 10, 100]) };
+    const refusal = runCpuTask('analyse', { replicates: [], library: library as never });
+    await expect(refusal).rejects.toBeInstanceOf(ApiError);
+    await expect(refusal).rejects.toMatchObject({ status: 409, type: 'urn:ohmprint:problem:conflict' });
+  });
+
+  it('is sized for the machine: at most two threads unless CPU_WORKERS says otherwise', () => {
+    expect(cpuWorkerCount()).toBeGreaterThanOrEqual(1);
+    expect(cpuWorkerCount()).toBeLessThanOrEqual(Number(process.env.CPU_WORKERS) || 2);
+  });
+});

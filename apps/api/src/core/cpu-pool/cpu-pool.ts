@@ -1,0 +1,61 @@
+import { availableParallelism } from 'node:os';
+import { extname, join } from 'node:path';
+import { Piscina } from 'piscina';
+import { config } from '../../config';
+import { ApiError } from '../api-error';
+import type * as Tasks from './cpu-tasks';
+
+type TaskName = Exclude<keyof typeof Tasks, 'TaskRefusal' | 'ExportFile' | 'ParsedExport'>;
+type TaskInput<N extends TaskName> = Parameters<(typeof Tasks)[N]>[0];
+type TaskOutput<N extends TaskName> = Awaited<ReturnType<(typeof Tasks)[N]>>;
+
+/**
+ * Worker threads for the API's CPU-heavy work (password hashing, file parsing, analysis and
+ * calibration, report rendering and signing), so the event loop keeps answering every tenant
+ * while one of them uploads or issues. Sized for the two-core machine by default
+ * (`CPU_WORKERS`). Compiled, the tasks are `cpu-tasks.js` beside this file; under ts-jest or tsx
+ * (a `.ts` file here) the threads load a small CommonJS shim that compiles `cpu-tasks.ts` with tsx.
+ */
+let pool: Piscina | undefined;
+
+function workerFile(): string {
+  return extname(__filename) === '.ts' ? join(__dirname, 'cpu-tasks-ts.cjs') : join(__dirname, 'cpu-tasks.js');
+}
+
+export function cpuWorkerCount(): number {
+  return config.cpuWorkers ?? Math.max(1, Math.min(2, availableParallelism()));
+}
+
+function thePool(): Piscina {
+  pool ??= new Piscina({
+    filename: workerFile(),
+    minThreads: 1,
+    maxThreads: cpuWorkerCount(),
+    idleTimeout: 60_000,
+    // Queued tasks wait their turn rather than starting more threads than cores.
+    concurrentTasksPerWorker: 1,
+  });
+  return pool;
+}
+
+/** Runs one task in a worker thread; a refusal the task returned becomes the same ApiError here. */
+export async function runCpuTask<N extends TaskName>(name: N, input: TaskInput<N>): Promise<Exclude<TaskOutput<N>, Tasks.TaskRefusal>> {
+  const result = (await thePool().run(input, { name })) as TaskOutput<N>;
+  if (result && typeof result === 'object' && 'refused' in result) {
+    const r = (result as Tasks.TaskRefusal).refused;
+    throw new ApiError(r.status, r.title, r.detail, { type: r.type === 'about:blank' ? undefined : r.type });
+  }
+  return result as Exclude<TaskOutput<N>, Tasks.TaskRefusal>;
+}
+
+/** Tasks waiting for a free thread and the threads running, for the benchmark and health figures. */
+export function cpuPoolLoad(): { queued: number; threads: number } {
+  return { queued: pool?.queueSize ?? 0, threads: pool?.threads.length ?? 0 };
+}
+
+/** Stops the threads (graceful shutdown, end of a test file). */
+export async function closeCpuPool(): Promise<void> {
+  const p = pool;
+  pool = undefined;
+  await p?.destroy();
+}

@@ -1,0 +1,96 @@
+/**
+ * The CPU-heavy work of the API, run in worker threads by the pool in `cpu-pool.ts`. Every task is
+ * a pure function of its (structured-clonable) input: no database, no configuration, no state
+ * kept between calls, so any worker can run any task and a result depends on nothing else.
+ * Heavy modules (PDF, engine) load on a thread's first task that needs them, so a thread that only
+ * hashes passwords starts quickly.
+ */
+import bcrypt from 'bcryptjs';
+import type { calibrate, Spectrum } from '@ohmprint/spectral-engine';
+import type { KramersKronigSummary } from '@ohmprint/contracts';
+import type { ComputedAnalysis } from '../../modules/analyses/compute-analysis';
+import type { OtherLibrary } from '../../modules/analyses/does-not-belong';
+import type { PublishedLibrary } from '../../modules/libraries/published-library';
+import type { Replicate } from '../../modules/measurements/replicate.entity';
+import type { ReportData } from '../../modules/reports/pdf/report-data';
+import type { SignatureFields } from '../../modules/reports/signing/sign-pdf';
+import { ApiError } from '../api-error';
+
+/**
+ * A module loaded on first use. Plain `require` (not `import()`): the same call works compiled
+ * to CommonJS and under the TypeScript loader the test threads use.
+ */
+// eslint-disable-next-line @typescript-eslint/no-require-imports
+const load = <T>(id: string): T => require(id) as T;
+
+/** An ApiError thrown in a worker, carried back as data (class identity does not cross threads). */
+export interface TaskRefusal {
+  refused: { status: number; title: string; detail?: string; type: string };
+}
+
+function refusalOf(err: unknown): TaskRefusal {
+  if (err instanceof ApiError) return { refused: { status: err.status, title: err.title, detail: err.detail, type: err.type.replace(/^urn:ohmprint:problem:/, '') } };
+  throw err;
+}
+
+export function hashPassword(input: { password: string; cost: number }): string {
+  return bcrypt.hashSync(input.password, input.cost);
+}
+
+export function verifyPassword(input: { password: string; hash: string }): boolean {
+  return bcrypt.compareSync(input.password, input.hash);
+}
+
+export interface ExportFile {
+  name: string;
+  bytes: Uint8Array;
+}
+
+export type ParsedExport =
+  | { name: string; ok: true; spectrum: Spectrum; kramersKronig: KramersKronigSummary }
+  | { name: string; ok: false; line: number | null; column: number | null; message: string };
+
+/** Reads each instrument export and runs its Kramers–Kronig check; a bad file does not stop the others. */
+export async function parseExports(input: { files: ExportFile[]; maxPoints: number; kkLimitPercent: number }): Promise<ParsedExport[]> {
+  const { parseSpectrumFile, SpectrumImportError } = load<typeof import('./engine-entry')>('./engine-entry');
+  const { kramersKronigCheck } = load<typeof import('../../modules/measurements/kramers-kronig-check')>('../../modules/measurements/kramers-kronig-check');
+  const decoder = new TextDecoder('utf-8');
+  return input.files.map((file): ParsedExport => {
+    try {
+      const spectrum = parseSpectrumFile(decoder.decode(file.bytes), { maxPoints: input.maxPoints });
+      return { name: file.name, ok: true, spectrum, kramersKronig: kramersKronigCheck(spectrum, input.kkLimitPercent) };
+    } catch (err) {
+      if (!(err instanceof SpectrumImportError)) throw err;
+      return { name: file.name, ok: false, line: err.line ?? null, column: err.column ?? null, message: err.message };
+    }
+  });
+}
+
+export async function analyse(input: { replicates: Replicate[]; library: PublishedLibrary; others?: OtherLibrary[] }): Promise<ComputedAnalysis | TaskRefusal> {
+  const { computeAnalysis } = load<typeof import('../../modules/analyses/compute-analysis')>('../../modules/analyses/compute-analysis');
+  try {
+    return computeAnalysis(input.replicates, input.library, input.others ?? []);
+  } catch (err) {
+    return refusalOf(err);
+  }
+}
+
+export async function calibrateLibrary(input: { args: Parameters<typeof calibrate> }): Promise<ReturnType<typeof calibrate>> {
+  const engine = load<typeof import('./engine-entry')>('./engine-entry');
+  return engine.calibrate(...input.args);
+}
+
+/** Renders the report and signs it; the bytes come back as a Uint8Array (a transferable copy). */
+export async function renderAndSign(input: { data: ReportData; logo?: Uint8Array | null; p12: Uint8Array; passphrase: string; signature: SignatureFields }): Promise<Uint8Array> {
+  const { renderReportPdf } = load<typeof import('../../modules/reports/pdf/render-report-pdf')>('../../modules/reports/pdf/render-report-pdf');
+  const { signPdf } = load<typeof import('../../modules/reports/signing/sign-pdf')>('../../modules/reports/signing/sign-pdf');
+  const unsigned = await renderReportPdf(input.data, { logo: input.logo ? Buffer.from(input.logo) : null });
+  const signed = await signPdf(unsigned, Buffer.from(input.p12), input.passphrase, input.signature);
+  return new Uint8Array(signed.buffer, signed.byteOffset, signed.byteLength);
+}
+
+export async function selfSignedCredential(input: { labName: string; passphrase: string }): Promise<Uint8Array> {
+  const { createSelfSignedCredential } = load<typeof import('../../modules/reports/signing/self-signed-credential')>('../../modules/reports/signing/self-signed-credential');
+  const p12 = createSelfSignedCredential(input);
+  return new Uint8Array(p12.buffer, p12.byteOffset, p12.byteLength);
+}

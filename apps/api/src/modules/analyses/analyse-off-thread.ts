@@ -1,0 +1,14 @@
+import { runCpuTask } from '../../core/cpu-pool/cpu-pool';
+import type { PublishedLibrary } from '../libraries/published-library';
+import type { Replicate } from '../measurements/replicate.entity';
+import type { ComputedAnalysis } from './compute-analysis';
+import type { OtherLibrary } from './does-not-belong';
+
+/**
+ * `computeAnalysis` in a worker thread: the fit, distances and map of one sample never hold up
+ * other requests. The raw files stay behind (the computation reads only the parsed points).
+ */
+export function analyseOffThread(replicates: readonly Replicate[], library: PublishedLibrary, others: readonly OtherLibrary[] = []): Promise<ComputedAnalysis> {
+  const light = replicates.map((r) => ({ ...r, rawFile: Buffer.alloc(0) }) as Replicate);
+  return runCpuTask('analyse', { replicates: light, library, others: [...others] });
+}
