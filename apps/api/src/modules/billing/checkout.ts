@@ -79,10 +79,15 @@ export async function abandonCheckout(scope: CreditScope, manager: EntityManager
   const payment = await manager.findOne(PaymentRow, { where: { labId: scope.labId, clientOrganisationId: scope.clientOrganisationId, checkoutSessionId: sessionId } });
   if (!payment) throw ApiError.notFound('Checkout');
   if (payment.status !== 'open' && payment.status !== 'declined') return;
+  let status: string | null;
   try {
     const session = await paymentService().checkout.sessions.retrieve(sessionId);
-    if (session.status === 'open') await paymentService().checkout.sessions.expire(sessionId);
+    status = session.status === 'open' ? (await paymentService().checkout.sessions.expire(sessionId)).status : session.status;
   } catch (err) {
     throw paymentServiceProblem(err, 'closing the checkout');
+  }
+  // The payment service confirmed it: say so at once (its `expired` event then finds nothing to do).
+  if (status === 'expired') {
+    await manager.query(`UPDATE payment SET status = 'expired', updated_at = now() WHERE id = $1 AND status IN ('open', 'declined')`, [payment.id]);
   }
 }
