@@ -69,7 +69,7 @@ describe('buying credits', () => {
     await page.getByRole('alert').filter({ hasText: 'The test card was declined' }).waitFor();
     await screenshot(page, 'credits-test-checkout-declined');
     await page.getByRole('button', { name: /^Pay / }).click();
-    await page.waitForURL(/\/credits\/bought\?session=cs_test_/);
+    await page.waitForURL(/\/credits\/bought\?checkout=cs_test_/);
     await page.getByText(/10 credits from “Ten checks \(demo\)” were added/).waitFor();
     await expect(page.getByText(`You now have ${before + 10} credits available`).count()).resolves.toBe(1);
     await look(page, 'client-bought');
