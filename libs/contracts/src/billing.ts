@@ -53,7 +53,8 @@ export type CreditPrices = z.infer<typeof CreditPricesSchema>;
 export const StartCheckoutSchema = z.object({ packId: z.uuid({ message: 'must be a UUID' }) });
 export const CheckoutStartedSchema = z.object({ sessionId: z.string(), checkoutUrl: z.url() });
 export type CheckoutStarted = z.infer<typeof CheckoutStartedSchema>;
-export const SessionParamsSchema = z.object({ sessionId: z.string().regex(/^cs_[A-Za-z0-9_]{1,200}$/, 'is not a checkout id') });
+/** A checkout named by the payment service's session id (`cs_…`) or by our payment id (a UUID: the cancel address carries it). */
+export const SessionParamsSchema = z.object({ sessionId: z.string().regex(/^(cs_[A-Za-z0-9_]{1,200}|[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12})$/i, 'is not a checkout id') });
 
 /**
  * A payment's state: `open` (checkout started, nothing paid yet), `paid` (credits added),

@@ -11,6 +11,25 @@ export const BASE_URL = `http://127.0.0.1:${BROWSER_PORT}`;
 export const ARTIFACTS = join(ROOT, 'test', 'artifacts', 'browser');
 const DATABASE = 'ohmprint_browser';
 const PID_FILE = join(ROOT, '.data', 'run', 'api-browser-test.pid');
+const PAYMENT_PID_FILE = join(ROOT, '.data', 'run', 'payment-browser-test.pid');
+
+/** The stack's own local payment service on a free port, posting webhooks to the stack's API. */
+async function startPaymentService(env: NodeJS.ProcessEnv): Promise<string> {
+  const { openSync } = await import('node:fs');
+  const log = join(ROOT, '.data', 'logs', 'payment-browser-test.log');
+  const out = openSync(log, 'w');
+  const child = spawn('node', [join(ROOT, 'docker-free-scripts', 'payment-fake.mjs'), '0'], {
+    env: { ...env, PAYMENT_WEBHOOK_URL: `${BASE_URL}/api/payments/webhook` }, stdio: ['ignore', out, out], detached: true,
+  });
+  child.unref();
+  writeFileSync(PAYMENT_PID_FILE, String(child.pid));
+  for (let i = 0; i < 100; i++) {
+    const m = /payment fake on (http:\/\/127\.0\.0\.1:\d+)/.exec(readFileSync(log, 'utf8'));
+    if (m) return m[1];
+    await new Promise((r) => setTimeout(r, 200));
+  }
+  throw new Error(`the local payment service did not start; see ${log}`);
+}
 
 function secretsEnv(): Record<string, string> {
   const file = join(ROOT, '.data', 'secrets.env');
@@ -83,6 +102,9 @@ export async function startStack(): Promise<void> {
   const env = stackEnv();
   mkdirSync(join(ROOT, '.data', 'browser'), { recursive: true });
   await recreateDatabase(env);
+  mkdirSync(join(ROOT, '.data', 'logs'), { recursive: true });
+  mkdirSync(join(ROOT, '.data', 'run'), { recursive: true });
+  env.STRIPE_API_BASE = await startPaymentService(env);
   execFileSync('node', [join(ROOT, 'dist', 'api', 'apps', 'api', 'src', 'db', 'migrate.js')], { env, stdio: 'pipe' });
   execFileSync('node', [join(ROOT, 'dist', 'api', 'docker-free-scripts', 'seed', 'run.js')], { env, stdio: 'pipe' });
   const log = join(ROOT, '.data', 'logs', 'api-browser-test.log');
@@ -97,6 +119,13 @@ export async function startStack(): Promise<void> {
 }
 
 export function stopStack(): void {
+  if (existsSync(PAYMENT_PID_FILE)) {
+    try {
+      process.kill(Number(readFileSync(PAYMENT_PID_FILE, 'utf8')), 'SIGTERM');
+    } catch {
+      // already gone
+    }
+  }
   if (!existsSync(PID_FILE)) return;
   const pid = Number(readFileSync(PID_FILE, 'utf8'));
   try {

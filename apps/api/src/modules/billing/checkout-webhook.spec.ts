@@ -25,7 +25,8 @@ describe('buying a credit pack through the local payment service', () => {
     const session = await kit().sdk.checkout.sessions.retrieve(sessionId);
     expect(session).toMatchObject({ mode: 'payment', status: 'open', payment_status: 'unpaid', amount_total: 12500, currency: 'eur' });
     expect(session.metadata).toMatchObject({ ohmprint_pack_id: pack.id });
-    expect(session.success_url).toContain('/credits/bought?session=');
+    expect(session.success_url).toContain('/credits/bought?checkout={CHECKOUT_SESSION_ID}');
+    expect(session.cancel_url).toContain(`/credits/not-bought?checkout=${session.metadata?.ohmprint_payment_id}`);
     const items = await kit().sdk.checkout.sessions.listLineItems(sessionId);
     expect(items.data[0].price?.id).toBe(pack.paymentPriceId);
     const second = await checkout(t, pack.id);
@@ -147,8 +148,12 @@ describe('buying a credit pack through the local payment service', () => {
     const { sessionId, checkoutUrl } = await checkout(t, pack.id);
     const member = await request(t.app).post(`/api/client/credit-checkouts/${sessionId}/abandon`).set(await t.authFor('client-member'));
     expect(member.status).toBe(403);
-    const abandon = await request(t.app).post(`/api/client/credit-checkouts/${sessionId}/abandon`).set(await t.authFor('client-admin'));
+    // The cancel address names our payment (the hosted service fills the session id into the success address only).
+    const [{ id: paymentId }] = await t.db.query('SELECT id FROM payment WHERE checkout_session_id = $1', [sessionId]);
+    expect((await request(t.app).post(`/api/client/credit-checkouts/${paymentId}/abandon`).set(await t.authFor('client-admin', 'marlow'))).status).toBe(404);
+    const abandon = await request(t.app).post(`/api/client/credit-checkouts/${paymentId}/abandon`).set(await t.authFor('client-admin'));
     expect(abandon.status).toBe(200);
+    expect(abandon.body).toMatchObject({ sessionId, status: 'expired' });
     await waitForStatus(t, sessionId, 'expired');
     expect((await kit().sdk.checkout.sessions.retrieve(sessionId)).status).toBe('expired');
     const page = await (await fetch(checkoutUrl)).text();

@@ -59,8 +59,9 @@ export async function startCheckout(manager: EntityManager, scope: CreditScope, 
       client_reference_id: paymentId,
       metadata,
       payment_intent_data: { metadata },
-      success_url: `${base}/credits/bought?session={CHECKOUT_SESSION_ID}`,
-      cancel_url: `${base}/credits/not-bought?session={CHECKOUT_SESSION_ID}`,
+      // The hosted service fills in {CHECKOUT_SESSION_ID} in the success address only; going back names our payment.
+      success_url: `${base}/credits/bought?checkout={CHECKOUT_SESSION_ID}`,
+      cancel_url: `${base}/credits/not-bought?checkout=${paymentId}`,
     }, { idempotencyKey: `checkout:${paymentId}` });
     if (!session.url) throw new Error('the payment service answered a checkout without a URL');
     await manager.insert(PaymentRow, {
@@ -75,14 +76,22 @@ export async function startCheckout(manager: EntityManager, scope: CreditScope, 
 }
 
 /** The client walked away (cancel page): the checkout is expired so it cannot be paid later by accident. */
-export async function abandonCheckout(scope: CreditScope, manager: EntityManager, sessionId: string): Promise<void> {
-  const payment = await manager.findOne(PaymentRow, { where: { labId: scope.labId, clientOrganisationId: scope.clientOrganisationId, checkoutSessionId: sessionId } });
+export async function abandonCheckout(scope: CreditScope, manager: EntityManager, checkout: string): Promise<string> {
+  const where = { labId: scope.labId, clientOrganisationId: scope.clientOrganisationId };
+  const payment = await manager.findOne(PaymentRow, { where: checkout.startsWith('cs_') ? { ...where, checkoutSessionId: checkout } : { ...where, id: checkout } });
   if (!payment) throw ApiError.notFound('Checkout');
-  if (payment.status !== 'open' && payment.status !== 'declined') return;
+  const sessionId = payment.checkoutSessionId;
+  if (payment.status !== 'open' && payment.status !== 'declined') return sessionId;
+  let status: string | null;
   try {
     const session = await paymentService().checkout.sessions.retrieve(sessionId);
-    if (session.status === 'open') await paymentService().checkout.sessions.expire(sessionId);
+    status = session.status === 'open' ? (await paymentService().checkout.sessions.expire(sessionId)).status : session.status;
   } catch (err) {
     throw paymentServiceProblem(err, 'closing the checkout');
   }
+  // The payment service confirmed it: say so at once (its `expired` event then finds nothing to do).
+  if (status === 'expired') {
+    await manager.query(`UPDATE payment SET status = 'expired', updated_at = now() WHERE id = $1 AND status IN ('open', 'declined')`, [payment.id]);
+  }
+  return sessionId;
 }

@@ -54,11 +54,10 @@ export function clientBillingRouter(): Router {
     res.json(await checkoutStatus(dataSource.manager, scopeOf(res), (res.locals.params as { sessionId: string }).sessionId));
   });
 
-  route({ method: 'post', path: '/client/credit-checkouts/:sessionId/abandon', tag, summary: 'Close an unpaid checkout (the user went back without paying)',
+  route({ method: 'post', path: '/client/credit-checkouts/:sessionId/abandon', tag, summary: 'Close an unpaid checkout (the user went back without paying); named by session id or by our payment id',
     roles: ['client-admin'], params: SessionParamsSchema, response: CheckoutStatusSchema }, async (_req, res) => {
     const { sessionId } = res.locals.params as { sessionId: string };
-    await abandonCheckout(scopeOf(res), dataSource.manager, sessionId);
-    res.json(await checkoutStatus(dataSource.manager, scopeOf(res), sessionId));
+    res.json(await checkoutStatus(dataSource.manager, scopeOf(res), await abandonCheckout(scopeOf(res), dataSource.manager, sessionId)));
   });
 
   route({ method: 'get', path: '/client/ledger', tag, summary: 'Every movement of the organisation’s credits, with reason, reference, who and balances after',

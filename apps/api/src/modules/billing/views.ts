@@ -70,12 +70,12 @@ export async function labPayment(manager: EntityManager, labId: string, id: stri
 
 /** What the portal's "after paying" page polls: the checkout's state and the balance. */
 export async function checkoutStatus(manager: EntityManager, scope: CreditScope, sessionId: string): Promise<CheckoutStatus> {
-  const [row]: { status: CheckoutStatus['status']; credits: number; pack_name: string }[] = await manager.query(
-    'SELECT status, credits, pack_name FROM payment WHERE lab_id = $1 AND client_organisation_id = $2 AND checkout_session_id = $3',
+  const [row]: { checkout_session_id: string; status: CheckoutStatus['status']; credits: number; pack_name: string }[] = await manager.query(
+    `SELECT checkout_session_id, status, credits, pack_name FROM payment WHERE lab_id = $1 AND client_organisation_id = $2 AND ${sessionId.startsWith('cs_') ? 'checkout_session_id = $3' : 'id = $3::uuid'}`,
     [scope.labId, scope.clientOrganisationId, sessionId],
   );
   if (!row) throw ApiError.notFound('Checkout');
-  return { sessionId, status: row.status, credits: row.credits, packName: row.pack_name, balance: await creditBalance(manager, scope) };
+  return { sessionId: row.checkout_session_id, status: row.status, credits: row.credits, packName: row.pack_name, balance: await creditBalance(manager, scope) };
 }
 
 interface LedgerRow {

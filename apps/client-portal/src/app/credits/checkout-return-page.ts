@@ -68,14 +68,14 @@ export class CheckoutReturnPage implements OnInit {
   private readonly destroyRef = inject(DestroyRef);
   /** From the route's data. */
   readonly outcome = input<'bought' | 'not-bought'>('bought');
-  /** `?session=` from the payment page's return address. */
-  readonly session = input<string>('');
+  /** `?checkout=` from the payment page's return address: the session id after paying, our payment id after going back. */
+  readonly checkout = input<string>('');
   protected readonly status = signal<CheckoutStatus | null>(null);
   protected readonly view = signal<'waiting' | 'credited' | 'slow' | 'nothing' | 'unknown'>('waiting');
   protected readonly explain = signal('No money was taken and no credits were added.');
 
   ngOnInit(): void {
-    const session = this.session();
+    const session = this.checkout();
     if (!session) {
       this.view.set('unknown');
       return;

@@ -105,6 +105,7 @@ import { PackDialog } from './pack-dialog';
     .heading-row { display: flex; align-items: center; margin-bottom: 8px; }
     .actions { white-space: nowrap; text-align: right; }
     tr.retired td { color: var(--mat-sys-on-surface-variant); }
+    .ohm-status { white-space: nowrap; }
   `,
 })
 export class PricesPacksPage {
