@@ -13,10 +13,11 @@ async function authenticate(req: Request, res: Response): Promise<void> {
   const token = verifyAccessToken(match[1]);
   const account = await loadAccount(dataSource.manager, token.userId, token.familyId);
   if (!account) throw ApiError.unauthorized('The account of this access token no longer exists; sign in again.');
-  // Checked on every request, so a password reset or a revoked sign-in ends its tokens at once.
+  // A deactivated person or suspended lab is told why first; then, on every request, a password
+  // change or reset and a revoked sign-in end their tokens at once.
+  assertAccountMaySignIn(account);
   if (account.tokenVersion !== token.tokenVersion) throw ApiError.unauthorized('The password of this account was changed or reset since this token was issued; sign in again.');
   if (account.sessionEnded) throw ApiError.unauthorized('This sign-in has ended (signed out, or revoked after its token was used twice); sign in again.');
-  assertAccountMaySignIn(account);
   res.locals.auth = account.auth;
   res.locals.me = account.me;
 }
