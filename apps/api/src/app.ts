@@ -1,3 +1,4 @@
+import compression from 'compression';
 import cookieParser from 'cookie-parser';
 import express, { type Express } from 'express';
 import helmet from 'helmet';
@@ -40,6 +41,8 @@ export function createApp(): Express {
     }),
   );
   app.use(requestLogging);
+  // gzip runs in libuv's thread pool, not on the request thread; PDFs and images are already compressed.
+  app.use(compression());
 
   const api = express.Router();
   api.use(paymentWebhookRouter()); // raw body: before the JSON parser
