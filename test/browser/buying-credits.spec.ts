@@ -130,7 +130,9 @@ describe('the lab admin’s billing', () => {
     await look(page, 'lab-pack-dialog');
     await dialog.getByRole('button', { name: 'Save changes' }).click();
     await dialog.waitFor({ state: 'detached' });
-    const row = packs.getByRole('row').filter({ hasText: 'Single check (demo)' });
+    // the list reloads after the dialog closes: wait for the new price, then read the whole row
+    const row = packs.getByRole('row').filter({ hasText: 'Single check (demo)' }).filter({ hasText: '€52.00' });
+    await row.waitFor();
     await expect(row.textContent()).resolves.toMatch(/€52\.00.*On sale.*price_/s);
   });
 

@@ -77,7 +77,7 @@ const ICONS: Record<PaymentState, string> = { open: 'hourglass_top', paid: 'chec
           <ng-container matColumnDef="actions">
             <th mat-header-cell *matHeaderCellDef><span class="cdk-visually-hidden">Actions</span></th>
             <td mat-cell *matCellDef="let p">
-              @if (p.status === 'paid') {
+              @if (p.status === 'paid' && !p.isDemo) {
                 <button mat-button type="button" (click)="refund(p)" [attr.aria-label]="'Refund ' + p.receiptNumber">Refund</button>
               }
             </td>
