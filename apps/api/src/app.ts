@@ -6,6 +6,7 @@ import { resolve } from 'node:path';
 import { config } from './config';
 import { errorMiddleware, notFoundHandler } from './core/error-middleware';
 import { requestLogging } from './core/request-logging';
+import { paymentWebhookRouter } from './modules/billing/webhook.router';
 import { apiRoutes } from './modules/routes';
 import { openApiRouter } from './openapi/router';
 import { servePortals } from './serve-portals';
@@ -44,6 +45,7 @@ export function createApp(): Express {
   app.use(compression());
 
   const api = express.Router();
+  api.use(paymentWebhookRouter()); // raw body: before the JSON parser
   api.use(express.json({ limit: config.bodyLimit }));
   api.use(cookieParser());
   api.use(openApiRouter());

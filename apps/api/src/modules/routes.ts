@@ -15,6 +15,7 @@ import { signingCredentialRouter } from './reports/signing/signing-credential.ro
 import { verificationRouter } from './verification/verification.router';
 import { samplesRouter } from './samples/router';
 import { intakeRouter } from './intake/router';
+import { intakeLimitsRouter } from './intake/intake-limits.router';
 import { custodyRouter } from './custody/router';
 import { measurementsRouter } from './measurements/router';
 import { instrumentKeysRouter } from './instrument-keys/router';
@@ -22,6 +23,8 @@ import { librariesRouter } from './libraries/router';
 import { analysesRouter } from './analyses/router';
 import { reviewsRouter } from './reviews/router';
 import { clientOrdersRouter } from './orders/router';
+import { clientBillingRouter } from './billing/client-billing.router';
+import { labBillingRouter } from './billing/lab-billing.router';
 
 /** Every feature's router, one line each. Paths are under /api. */
 export function apiRoutes(): Router {
@@ -42,6 +45,7 @@ export function apiRoutes(): Router {
   api.use('/public/verify', verificationRouter());
   api.use('/lab', samplesRouter());
   api.use('/lab', intakeRouter());
+  api.use(intakeLimitsRouter());
   api.use(custodyRouter());
   api.use('/lab', measurementsRouter());
   api.use('/lab', instrumentKeysRouter());
@@ -49,5 +53,7 @@ export function apiRoutes(): Router {
   api.use('/lab', analysesRouter());
   api.use('/lab', reviewsRouter());
   api.use(clientOrdersRouter());
+  api.use(clientBillingRouter());
+  api.use(labBillingRouter());
   return api;
 }
