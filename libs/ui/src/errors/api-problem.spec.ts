@@ -15,6 +15,14 @@ describe('ApiProblem.from', () => {
     expect(problem.summary).toBe('Invalid request: check the highlighted fields.');
   });
 
+  it('keeps the problem’s extension members for the screen that acts on them', () => {
+    const problem = ApiProblem.from(
+      new HttpErrorResponse({ status: 409, error: { type: 'urn:ohmprint:problem:other-sample', title: 'A file names another sample', status: 409, problem: 'other-sample', namedCode: 'OP-8MJA-4T' } }),
+    );
+    expect(problem.members).toMatchObject({ problem: 'other-sample', namedCode: 'OP-8MJA-4T' });
+    expect(ApiProblem.from(new Error('x')).members).toEqual({});
+  });
+
   it('prefers the detail sentence when there is one', () => {
     const problem = ApiProblem.from(
       new HttpErrorResponse({ status: 403, error: { type: 'about:blank', title: 'Forbidden', status: 403, detail: 'This lab is suspended; contact the platform operator.' } }),

@@ -11,6 +11,8 @@ export class ApiProblem extends Error {
     readonly title: string,
     readonly detail: string | undefined,
     readonly fieldErrors: readonly FieldError[] = [],
+    /** The whole problem document, extension members included (e.g. `{ problem: 'other-sample' }`). */
+    readonly members: Readonly<Record<string, unknown>> = {},
   ) {
     super(detail ?? title);
     this.name = 'ApiProblem';
@@ -33,7 +35,7 @@ export class ApiProblem extends Error {
     const parsed = ProblemSchema.safeParse(error.error);
     if (parsed.success) {
       const p = parsed.data;
-      return new ApiProblem(p.status, p.title, p.detail, p.errors ?? []);
+      return new ApiProblem(p.status, p.title, p.detail, p.errors ?? [], p);
     }
     return new ApiProblem(error.status, fallbackTitle(error.status), `The server answered ${error.status} ${error.statusText || ''}`.trim() + '.');
   }

@@ -39,6 +39,21 @@ describe('VerifyPage', () => {
     http.verify();
   });
 
+  it('names the revoked report a valid one follows, after the sample was analysed again', async () => {
+    const { fixture, http, el } = render({ report: 'CAL-2026-000124', code: 'ABCD-EFGH-JKMN' });
+    http.expectOne((r) => r.url === '/api/public/verify').flush({
+      outcome: 'valid',
+      message: 'Report CAL-2026-000124 was issued by Calder Analytical and is in force.',
+      report: { number: 'CAL-2026-000124', lab: 'Calder Analytical', issuedAt: '2026-12-02T10:00:00.000Z', productName: 'Ridgeline Red (demo)', sampleCode: 'OP-7K3M-Q9', verdict: 'consistent', followsRevoked: 'CAL-2026-000123' },
+      supersededBy: null,
+      revocation: null,
+      file: null,
+    });
+    await fixture.whenStable();
+    expect(el.querySelector('.facts')?.textContent).toContain('Followsrevoked report CAL-2026-000123 (the sample was analysed again)');
+    http.verify();
+  });
+
   it('says what is wrong with a mistyped code without asking the server', async () => {
     const { fixture, http, el } = render({});
     const inputs = el.querySelectorAll<HTMLInputElement>('input[matinput]');

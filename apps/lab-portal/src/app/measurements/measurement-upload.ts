@@ -8,7 +8,6 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatRadioModule } from '@angular/material/radio';
 import { MatSelectModule } from '@angular/material/select';
-import { HttpErrorResponse } from '@angular/common/http';
 import { SAMPLE_CODE_PATTERN, type MeasurementUploadFields, type RejectedFile, type Replicate, type UploadConfirmation } from '@ohmprint/contracts';
 import { readExportMetadata, type ExportMetadata } from '@ohmprint/spectral-engine';
 import { RouterLink } from '@angular/router';
@@ -186,8 +185,8 @@ export class MeasurementUpload {
 
 /** The confirmation a refusal asks for: a file naming another sample, or a typed temperature far from the file's. */
 function confirmationAsked(e: unknown): UploadConfirmation['about'] | null {
-  const body = e instanceof HttpErrorResponse ? (e.error as { problem?: unknown } | null) : null;
-  if (body?.problem === 'other-sample') return 'sample-code';
-  if (body?.problem === 'temperature-mismatch') return 'temperature';
+  const problem = ApiProblem.from(e).members['problem'];
+  if (problem === 'other-sample') return 'sample-code';
+  if (problem === 'temperature-mismatch') return 'temperature';
   return null;
 }
