@@ -50,7 +50,10 @@ async function api<T>(email: string, path: string, init: RequestInit = {}): Prom
   return (res.status === 204 ? undefined : await res.json()) as T;
 }
 
-const credits = () => api<{ available: number; reserved: number }>(CLIENT_ADMIN, '/api/client/order-prices');
+async function credits(): Promise<{ available: number; reserved: number }> {
+  const { available, reserved } = await api<{ available: number; reserved: number }>(CLIENT_ADMIN, '/api/client/order-prices');
+  return { available, reserved };
+}
 
 /** Buying is the billing pages' job: the demo producer gets its credits straight through the ledger core. */
 async function giveCredits(amount: number): Promise<void> {
