@@ -35,8 +35,9 @@ export class EnrolmentPage {
   private readonly notifier = inject(Notifier);
   protected readonly fields = CHEMISTRY_FIELD_NAMES;
   protected readonly chemistryInfo = CHEMISTRY_FIELDS;
+  private readonly products = inject(ProductsData);
   protected readonly product = toSignal(
-    toObservable(this.id).pipe(switchMap((id) => inject(ProductsData).all().pipe(map((all) => all.find((p) => p.id === id) ?? null), catchError(() => of(null))))),
+    toObservable(this.id).pipe(switchMap((id) => this.products.all().pipe(map((all) => all.find((p) => p.id === id) ?? null), catchError(() => of(null))))),
   );
   protected readonly prices = toSignal(this.orders.prices().pipe(catchError(() => of(null))));
   protected readonly lots = new FormArray([this.lotGroup()]);
