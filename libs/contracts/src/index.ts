@@ -14,4 +14,5 @@ export * from './lab-profile';
 export * from './audit-log';
 export * from './lab';
 export * from './lab/reports';
+export * from './billing';
 export * from './notifications';
