@@ -38,12 +38,17 @@ afterAll(async () => {
 async function look(page: Page, name: string): Promise<void> {
   await page.waitForLoadState('networkidle');
   await page.waitForFunction(() => !document.querySelector('mat-progress-bar[mode="indeterminate"]'));
+  // the portals scroll inside the shell: grow the window to the tallest scrolling area for the picture
+  const size = page.viewportSize() ?? { width: 1280, height: 900 };
+  const tallest = await page.evaluate(() => Math.max(...Array.from(document.querySelectorAll('*'), (e) => (e.scrollHeight > e.clientHeight + 1 ? e.scrollHeight : 0)), 0));
+  await page.setViewportSize({ width: size.width, height: Math.min(4000, Math.max(size.height, tallest + 80)) });
   for (const scheme of ['light', 'dark'] as const) {
     await page.emulateMedia({ colorScheme: scheme });
     findings.push(...(await accessibilityFindings(page, `${name} (${scheme})`)));
     await screenshot(page, `lab-settings-${name}-${scheme}`);
   }
   await page.emulateMedia({ colorScheme: 'light' });
+  await page.setViewportSize(size);
 }
 
 /** A wide logo as a PNG: drawn with pdfkit, rasterised with pdftoppm. */

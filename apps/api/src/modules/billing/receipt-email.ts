@@ -2,6 +2,7 @@ import type { EntityManager } from 'typeorm';
 import { formatMoney } from '@ohmprint/contracts';
 import { config } from '../../config';
 import { enqueueEmail } from '../mail/enqueue-email';
+import { notifyClientOrganisation } from '../notifications/notify-client-organisation';
 import type { PaymentRow } from './payment.entity';
 
 const esc = (s: string): string => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c] as string);
@@ -16,8 +17,8 @@ export async function enqueueReceipt(manager: EntityManager, payment: PaymentRow
   const [info]: { lab_name: string; legal_name: string; address: string; client_name: string; payer_email: string | null; payer_name: string | null; contact: string | null; receipt_no: string }[] =
     await manager.query(
       `SELECT l.name AS lab_name, l.legal_name, l.address, co.name AS client_name, u.email AS payer_email, u.display_name AS payer_name, p.receipt_no,
-              (SELECT a.email FROM lab_role_membership r JOIN app_user a ON a.id = r.user_id
-                WHERE r.lab_id = l.id AND r.role = 'lab-admin' AND a.status = 'active' ORDER BY a.created_at, a.id LIMIT 1) AS contact
+              COALESCE(NULLIF(l.contact_email, ''), (SELECT a.email FROM lab_role_membership r JOIN app_user a ON a.id = r.user_id
+                WHERE r.lab_id = l.id AND r.role = 'lab-admin' AND a.status = 'active' ORDER BY a.created_at, a.id LIMIT 1)) AS contact
        FROM payment p JOIN lab l ON l.id = p.lab_id JOIN client_organisation co ON co.id = p.client_organisation_id
        LEFT JOIN app_user u ON u.id = p.started_by_user_id
        WHERE p.id = $1`,
@@ -56,5 +57,17 @@ export async function enqueueReceipt(manager: EntityManager, payment: PaymentRow
 <p><a href="${esc(link)}">Your payments and receipts</a></p>
 <p>${esc(contact)}<br>${esc(info.legal_name)}, ${esc(info.address.replace(/\n/g, ', '))}</p>
 </body></html>`;
-  await enqueueEmail(manager, { labId: payment.labId, to: info.payer_email, subject: `Receipt ${number} from ${info.lab_name}: ${payment.credits} test credits`, text, html });
+  const subject = `Receipt ${number} from ${info.lab_name}: ${payment.credits} test credits`;
+  // "reply to" must reach a person: the reply goes to the lab's contact, not the no-reply sender
+  await enqueueEmail(manager, { labId: payment.labId, to: info.payer_email, subject, text, html, replyTo: info.contact });
+  // the organisation's admins also see it in the portal's notifications (the e-mail above is the receipt)
+  await notifyClientOrganisation(manager, {
+    labId: payment.labId,
+    clientOrganisationId: payment.clientOrganisationId,
+    event: 'payment-received',
+    subject,
+    text: `${info.lab_name} received ${amount} for ${payment.packName} (${payment.credits} test credit${payment.credits === 1 ? '' : 's'}). Available credits now: ${balanceAfter}.`,
+    link: '/credits/payments',
+    inAppOnly: true,
+  });
 }

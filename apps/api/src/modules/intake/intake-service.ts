@@ -49,7 +49,7 @@ export async function recordArrival(manager: EntityManager, auth: AuthContext, l
     event: 'sample-received',
     subject: `Sample ${sample.code} has arrived at ${order.labName}`,
     text: [
-      `${order.labName} received sample ${sample.code} (${order.productName}) for ${order.clientName} on ${arrivedAt.toISOString().slice(0, 10)}.`,
+      `${order.labName} received sample ${sample.code} (${order.productName}) for ${order.clientName} on ${arrivedAt.toLocaleDateString('en-GB', { day: 'numeric', month: 'long', year: 'numeric', timeZone: 'UTC' })}.`,
       'The lab checks its condition next; you will hear again when it is accepted for testing or if it cannot be.',
     ].join('\n\n'),
     link: `/orders/${sample.orderId}`,
@@ -147,7 +147,7 @@ export async function rejectSample(manager: EntityManager, auth: AuthContext, la
     text: [
       `${order.labName} received sample ${sample.code} (${order.productName}) for ${order.clientName} but could not accept it for testing.`,
       `Reason: ${body.reason}`,
-      'No test will be run on this sample, and the credits held for it are back in your balance. Contact the lab (details below) to arrange a replacement.',
+      `No test will be run on this sample, and the credits held for it are back in your balance. Contact ${order.labName} to arrange a replacement.`,
     ].join('\n\n'),
     link: `/orders/${sample.orderId}`,
   });

@@ -95,6 +95,17 @@ describe('notifyClientOrganisation', () => {
     expect(await trail('X1')).toEqual({ mails: [], rows: [] });
   });
 
+  it('writes the in-app rows only when the caller sends its own e-mail (a receipt to the payer)', async () => {
+    const { labId, hollin } = await ids();
+    const result = await t.db.transaction((manager) =>
+      notifyClientOrganisation(manager, { labId, clientOrganisationId: hollin, event: 'payment-received', subject: 'Drill IA1', text: 'x', inAppOnly: true }),
+    );
+    expect(result.emailed).toEqual([]);
+    const { mails, rows } = await trail('IA1');
+    expect(mails).toEqual([]);
+    expect(rows.map((r) => r.email)).toEqual(['admin@hollinridge.test']);
+  });
+
   it('writes nothing when the caller’s transaction rolls back', async () => {
     const { labId, hollin } = await ids();
     await expect(

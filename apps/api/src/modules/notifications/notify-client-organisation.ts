@@ -32,6 +32,8 @@ export interface OrganisationNotice {
   html?: string;
   /** A client-portal path such as `/orders/<id>` or `/reports`; null when there is nothing to open. */
   link?: string | null;
+  /** In-app rows only, no e-mail: for an event whose e-mail the caller sends itself (a receipt to the payer). */
+  inAppOnly?: boolean;
 }
 
 export interface NotifiedRecipients {
@@ -68,7 +70,7 @@ export async function notifyClientOrganisation(manager: EntityManager, notice: O
 
   const lab = await labSender(manager, labId);
   const mail = composeLabEmail(lab, { subject: notice.subject, text: notice.text, html: notice.html, link: notice.link ?? null });
-  for (const to of addresses) {
+  for (const to of notice.inAppOnly ? [] : addresses) {
     await enqueueEmail(manager, { labId, to, subject: mail.subject, text: mail.text, html: mail.html, replyTo: lab.contactEmail || null });
   }
   if (users.length) {
@@ -77,5 +79,5 @@ export async function notifyClientOrganisation(manager: EntityManager, notice: O
       users.map((u) => ({ labId, clientOrganisationId, userId: u.id, event: notice.event, subject: notice.subject, body: notice.text.trim(), link: notice.link ?? null, readAt: null })),
     );
   }
-  return { emailed: addresses, userIds: users.map((u) => u.id) };
+  return { emailed: notice.inAppOnly ? [] : addresses, userIds: users.map((u) => u.id) };
 }

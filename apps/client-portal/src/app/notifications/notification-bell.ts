@@ -24,7 +24,7 @@ const POLL_MS = 60_000;
       [matTooltip]="label()"
       class="bell"
     >
-      <mat-icon [matBadge]="badge()" [matBadgeHidden]="!badge()" matBadgeSize="small">{{ unread() ? 'notifications_active' : 'notifications' }}</mat-icon>
+      <mat-icon [matBadge]="badge()" [matBadgeHidden]="!badge()" matBadgeSize="medium">{{ unread() ? 'notifications_active' : 'notifications' }}</mat-icon>
     </a>
   `,
   styles: `

@@ -34,7 +34,7 @@ import { LabSettingsData } from './lab-settings-data';
       <section class="card" aria-labelledby="upload-heading">
         <h2 id="upload-heading">Upload the lab's certificate</h2>
         <p class="ohm-muted">A PKCS#12 file (.p12 or .pfx) holding the private key and its certificate, with its passphrase. The file is checked before anything changes: a wrong passphrase, a certificate out of date or a file without a key is refused and the current certificate stays.</p>
-        <form (ngSubmit)="upload()" class="upload">
+        <form (submit)="upload($event)" class="upload" aria-label="Upload a signing certificate">
           <label class="file">
             <span class="label">PKCS#12 file</span>
             <input type="file" accept=".p12,.pfx,application/x-pkcs12" (change)="picked($event)" aria-describedby="file-state" />
@@ -81,7 +81,8 @@ export class SigningCertificatePage {
     this.problem.set(null);
   }
 
-  protected upload(): void {
+  protected upload(event: Event): void {
+    event.preventDefault();
     const file = this.file();
     if (!file) return;
     this.busy.set(true);
