@@ -19,6 +19,7 @@ export const routes: Routes = [
       { path: 'samples', loadChildren: () => import('./samples/samples.routes') },
       { path: 'reviews', canActivate: [roleGuard('reviewer')], loadChildren: () => import('./reviews/reviews.routes') },
       { path: 'reports', canActivate: [roleGuard('reviewer', 'lab-admin', 'analyst')], loadChildren: () => import('./reports/reports.routes') },
+      { path: 'libraries', canActivate: [roleGuard('analyst', 'reviewer', 'lab-admin')], loadChildren: () => import('./libraries/libraries.routes') },
       { path: 'instrument-keys', canActivate: [roleGuard('lab-admin')], loadChildren: () => import('./instrument-keys/instrument-keys.routes') },
       { path: '**', title: 'Not found · Ohmprint lab', component: NotFoundPage },
     ],
