@@ -57,7 +57,7 @@ const STATUS_ICON: Record<string, string> = { draft: 'edit_note', published: 've
                   <div class="start">
                     <mat-form-field subscriptSizing="dynamic">
                       <mat-label>Method version</mat-label>
-                      <mat-select [(ngModel)]="choice[p.productId]" [attr.aria-label]="'Method version for ' + p.name">
+                      <mat-select [(ngModel)]="choice[p.productId]">
                         @for (m of methodsFor(p); track m.id) { @for (v of m.versions; track v.id) { <mat-option [value]="v.id">{{ m.name }} v{{ v.version }}</mat-option> } }
                       </mat-select>
                     </mat-form-field>
