@@ -26,6 +26,7 @@ export const routes: Routes = [
       { path: 'reviews', canActivate: [roleGuard('reviewer')], loadChildren: () => import('./reviews/reviews.routes') },
       { path: 'reports', canActivate: [roleGuard('reviewer', 'lab-admin', 'analyst')], loadChildren: () => import('./reports/reports.routes') },
       { path: 'lab-settings', canActivate: [roleGuard('lab-admin')], loadChildren: () => import('./lab-settings/lab-settings.routes') },
+      { path: 'libraries', canActivate: [roleGuard('analyst', 'reviewer', 'lab-admin')], loadChildren: () => import('./libraries/libraries.routes') },
       { path: 'instrument-keys', canActivate: [roleGuard('lab-admin')], loadChildren: () => import('./instrument-keys/instrument-keys.routes') },
       { path: 'bench', canActivate: [roleGuard('intake-technician', 'analyst', 'reviewer', 'lab-admin')], loadChildren: () => import('./bench/bench.routes') },
       { path: 'validation', canActivate: [roleGuard('lab-admin', 'analyst', 'reviewer')], loadChildren: () => import('./validation/validation.routes') },

@@ -7,6 +7,8 @@ export const LAB_NAV: readonly NavItem[] = [
   { label: 'Receive samples', icon: 'qr_code_scanner', path: '/intake', roles: ['intake-technician'] },
   { label: 'Reviews', icon: 'rate_review', path: '/reviews', roles: ['reviewer'] },
   { label: 'Reports', icon: 'description', path: '/reports', roles: ['reviewer', 'lab-admin', 'analyst'] },
+  { label: 'Reference libraries', icon: 'library_books', path: '/libraries', exact: true, roles: ['analyst', 'reviewer', 'lab-admin'] },
+  { label: 'Methods', icon: 'tune', path: '/libraries/methods', roles: ['analyst', 'reviewer', 'lab-admin'] },
   { label: 'Intake limits', icon: 'device_thermostat', path: '/intake-limits', roles: ['lab-admin'] },
   { label: 'Instruments and cells', icon: 'science', path: '/bench', roles: ['intake-technician', 'analyst', 'reviewer', 'lab-admin'] },
   { label: 'Method validation', icon: 'fact_check', path: '/validation', roles: ['lab-admin', 'analyst', 'reviewer'] },

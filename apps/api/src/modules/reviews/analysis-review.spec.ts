@@ -21,9 +21,11 @@ describe('analysis', () => {
     const r = res.body.result;
     expect(r.verdict).toBe('not-consistent');
     expect(r.nearest.distance).toBeGreaterThan(r.t99);
-    expect(r.distances).toHaveLength(12);
-    expect(r.map.lots).toHaveLength(12);
-    expect(r.histogram.counts.reduce((a: number, b: number) => a + b, 0)).toBe(12);
+    // Ridgeline Red's newest demo version holds 80 lots; the map shows the sample's 59 nearest.
+    expect(r.distances).toHaveLength(80);
+    expect(r.map.lots).toHaveLength(59);
+    expect(r.histogram.counts.reduce((a: number, b: number) => a + b, 0)).toBe(80);
+    expect(r.thresholds).toMatchObject({ estimator: 'lognormal-ml', lotCount: 80, resamples: 2000 });
     expect(r.fit.parameters.map((p: { name: string }) => p.name)).toEqual(['rInf', 'r0', 'tau', 'alpha']);
     expect(r.fit.parameters.map((p: { description: string }) => p.description)).toEqual([
       'High-frequency resistance R∞',
@@ -113,7 +115,7 @@ describe('client orders', () => {
     expect((await request(t.app).get(`/api/client/orders/${milkOrder.order_id}`).set(client)).status).toBe(404);
     const products = await request(t.app).get('/api/client/products').set(client);
     expect(products.body.items.map((p: { name: string }) => p.name)).toEqual(['Hollin Dry White (demo)', 'Ridgeline Red (demo)']);
-    expect(products.body.items[1].publishedLibraryVersion).toMatchObject({ version: 1, lotCount: 12 });
+    expect(products.body.items[1].publishedLibraryVersion).toMatchObject({ version: 2, lotCount: 80 });
   });
 });
 
