@@ -46,7 +46,7 @@ async function recordRun(page: Page, file: string): Promise<void> {
   await page.getByLabel('Temperature of the standard').fill('25');
   await page.locator('input[type=file]').setInputFiles(file);
   await page.getByRole('button', { name: 'Record run' }).click();
-  await page.getByText(/^Run recorded/).waitFor();
+  await page.getByText(/Run recorded: K =/).first().waitFor();
 }
 
 describe('control standards and method validation', () => {
@@ -92,6 +92,9 @@ describe('control standards and method validation', () => {
     await page.getByRole('tab', { name: 'Repeatability' }).click();
     await page.getByRole('img', { name: /^Histogram/ }).waitFor();
     await look(page, 'repeatability');
+    await page.getByRole('combobox', { name: 'Library version' }).click();
+    await page.getByRole('option', { name: /^Ridgeline Red/ }).click();
+    await page.getByRole('table', { name: 'Correlation of fitted parameters with chemistry' }).waitFor();
     await page.getByRole('tab', { name: 'Detection study' }).click();
     await page.getByText(/Lowest level reliably detected/).first().waitFor();
     await look(page, 'detection');
