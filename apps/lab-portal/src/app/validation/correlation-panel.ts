@@ -29,7 +29,7 @@ const fmt = (v: number) => (Math.abs(v) >= 1e4 || (Math.abs(v) < 1e-2 && v !== 0
                 @for (f of s.chemistry; track f.field) {
                   @let c = cellOf(p.name, f.field);
                   <td [style.background]="colour(c.r)">
-                    <button type="button" [title]="hover(c)" [attr.aria-label]="hover(c)" [attr.aria-pressed]="chosen()?.parameter === p.name && chosen()?.chemistry === f.field" (click)="choose(c)">
+                    <button type="button" [title]="hover(c)" [attr.aria-pressed]="chosen()?.parameter === p.name && chosen()?.chemistry === f.field" (click)="choose(c)">
                       <span class="value">{{ c.r === null ? '–' : c.r.toFixed(2) }} <small>n={{ c.n }}</small></span>
                     </button>
                   </td>
