@@ -9,6 +9,7 @@ import { DEMO_PASSWORD } from './accounts-demo-data';
 import { demoAccountsTable } from './demo-accounts-table';
 import { seedLabDemo } from './lab-demo';
 import { seedValidationDemo } from './validation-demo';
+import { seedBillingDemo } from './billing-demo';
 
 /** `npm run db:seed`: the invented demo, idempotent. Each part is one line here. */
 async function seed(): Promise<void> {
@@ -18,6 +19,7 @@ async function seed(): Promise<void> {
     await dataSource.transaction((manager) => seedAccounts(manager, passwordHash));
     await dataSource.transaction((manager) => seedLabDemo(manager));
     await dataSource.transaction((manager) => seedValidationDemo(manager));
+    await dataSource.transaction((manager) => seedBillingDemo(manager));
     mkdirSync(config.dataDir, { recursive: true });
     writeFileSync(join(config.dataDir, 'demo-accounts.txt'), demoAccountsTable(config.publicBaseUrl));
     logger.info('demo seed complete');

@@ -4,3 +4,4 @@ export { demoEmail, DEMO_PASSWORD, type DemoLabKey } from './demo-accounts';
 export { readMailbox, clearMailbox, type CaughtMail } from './mailbox';
 export { latestEmailTo, linkToken } from './outbox';
 export { analyseDemoSample, measureDemoSample, type MeasuredDemoSample } from './demo-workflow';
+export { startLocalPaymentService, eventually, type LocalPaymentService } from './payment-service';

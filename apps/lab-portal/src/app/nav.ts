@@ -9,8 +9,10 @@ export const LAB_NAV: readonly NavItem[] = [
   { label: 'Reports', icon: 'description', path: '/reports', roles: ['reviewer', 'lab-admin', 'analyst'] },
   { label: 'Instruments and cells', icon: 'science', path: '/bench', roles: ['intake-technician', 'analyst', 'reviewer', 'lab-admin'] },
   { label: 'Method validation', icon: 'fact_check', path: '/validation', roles: ['lab-admin', 'analyst', 'reviewer'] },
+  { label: 'Intake limits', icon: 'device_thermostat', path: '/intake-limits', roles: ['lab-admin'] },
   { label: 'Instrument keys', icon: 'key', path: '/instrument-keys', roles: ['lab-admin'] },
   { label: 'Staff', icon: 'group', path: '/staff', roles: ['lab-admin'] },
+  { label: 'Billing', icon: 'payments', path: '/billing', roles: ['lab-admin'] },
   { label: 'Client organisations', icon: 'storefront', path: '/clients', roles: ['lab-admin'] },
   { label: 'Labs', icon: 'domain', path: '/labs', roles: ['platform-operator'] },
 ];

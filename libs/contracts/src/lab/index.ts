@@ -13,3 +13,4 @@ export * from './analyses';
 export * from './reviews';
 export * from './chemistry';
 export * from './validation';
+export * from './intake-limits';
