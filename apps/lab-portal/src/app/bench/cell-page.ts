@@ -68,7 +68,7 @@ const STANDARDS = [
               <input matInput type="number" step="0.1" formControlName="temperatureC" required /><span matTextSuffix>°C</span>
             </mat-form-field>
             <mat-form-field>
-              <mat-label>Certificate value at 25 °C (optional)</mat-label>
+              <mat-label>Certificate κ at 25 °C (optional)</mat-label>
               <input matInput type="number" step="0.01" formControlName="certified" /><span matTextSuffix>µS/cm</span>
             </mat-form-field>
           </div>

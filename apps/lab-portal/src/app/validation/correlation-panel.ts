@@ -25,12 +25,12 @@ const fmt = (v: number) => (Math.abs(v) >= 1e4 || (Math.abs(v) < 1e-2 && v !== 0
           <tbody>
             @for (p of s.parameters; track p.name) {
               <tr>
-                <th scope="row">{{ p.name }}@if (p.unit) { <small>({{ p.unit }})</small> }</th>
+                <th scope="row">{{ p.name }}@if (p.unit) {&nbsp;<small>({{ p.unit }})</small>}</th>
                 @for (f of s.chemistry; track f.field) {
                   @let c = cellOf(p.name, f.field);
-                  <td [style.background]="colour(c.r)" [class.strong]="c.r !== null && abs(c.r) > 0.55">
+                  <td [style.background]="colour(c.r)">
                     <button type="button" [title]="hover(c)" [attr.aria-pressed]="chosen()?.parameter === p.name && chosen()?.chemistry === f.field" (click)="choose(c)">
-                      {{ c.r === null ? '–' : c.r.toFixed(2) }}<span class="n">n={{ c.n }}</span>
+                      <span class="value">{{ c.r === null ? '–' : c.r.toFixed(2) }} <small>n={{ c.n }}</small></span>
                     </button>
                   </td>
                 }
@@ -61,11 +61,11 @@ const fmt = (v: number) => (Math.abs(v) >= 1e4 || (Math.abs(v) < 1e-2 && v !== 0
     .heat th { font: var(--mat-sys-label-large); padding: 4px 8px; text-align: center; }
     .heat th[scope=row] { text-align: right; }
     .heat td { padding: 0; border-radius: 4px; }
-    .heat td button { all: unset; box-sizing: border-box; display: flex; flex-direction: column; align-items: center; min-width: 84px; padding: 6px 8px; cursor: pointer; color: #1d2526; font: var(--mat-sys-body-medium); }
-    .heat td.strong button { color: #ffffff; }
+    .heat td button { all: unset; box-sizing: border-box; display: flex; justify-content: center; min-width: 96px; padding: 8px; cursor: pointer; font: var(--mat-sys-body-medium); }
+    /* the numbers sit on a surface-coloured label, so they read on every shade of the scale */
+    .heat .value { padding: 1px 6px; border-radius: 4px; background: var(--mat-sys-surface); color: var(--mat-sys-on-surface); }
     .heat td button:focus-visible { outline: 3px solid var(--mat-sys-primary); outline-offset: 1px; }
     .heat td button[aria-pressed=true] { outline: 3px solid var(--mat-sys-on-surface); }
-    .n { font-size: 11px; opacity: 0.9; }
     figure { margin: 0; }
     svg { width: 420px; max-width: 100%; height: auto; font: 11px Inter, sans-serif; }
     .frame { fill: none; stroke: var(--mat-sys-outline); }
@@ -80,13 +80,12 @@ export class CorrelationPanel {
   protected readonly sh = SH;
   protected readonly pad = P;
   protected readonly chosen = signal<CorrelationCell | null>(null);
-  protected readonly abs = Math.abs;
 
   protected cellOf(parameter: string, chemistry: string): CorrelationCell {
     return this.study().cells.find((c) => c.parameter === parameter && c.chemistry === chemistry) ?? { parameter, chemistry, r: null, p: null, n: 0 };
   }
 
-  /** Diverging teal (positive) / red (negative) over white, stronger with |r|. */
+  /** Diverging teal (positive) / red (negative) over near-white, stronger with |r|: a data scale, the same in both schemes. */
   protected colour(r: number | null): string {
     if (r === null) return 'var(--mat-sys-surface-container-high)';
     const t = Math.min(1, Math.abs(r));

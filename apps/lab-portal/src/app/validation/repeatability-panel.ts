@@ -19,9 +19,14 @@ const num = (v: number | null) => (v === null ? '–' : v.toPrecision(3));
     </dl>
     @if (layout(); as l) {
       <svg role="img" [attr.viewBox]="'0 0 ' + w + ' ' + h" [attr.aria-label]="'Histogram: ' + r.within.count + ' replicate distances and ' + r.between.count + ' lot distances on a log scale'">
+ <defs>
+          <pattern id="ohm-between-hatch" width="6" height="6" patternUnits="userSpaceOnUse" patternTransform="rotate(45)">
+            <rect class="hatch-bg" width="6" height="6" /><line class="hatch" x1="0" y1="0" x2="0" y2="6" />
+          </pattern>
+        </defs>
         <rect class="frame" [attr.x]="pad.left" [attr.y]="pad.top" [attr.width]="w - pad.left - pad.right" [attr.height]="h - pad.top - pad.bottom" />
         @for (b of l.bars; track $index) {
-          <rect [class]="b.kind" [attr.x]="b.x" [attr.y]="b.y" [attr.width]="b.w" [attr.height]="b.h"><title>{{ b.title }}</title></rect>
+          <rect [class]="'bar ' + b.kind" [attr.x]="b.x" [attr.y]="b.y" [attr.width]="b.w" [attr.height]="b.h"><title>{{ b.title }}</title></rect>
         }
         @for (t of l.ticks; track $index) { <text class="tick" [attr.x]="t.x" [attr.y]="h - pad.bottom + 14" text-anchor="middle">{{ t.text }}</text> }
         <text class="tick" [attr.x]="pad.left - 4" [attr.y]="pad.top + 10" text-anchor="end">{{ l.max }}</text>
@@ -42,12 +47,14 @@ const num = (v: number | null) => (v === null ? '–' : v.toPrecision(3));
     svg { width: 100%; max-width: 900px; height: auto; font: 11px Inter, sans-serif; }
     .frame { fill: none; stroke: var(--mat-sys-outline); }
     .tick, .axis { fill: var(--mat-sys-on-surface-variant); }
-    .within { fill: var(--mat-sys-primary); }
-    .between { fill: var(--mat-sys-tertiary); fill-opacity: 0.75; }
+    .bar.within { fill: var(--mat-sys-primary); }
+    .bar.between { fill: url(#ohm-between-hatch); }
+    .hatch-bg { fill: var(--mat-sys-tertiary); }
+    .hatch { stroke: var(--mat-sys-surface); stroke-width: 2; }
     .legend { display: flex; gap: 14px; align-items: center; font: var(--mat-sys-body-small); color: var(--mat-sys-on-surface-variant); }
     .key { display: inline-block; width: 12px; height: 12px; margin-right: -8px; }
     .key.within { background: var(--mat-sys-primary); }
-    .key.between { background: var(--mat-sys-tertiary); opacity: 0.75; }
+    .key.between { background: repeating-linear-gradient(45deg, var(--mat-sys-tertiary) 0 3px, var(--mat-sys-surface) 3px 5px); }
   `,
 })
 export class RepeatabilityPanel {
@@ -75,7 +82,12 @@ export class RepeatabilityPanel {
       ];
     });
     const ticks = [];
-    for (let e = Math.ceil(lo); e <= Math.floor(hi); e++) ticks.push({ x: X(10 ** e), text: `1e${e}` });
+    for (let e = Math.floor(lo); e <= Math.ceil(hi); e++) {
+      for (const m of [1, 2, 5]) {
+        const v = m * 10 ** e;
+        if (Math.log10(v) >= lo && Math.log10(v) <= hi) ticks.push({ x: X(v), text: String(Number(v.toPrecision(1))) });
+      }
+    }
     return { bars, ticks, max };
   });
 }
