@@ -71,7 +71,7 @@ export async function issueReport(manager: EntityManager, input: IssueReportInpu
       `Result: ${VERDICT_WORDS[report.verdict]}.`,
       // the e-mail states a result, so it carries the same caution as the report and the screens
       SCREENING_CAUTION,
-      'Download it from your reports page (link below).',
+      'Download it from your reports page in Ohmprint.',
       `Anyone holding the PDF can check it at ${verificationUrl(number, report.verificationCode)}`,
     ],
   });

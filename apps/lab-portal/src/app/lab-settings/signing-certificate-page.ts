@@ -37,8 +37,7 @@ import { LabSettingsData } from './lab-settings-data';
         <form (submit)="upload($event)" class="upload" aria-label="Upload a signing certificate">
           <label class="file">
             <span class="label">PKCS#12 file</span>
-            <input type="file" accept=".p12,.pfx,application/x-pkcs12" (change)="picked($event)" aria-describedby="file-state" />
-            <span id="file-state" class="ohm-muted">{{ file()?.name ?? 'No file chosen' }}</span>
+            <input type="file" accept=".p12,.pfx,application/x-pkcs12" (change)="picked($event)" />
           </label>
           <mat-form-field>
             <mat-label>Passphrase</mat-label>
