@@ -15,6 +15,7 @@ import { signingCredentialRouter } from './reports/signing/signing-credential.ro
 import { verificationRouter } from './verification/verification.router';
 import { samplesRouter } from './samples/router';
 import { intakeRouter } from './intake/router';
+import { intakeLimitsRouter } from './intake/intake-limits.router';
 import { custodyRouter } from './custody/router';
 import { measurementsRouter } from './measurements/router';
 import { instrumentKeysRouter } from './instrument-keys/router';
@@ -45,6 +46,7 @@ export function apiRoutes(): Router {
   api.use('/public/verify', verificationRouter());
   api.use('/lab', samplesRouter());
   api.use('/lab', intakeRouter());
+  api.use(intakeLimitsRouter());
   api.use(custodyRouter());
   api.use('/lab', measurementsRouter());
   api.use('/lab', instrumentKeysRouter());

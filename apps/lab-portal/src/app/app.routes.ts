@@ -20,6 +20,7 @@ export const routes: Routes = [
       { path: 'clients', canActivate: [roleGuard('lab-admin')], loadChildren: () => import('./client-organisations/client-organisations.routes') },
       { path: 'labs', canActivate: [roleGuard('platform-operator')], loadChildren: () => import('./labs/labs.routes') },
       { path: 'queue', canActivate: [roleGuard(...LAB_STAFF)], loadChildren: () => import('./queue/queue.routes') },
+      { path: 'intake-limits', canActivate: [roleGuard(...LAB_STAFF)], loadChildren: () => import('./intake-limits/intake-limits.routes') },
       { path: 'intake', canActivate: [roleGuard('intake-technician')], loadChildren: () => import('./intake/intake.routes') },
       { path: 'samples', canActivate: [roleGuard(...LAB_STAFF)], loadChildren: () => import('./samples/samples.routes') },
       { path: 'reviews', canActivate: [roleGuard('reviewer')], loadChildren: () => import('./reviews/reviews.routes') },

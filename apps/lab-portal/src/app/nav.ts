@@ -7,6 +7,7 @@ export const LAB_NAV: readonly NavItem[] = [
   { label: 'Receive samples', icon: 'qr_code_scanner', path: '/intake', roles: ['intake-technician'] },
   { label: 'Reviews', icon: 'rate_review', path: '/reviews', roles: ['reviewer'] },
   { label: 'Reports', icon: 'description', path: '/reports', roles: ['reviewer', 'lab-admin', 'analyst'] },
+  { label: 'Intake limits', icon: 'device_thermostat', path: '/intake-limits', roles: ['lab-admin'] },
   { label: 'Instrument keys', icon: 'key', path: '/instrument-keys', roles: ['lab-admin'] },
   { label: 'Staff', icon: 'group', path: '/staff', roles: ['lab-admin'] },
   { label: 'Billing', icon: 'payments', path: '/billing', roles: ['lab-admin'] },

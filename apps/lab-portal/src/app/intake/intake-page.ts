@@ -13,6 +13,7 @@ import { MatSelectModule } from '@angular/material/select';
 import { ActivatedRoute, RouterLink } from '@angular/router';
 import {
   CHEMISTRY_FIELDS,
+  CONTAINER_CONDITION_LABELS,
   CONTAINER_CONDITIONS,
   SampleCodeSchema,
   type ChemistryField,
@@ -20,7 +21,7 @@ import {
   type ReferenceLotDeclaration,
   type SampleDetail,
 } from '@ohmprint/contracts';
-import { ApiProblem, Notice, Notifier, SampleStateChip, showFieldErrors } from '@ohmprint/ui';
+import { ApiProblem, Notice, Notifier, SAMPLE_STATE_LOOK, SampleStateChip, showFieldErrors } from '@ohmprint/ui';
 import { CustodyTimeline } from './custody-timeline';
 import { IntakeData } from './intake-data';
 import { IntakePhotos } from './intake-photos';
@@ -51,6 +52,8 @@ export class IntakePage implements OnInit, AfterViewInit {
   private readonly fb = inject(FormBuilder).nonNullable;
 
   protected readonly conditions = CONTAINER_CONDITIONS;
+  protected readonly conditionLabels = CONTAINER_CONDITION_LABELS;
+  protected readonly stateLook = SAMPLE_STATE_LOOK;
   protected readonly code = new FormControl('', { nonNullable: true });
   protected readonly scan = new FormGroup({ code: this.code });
   protected readonly codeError = signal<string | null>(null);
@@ -71,7 +74,10 @@ export class IntakePage implements OnInit, AfterViewInit {
     volumeMl: [750, [Validators.required, Validators.min(0.1), Validators.max(100000)]],
     notes: ['', Validators.maxLength(2000)],
   });
-  protected readonly storage = this.fb.group({ storageLocation: ['', [Validators.required, Validators.maxLength(200)]] });
+  protected readonly storage = this.fb.group({
+    storageLocation: ['', [Validators.required, Validators.maxLength(200)]],
+    overrideReason: ['', Validators.maxLength(2000)],
+  });
 
   ngOnInit(): void {
     const code = this.route.snapshot.queryParamMap.get('code');
@@ -129,7 +135,9 @@ export class IntakePage implements OnInit, AfterViewInit {
     const s = this.sample();
     if (!s || this.storage.invalid) return;
     this.saving.set(true);
-    this.data.accept(s.id, this.storage.getRawValue()).subscribe({
+    const { storageLocation, overrideReason } = this.storage.getRawValue();
+    const body = s.intakeWarnings.length ? { storageLocation, overrideReason } : { storageLocation };
+    this.data.accept(s.id, body).subscribe({
       next: (updated) => this.decided(`${updated.code} accepted and stored at ${updated.storageLocation}.`),
       error: (e: unknown) => this.failed(e, this.storage),
     });
