@@ -36,7 +36,8 @@ export const DEFAULT_INTAKE_LIMITS: Readonly<Record<Matrix, Omit<IntakeLimit, 'm
   vinegar: { minArrivalC: 0, maxArrivalC: 30, maxAgeDays: 3650 },
   spirit: { minArrivalC: 0, maxArrivalC: 30, maxAgeDays: 3650 },
   brine: { minArrivalC: 0, maxArrivalC: 30, maxAgeDays: 730 },
-  'other-liquid': { minArrivalC: 0, maxArrivalC: 30, maxAgeDays: 365 },
+  // Unknown keeping qualities: treated like a chilled-to-room-temperature juice until the lab says otherwise.
+  'other-liquid': { minArrivalC: 0, maxArrivalC: 25, maxAgeDays: 365 },
 };
 export const DEFAULT_INTAKE_LIMITS_SOURCE =
   'Ohmprint’s defaults: common practice for chilled and shelf-stable beverage samples, not taken from a standard. Set your lab’s own.';
