@@ -133,6 +133,7 @@ start_mail_catcher() {
 }
 
 start_payment_fake() {
+  export PAYMENT_WEBHOOK_URL="${PAYMENT_WEBHOOK_URL:-http://127.0.0.1:$APP_PORT/api/payments/webhook}"
   start_background payment-fake node "$ROOT/docker-free-scripts/payment-fake.mjs" "$PAYMENT_FAKE_PORT"
   wait_for_port "$PAYMENT_FAKE_PORT" payment-fake
 }

@@ -8,6 +8,7 @@ import { seedAccounts } from './accounts';
 import { DEMO_PASSWORD } from './accounts-demo-data';
 import { demoAccountsTable } from './demo-accounts-table';
 import { seedLabDemo } from './lab-demo';
+import { seedBillingDemo } from './billing-demo';
 
 /** `npm run db:seed`: the invented demo, idempotent. Each part is one line here. */
 async function seed(): Promise<void> {
@@ -16,6 +17,7 @@ async function seed(): Promise<void> {
     const passwordHash = await hashPassword(DEMO_PASSWORD);
     await dataSource.transaction((manager) => seedAccounts(manager, passwordHash));
     await dataSource.transaction((manager) => seedLabDemo(manager));
+    await dataSource.transaction((manager) => seedBillingDemo(manager));
     mkdirSync(config.dataDir, { recursive: true });
     writeFileSync(join(config.dataDir, 'demo-accounts.txt'), demoAccountsTable(config.publicBaseUrl));
     logger.info('demo seed complete');

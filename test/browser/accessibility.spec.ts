@@ -77,6 +77,7 @@ describe('automated accessibility checks in both colour schemes', () => {
       { name: 'lab-staff', path: '/lab/staff', ready: table('Staff') },
       { name: 'lab-clients', path: '/lab/clients' },
       { name: 'lab-instrument-keys', path: '/lab/instrument-keys' },
+      { name: 'lab-intake-limits', path: '/lab/intake-limits', ready: async (page) => page.getByRole('row', { name: /Milk/ }).waitFor() },
       { name: 'lab-queue', path: '/lab/queue', ready: table('Work queue') },
       { name: 'lab-reports', path: '/lab/reports' },
       { name: 'lab-profile', path: '/lab/profile' },

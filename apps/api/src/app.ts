@@ -1,3 +1,4 @@
+import compression from 'compression';
 import cookieParser from 'cookie-parser';
 import express, { type Express } from 'express';
 import helmet from 'helmet';
@@ -5,6 +6,7 @@ import { resolve } from 'node:path';
 import { config } from './config';
 import { errorMiddleware, notFoundHandler } from './core/error-middleware';
 import { requestLogging } from './core/request-logging';
+import { paymentWebhookRouter } from './modules/billing/webhook.router';
 import { apiRoutes } from './modules/routes';
 import { openApiRouter } from './openapi/router';
 import { servePortals } from './serve-portals';
@@ -39,8 +41,11 @@ export function createApp(): Express {
     }),
   );
   app.use(requestLogging);
+  // gzip runs in libuv's thread pool, not on the request thread; PDFs and images are already compressed.
+  app.use(compression());
 
   const api = express.Router();
+  api.use(paymentWebhookRouter()); // raw body: before the JSON parser
   api.use(express.json({ limit: config.bodyLimit }));
   api.use(cookieParser());
   api.use(openApiRouter());

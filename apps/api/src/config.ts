@@ -39,7 +39,8 @@ const EnvSchema = z.object({
   OUTBOX_POLL_MS: z.coerce.number().int().min(100).default(2000),
   OUTBOX_MAX_ATTEMPTS: z.coerce.number().int().min(1).default(12),
   OUTBOX_WORKER: bool.default(true),
-  STRIPE_API_BASE: z.url().default('http://127.0.0.1:12111'),
+  // Empty (STRIPE_API_BASE=) means the hosted payment service; the default is the local payment service.
+  STRIPE_API_BASE: z.union([z.literal(''), z.url()]).default('http://127.0.0.1:12111'),
   STRIPE_SECRET_KEY: z.string().min(1).default('sk_test_ohmprint_local'),
   PAYMENT_WEBHOOK_SECRET: z.string().optional(),
   SHUTDOWN_TIMEOUT_MS: z.coerce.number().int().min(100).default(10000),
@@ -100,7 +101,7 @@ function buildConfig(env: Env) {
       workerEnabled: env.OUTBOX_WORKER,
     },
     payments: {
-      apiBase: env.STRIPE_API_BASE,
+      apiBase: env.STRIPE_API_BASE || undefined,
       secretKey: env.STRIPE_SECRET_KEY,
       webhookSecret: env.PAYMENT_WEBHOOK_SECRET,
     },

@@ -29,6 +29,15 @@ describe('serving the built portals', () => {
     expect((await request(app).get('/lab/')).text).toBe('<title>lab</title>');
   });
 
+  it('caches content-hashed bundles for good and revalidates everything else', async () => {
+    writeFileSync(join(dist, 'client-portal', 'browser', 'main-ABCD1234.js'), 'console.log(1)');
+    const app = express();
+    servePortals(app, dist);
+    expect((await request(app).get('/main-ABCD1234.js')).headers['cache-control']).toBe('public, max-age=31536000, immutable');
+    expect((await request(app).get('/main.js')).headers['cache-control']).toBe('no-cache');
+    expect((await request(app).get('/orders')).headers['cache-control']).toBe('no-cache');
+  });
+
   it('answers 404 (not 500) when a portal build disappears while the API runs', async () => {
     const app = express();
     servePortals(app, dist);

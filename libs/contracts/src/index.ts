@@ -14,3 +14,4 @@ export * from './lab-profile';
 export * from './audit-log';
 export * from './lab';
 export * from './lab/reports';
+export * from './billing';

@@ -7,6 +7,8 @@ export const InvitationTokenRequestSchema = z.object({ token: TokenSchema });
 /** What the accept page shows before the invitee sets a password. */
 export const InvitationPreviewSchema = z.object({
   email: z.string(),
+  /** The name the inviter typed, if any: the accept form starts from it. */
+  displayName: z.string().nullable(),
   labName: z.string(),
   clientOrganisationName: z.string().nullable(),
   roles: z.array(RoleSchema),

@@ -15,6 +15,7 @@ import { signingCredentialRouter } from './reports/signing/signing-credential.ro
 import { verificationRouter } from './verification/verification.router';
 import { samplesRouter } from './samples/router';
 import { intakeRouter } from './intake/router';
+import { intakeLimitsRouter } from './intake/intake-limits.router';
 import { custodyRouter } from './custody/router';
 import { measurementsRouter } from './measurements/router';
 import { instrumentKeysRouter } from './instrument-keys/router';
@@ -24,19 +25,21 @@ import { libraryBuildRouter } from './libraries/library-build.router';
 import { analysesRouter } from './analyses/router';
 import { reviewsRouter } from './reviews/router';
 import { clientOrdersRouter } from './orders/router';
+import { clientBillingRouter } from './billing/client-billing.router';
+import { labBillingRouter } from './billing/lab-billing.router';
 
 /** Every feature's router, one line each. Paths are under /api. */
 export function apiRoutes(): Router {
   const api = Router();
-  api.use('/health', healthRouter());
+  api.use(healthRouter());
   api.use('/auth', authRouter());
   api.use('/invitations', invitationsRouter());
   api.use('/me', meRouter());
   api.use('/lab/profile', labProfileRouter());
-  api.use('/lab/audit-events', auditLogRouter());
+  api.use(auditLogRouter());
   api.use('/lab/staff', staffRouter());
-  api.use('/lab/client-organisations', clientOrganisationsRouter());
-  api.use('/operator/labs', operatorLabsRouter());
+  api.use(clientOrganisationsRouter());
+  api.use(operatorLabsRouter());
   api.use('/client/team', clientTeamRouter());
   api.use('/lab/reports', labReportsRouter());
   api.use('/lab/signing-credential', signingCredentialRouter());
@@ -44,7 +47,8 @@ export function apiRoutes(): Router {
   api.use('/public/verify', verificationRouter());
   api.use('/lab', samplesRouter());
   api.use('/lab', intakeRouter());
-  api.use('/lab', custodyRouter());
+  api.use(intakeLimitsRouter());
+  api.use(custodyRouter());
   api.use('/lab', measurementsRouter());
   api.use('/lab', instrumentKeysRouter());
   api.use('/lab', librariesRouter());
@@ -53,5 +57,7 @@ export function apiRoutes(): Router {
   api.use('/lab', analysesRouter());
   api.use('/lab', reviewsRouter());
   api.use(clientOrdersRouter());
+  api.use(clientBillingRouter());
+  api.use(labBillingRouter());
   return api;
 }

@@ -19,6 +19,12 @@ describe('OpenAPI description', () => {
     expect(res.body.paths['/api/auth/sign-in'].post.security).toEqual([]);
   });
 
+  it('compresses large answers for clients that accept gzip', async () => {
+    const res = await request(t.app).get('/api/openapi.json').set('Accept-Encoding', 'gzip');
+    expect(res.headers['content-encoding']).toBe('gzip');
+    expect(res.body.openapi).toBe('3.1.0');
+  });
+
   it('serves the browsable page and its assets from this server', async () => {
     const page = await request(t.app).get('/api/docs/');
     expect(page.status).toBe(200);

@@ -5,3 +5,4 @@ export { readMailbox, clearMailbox, type CaughtMail } from './mailbox';
 export { latestEmailTo, linkToken } from './outbox';
 export { analyseDemoSample, measureDemoSample, type MeasuredDemoSample } from './demo-workflow';
 export { enrolReferenceLots, type EnrolledLots } from './reference-lots';
+export { startLocalPaymentService, eventually, type LocalPaymentService } from './payment-service';

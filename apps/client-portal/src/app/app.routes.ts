@@ -17,6 +17,7 @@ export const routes: Routes = [
       { path: 'profile', title: 'Profile · Ohmprint', component: ProfilePage },
       { path: 'team', canActivate: [roleGuard('client-admin', 'client-member')], loadChildren: () => import('./team/team.routes') },
       { path: 'orders', canActivate: [roleGuard('client-admin', 'client-member')], loadChildren: () => import('./orders/orders.routes') },
+      { path: 'credits', canActivate: [roleGuard('client-admin', 'client-member')], loadChildren: () => import('./credits/credits.routes') },
       { path: 'reports', canActivate: [roleGuard('client-admin', 'client-member')], loadChildren: () => import('./reports/reports.routes') },
       { path: '**', title: 'Not found · Ohmprint', component: NotFoundPage },
     ],

@@ -9,8 +9,10 @@ export const LAB_NAV: readonly NavItem[] = [
   { label: 'Reports', icon: 'description', path: '/reports', roles: ['reviewer', 'lab-admin', 'analyst'] },
   { label: 'Reference libraries', icon: 'library_books', path: '/libraries', exact: true, roles: ['analyst', 'reviewer', 'lab-admin'] },
   { label: 'Methods', icon: 'tune', path: '/libraries/methods', roles: ['analyst', 'reviewer', 'lab-admin'] },
+  { label: 'Intake limits', icon: 'device_thermostat', path: '/intake-limits', roles: ['lab-admin'] },
   { label: 'Instrument keys', icon: 'key', path: '/instrument-keys', roles: ['lab-admin'] },
   { label: 'Staff', icon: 'group', path: '/staff', roles: ['lab-admin'] },
+  { label: 'Billing', icon: 'payments', path: '/billing', roles: ['lab-admin'] },
   { label: 'Client organisations', icon: 'storefront', path: '/clients', roles: ['lab-admin'] },
   { label: 'Labs', icon: 'domain', path: '/labs', roles: ['platform-operator'] },
 ];

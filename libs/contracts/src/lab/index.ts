@@ -14,3 +14,4 @@ export * from './reference-spectra';
 export * from './analyses';
 export * from './reviews';
 export * from './chemistry';
+export * from './intake-limits';

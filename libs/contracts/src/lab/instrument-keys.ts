@@ -1,8 +1,14 @@
 import { z } from 'zod';
 import { UserRefSchema } from './refs';
 
-/** Keys look like `ohm_live_` + 40 base-32 characters; only a SHA-256 hash is stored. */
-export const INSTRUMENT_KEY_PREFIX = 'ohm_live_';
+/** Keys look like `ohmbench-` + 40 base-32 characters; only a SHA-256 hash is stored. */
+export const INSTRUMENT_KEY_PREFIX = 'ohmbench-';
+/** The prefix of keys issued before `ohmbench-`: they keep working until revoked. */
+export const EARLIER_INSTRUMENT_KEY_PREFIX = 'ohm_live_';
+
+/** Whether a bearer token is an instrument key (of either shape) rather than a sign-in token. */
+export const isInstrumentKey = (token: string): boolean =>
+  token.startsWith(INSTRUMENT_KEY_PREFIX) || token.startsWith(EARLIER_INSTRUMENT_KEY_PREFIX);
 
 export const CreateInstrumentKeySchema = z.object({ name: z.string().trim().min(1).max(100) });
 export type CreateInstrumentKey = z.infer<typeof CreateInstrumentKeySchema>;

@@ -5,10 +5,18 @@ import { UserRefSchema } from './refs';
 import { MatrixSchema } from './products';
 import { SampleDescriptionSchema } from './orders';
 import { SampleCodeSchema, SampleStateSchema } from './sample-state';
+import { IntakeWarningSchema } from './intake-limits';
 
 export const CONTAINER_CONDITIONS = ['intact', 'damaged', 'leaking', 'unlabelled'] as const;
 export const ContainerConditionSchema = z.enum(CONTAINER_CONDITIONS);
 export type ContainerCondition = z.infer<typeof ContainerConditionSchema>;
+/** How each container condition reads on screen. */
+export const CONTAINER_CONDITION_LABELS: Readonly<Record<ContainerCondition, string>> = {
+  intact: 'Intact',
+  damaged: 'Damaged',
+  leaking: 'Leaking',
+  unlabelled: 'No label',
+};
 
 export const SampleLookupParamsSchema = z.object({ code: SampleCodeSchema });
 
@@ -26,7 +34,11 @@ export const RecordArrivalSchema = z.object({
 });
 export type RecordArrival = z.infer<typeof RecordArrivalSchema>;
 
-export const AcceptSampleSchema = z.object({ storageLocation: z.string().trim().min(1).max(200) });
+export const AcceptSampleSchema = z.object({
+  storageLocation: z.string().trim().min(1).max(200),
+  /** Why the sample is accepted despite its intake warnings; required when there are any. */
+  overrideReason: z.string().trim().min(5).max(2000).optional(),
+});
 export type AcceptSample = z.infer<typeof AcceptSampleSchema>;
 
 export const RejectSampleSchema = z.object({ reason: z.string().trim().min(5).max(2000) });
@@ -63,6 +75,8 @@ export const SampleDetailSchema = z.object({
   product: z.object({ id: z.uuid(), name: z.string(), matrix: MatrixSchema }),
   clientOrganisation: NamedRefSchema,
   intake: IntakeRecordSchema.nullable(),
+  /** What intake should look at twice before accepting (empty before arrival or when all is well). */
+  intakeWarnings: z.array(IntakeWarningSchema),
   photos: z.array(IntakePhotoSchema),
   rejectionReason: z.string().nullable(),
   storageLocation: z.string().nullable(),
@@ -90,7 +104,7 @@ export const WorkQueueItemSchema = z.object({
 export type WorkQueueItem = z.infer<typeof WorkQueueItemSchema>;
 
 /** Default order: oldest first. `state` may repeat (`?state=accepted&state=measuring`) or be comma-separated. */
-export const WorkQueueQuerySchema = listQuery(['age', 'code', 'state', 'product', 'client'], 'desc')
+export const WorkQueueQuerySchema = listQuery(['age', 'due', 'code', 'state', 'product', 'client'], 'desc')
   .extend({
     state: z
       .union([z.string(), z.array(z.string())])

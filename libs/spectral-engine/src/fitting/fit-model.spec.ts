@@ -35,6 +35,37 @@ describe('fitModel', () => {
     else throw new Error(bounded.reason);
   });
 
+  it('identifies parameters many decades apart: a CPE magnitude near 1e−9 beside resistances near 1e3', () => {
+    const truth = { rs: 850, rct: 2400, q: 1.3e-9, n: 0.88, sigma: 9000 };
+    const wide = Float64Array.from({ length: 50 }, (_, i) => 10 ** (-2 + (8 * i) / 49));
+    const clean = impedance('randles-cpe', truth, wide);
+    // 0.3 % multiplicative ripple, so the optimum has a χ² above zero and finite standard errors.
+    const s = { ...clean, re: clean.re.map((v, i) => v * (1 + 0.003 * Math.sin(1.7 * i))), im: clean.im.map((v, i) => v * (1 + 0.003 * Math.cos(2.3 * i))) };
+    for (const initial of [undefined, truth]) {
+      const fit = fitModel(s, 'randles-cpe', { initial });
+      if (!fit.converged) throw new Error(fit.reason);
+      for (const [name, value] of Object.entries(truth)) {
+        expect({ name, close: Math.abs(fit.parameters[name] / value - 1) < 0.05 }).toEqual({ name, close: true });
+        const se = fit.standardErrors[name];
+        // In the parameter's own units: finite, positive, and small beside the value.
+        expect({ name, se: Number.isFinite(se) && se > 0 && se < 0.1 * value }).toEqual({ name, se: true });
+      }
+    }
+  });
+
+  it('reaches the optimum when the CPE exponent rests on its bound of 1', () => {
+    // Data slightly "more ideal than a capacitor" (n = 1.03 beyond the bound): the bounded optimum has n = 1 exactly.
+    const data = impedance('rs + 1/(1/r + q*(j*ω)^n)', { rs: 20, r: 300, q: 4e-6, n: 1.03 }, f);
+    const bounded = fitModel(data, 'r-zarc');
+    if (!bounded.converged) throw new Error(bounded.reason);
+    expect(bounded.parameters['n']).toBe(1);
+    // The same spectrum fitted with n fixed at 1 (an ideal capacitor): the χ² the bounded fit must reach.
+    const fixed = fitModel(data, 'rs + 1/(1/r + q*j*ω)', { initial: { rs: 20, r: 300, q: 4e-6 } });
+    if (!fixed.converged) throw new Error(fixed.reason);
+    expect(bounded.chiSquare).toBeLessThanOrEqual(fixed.chiSquare * (1 + 1e-9));
+    expect(bounded.parameters['q']).toBeCloseTo(fixed.parameters['q'], 12);
+  });
+
   it('says it did not converge instead of giving numbers when the iterations run out', () => {
     const fit = fitModel(impedance('cole-cole', { rInf: 80, r0: 1200, tau: 3e-4, alpha: 0.72 }, f), 'cole-cole', {
       initial: { rInf: 1, r0: 1, tau: 10, alpha: 0.2 },

@@ -4,21 +4,29 @@ import { resolveModel, type ModelReference } from '../models/resolve-model';
 import { angularFrequencies } from '../models/shape-features';
 import type { FitFailure, FitResult } from './fit-result';
 import { minimise, type MinimiserResult } from './levenberg-marquardt';
-import { modelSpaceSlope, toModelSpace, toSearchSpace, type Bounds } from './parameter-transform';
+import { modelSpaceSlope, searchBox, toModelSpace, toSearchSpace, type Bounds } from './parameter-transform';
 import { boundsOf, startingPoint, type FitOptions } from './starting-point';
-import { symmetricInverse } from './symmetric-solve';
+import { scaledCovariance } from './scaled-covariance';
 import { inverseSigmas, type Weighting } from './weighting';
 
 const TOLERANCES = { ftol: 1e-12, xtol: 1e-10, gtol: 1e-12 };
 
-/** Deterministic perturbation of the search point for restart k: about ×e or ±0.6 rad per parameter. */
+/**
+ * Deterministic perturbation of the search point for restart k: about ×e for a log-parameter, a
+ * fifth of the range for a two-sided one (reflected back into its bounds), half the value otherwise.
+ */
 function perturbed(u: Float64Array, bounds: Bounds[], k: number): Float64Array {
   return Float64Array.from(u, (x, j) => {
     const sign = ((k >> j % 3) + j) % 2 === 0 ? 1 : -1;
-    const twoSided = Number.isFinite(bounds[j].lower) && Number.isFinite(bounds[j].upper);
-    const oneSided = Number.isFinite(bounds[j].lower) || Number.isFinite(bounds[j].upper);
-    const size = twoSided ? 0.6 : oneSided ? 1 : 0.5 * Math.max(Math.abs(x), 1);
-    return x + sign * size * (1 + 0.25 * Math.floor(k / 2));
+    const { lower, upper } = bounds[j];
+    const grow = 1 + 0.25 * Math.floor(k / 2);
+    if (Number.isFinite(lower) && Number.isFinite(upper)) {
+      const moved = x + sign * 0.2 * (upper - lower) * grow;
+      const inside = moved > upper ? 2 * upper - moved : moved < lower ? 2 * lower - moved : moved;
+      return Math.min(upper, Math.max(lower, inside));
+    }
+    const size = Number.isFinite(lower) || Number.isFinite(upper) ? 1 : 0.5 * Math.max(Math.abs(x), 1);
+    return x + sign * size * grow;
   });
 }
 
@@ -104,15 +112,16 @@ export function fitModel(s: Spectrum, model: ModelReference, options: FitOptions
   const start = startingPoint(m, s, bounds, options);
   const u0 = Float64Array.from(start, (v, j) => toSearchSpace(v, bounds[j]));
   const minimiserOptions = { maxIterations: options.maxIterations ?? 200, ...TOLERANCES };
+  const box = searchBox(bounds);
   // Costs this close to zero differ only by rounding: 1e−20 of the cost of predicting Z = 0.
   let costFloor = 0;
   for (let i = 0; i < n; i++) costFloor += (s.re[i] * w[i]) ** 2 + (s.im[i] * w[n + i]) ** 2;
   costFloor *= 1e-20;
-  const first = minimise(inSearchSpace, u0, 2 * n, minimiserOptions, searchJacobian);
+  const first = minimise(inSearchSpace, u0, 2 * n, minimiserOptions, searchJacobian, box);
   let best: MinimiserResult | null = first.converged ? first : null;
   // Restarts stop once a second start lands on the best minimum found: that minimum is then confirmed.
   for (let k = 0; k < (options.restarts ?? 3); k++) {
-    const run = minimise(inSearchSpace, perturbed(u0, bounds, k), 2 * n, minimiserOptions, searchJacobian);
+    const run = minimise(inSearchSpace, perturbed(u0, bounds, k), 2 * n, minimiserOptions, searchJacobian, box);
     if (!run.converged || !Number.isFinite(run.cost)) continue;
     if (best && Math.abs(run.cost - best.cost) <= 1e-7 * best.cost + costFloor) break;
     if (!best || run.cost < best.cost) best = run;
@@ -121,7 +130,7 @@ export function fitModel(s: Spectrum, model: ModelReference, options: FitOptions
 
   const fitted = Float64Array.from(best.u, (x, j) => toModelSpace(x, bounds[j]));
   const covariance = covarianceAt(fitted, bounds, weightedResidual, 2 * n, best.cost);
-  if (!covariance) return failure(m, weighting, { iterations: best.iterations, reason: 'the parameters are not identifiable from this spectrum (singular Jacobian at the optimum)' });
+  if (!covariance) return failure(m, weighting, { iterations: best.iterations, reason: 'the parameters are not identifiable from this spectrum (singular Jacobian at the optimum, after scaling each parameter)' });
 
   m.evaluate(fitted, omega, re, im);
   const residualsRePct = new Float64Array(n);
@@ -159,7 +168,10 @@ export function fitModel(s: Spectrum, model: ModelReference, options: FitOptions
 
 /**
  * s²(JᵀJ)⁻¹ with J taken in the model's own parameters by central differences (one-sided at a
- * bound), so the uncertainties do not depend on the reparametrisation used for the search.
+ * bound), so the uncertainties do not depend on the search space and stay in the parameters' units.
+ * Identifiability is judged on the column-scaled problem (see scaledCovariance), so parameters
+ * many decades apart (a CPE magnitude of 1e−9 beside resistances of 1e3) are not mistaken for
+ * dependent ones.
  */
 function covarianceAt(
   p: Float64Array,
@@ -184,18 +196,5 @@ function covarianceAt(
     if (!residual(probe, minus)) return null;
     for (let i = 0; i < rows; i++) jac[j * rows + i] = (plus[i] - minus[i]) / (up - down);
   }
-  const a = new Float64Array(k * k);
-  for (let r = 0; r < k; r++) {
-    for (let c = 0; c <= r; c++) {
-      let s = 0;
-      for (let i = 0; i < rows; i++) s += jac[r * rows + i] * jac[c * rows + i];
-      a[r * k + c] = s;
-      a[c * k + r] = s;
-    }
-  }
-  const inverse = symmetricInverse(a, k);
-  if (!inverse) return null;
-  const s2 = cost / (rows - k);
-  for (let i = 0; i < inverse.length; i++) inverse[i] *= s2;
-  return inverse;
+  return scaledCovariance(jac, rows, k, cost / (rows - k));
 }

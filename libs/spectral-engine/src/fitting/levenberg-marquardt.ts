@@ -34,9 +34,19 @@ function sumOfSquares(r: Float64Array): number {
   return s;
 }
 
+/** Inclusive limits on u, ±Infinity where there is none. */
+export interface SearchBox {
+  readonly lower: Float64Array;
+  readonly upper: Float64Array;
+}
+
 /**
- * Levenberg–Marquardt with Marquardt's diagonal scaling and Nielsen's damping update, on the
- * given Jacobian or else a forward-difference one. Column-major storage keeps each Jacobian column contiguous.
+ * Levenberg–Marquardt with Marquardt's diagonal scaling (which makes the step independent of each
+ * column's scale) and Nielsen's damping update, on the given Jacobian or else a forward-difference
+ * one. Box limits are kept by an active set: a coordinate on its limit whose gradient points out of
+ * the box is held there and the step solved for the others; trial points are projected into the
+ * box. So a parameter whose optimum lies on a bound reaches it exactly and the rest still converge.
+ * Column-major storage keeps each Jacobian column contiguous.
  */
 export function minimise(
   residual: ResidualFunction,
@@ -44,9 +54,13 @@ export function minimise(
   rows: number,
   options: MinimiserOptions,
   jacobian?: JacobianFunction,
+  box?: SearchBox,
 ): MinimiserResult {
   const p = u0.length;
-  const u = Float64Array.from(u0);
+  const lo = box?.lower ?? new Float64Array(p).fill(-Infinity);
+  const hi = box?.upper ?? new Float64Array(p).fill(Infinity);
+  const u = Float64Array.from(u0, (x, j) => Math.min(hi[j], Math.max(lo[j], x)));
+  const held = new Uint8Array(p);
   const trial = new Float64Array(p);
   const r = new Float64Array(rows);
   const rTrial = new Float64Array(rows);
@@ -69,7 +83,8 @@ export function minimise(
       if (!jacobian(u, jac)) return { u, cost, iterations: iteration, converged: false, reason: 'the model gives non-finite derivatives near the current parameters' };
     }
     for (let j = 0; j < p && !jacobian; j++) {
-      const h = SQRT_EPS * Math.max(Math.abs(u[j]), 1);
+      // Step into the box: a coordinate on its upper limit is differenced backwards.
+      const h = (u[j] + SQRT_EPS * Math.max(Math.abs(u[j]), 1) > hi[j] ? -1 : 1) * SQRT_EPS * Math.max(Math.abs(u[j]), 1);
       trial.set(u);
       trial[j] += h;
       const column = jac.subarray(j * rows, (j + 1) * rows);
@@ -95,9 +110,13 @@ export function minimise(
       let s = 0;
       for (let i = 0; i < rows; i++) s += cj[i] * r[i];
       g[j] = s;
-      negG[j] = -s;
-      gMax = Math.max(gMax, Math.abs(s));
       aMax = Math.max(aMax, a[j * p + j]);
+    }
+    // The active set: coordinates on a limit that the descent direction −g would push out of the box.
+    for (let j = 0; j < p; j++) {
+      held[j] = (u[j] <= lo[j] && g[j] > 0) || (u[j] >= hi[j] && g[j] < 0) ? 1 : 0;
+      negG[j] = held[j] ? 0 : -g[j];
+      if (!held[j]) gMax = Math.max(gMax, Math.abs(g[j]));
     }
     if (gMax <= options.gtol * Math.max(cost, Number.MIN_VALUE) || cost === 0) {
       return { u, cost, iterations: iteration, converged: true, reason: 'gradient vanished' };
@@ -108,7 +127,15 @@ export function minimise(
     let accepted = false;
     while (!accepted) {
       damped.set(a);
-      for (let j = 0; j < p; j++) damped[j * p + j] += lambda * diag[j];
+      for (let j = 0; j < p; j++) {
+        damped[j * p + j] += lambda * diag[j];
+        if (!held[j]) continue;
+        for (let k = 0; k < p; k++) {
+          damped[j * p + k] = 0;
+          damped[k * p + j] = 0;
+        }
+        damped[j * p + j] = 1;
+      }
       if (!cholesky(damped, p, factor)) {
         lambda *= nu;
         nu *= 2;
@@ -119,18 +146,25 @@ export function minimise(
       let stepNorm = 0;
       let uNorm = 0;
       for (let j = 0; j < p; j++) {
+        trial[j] = Math.min(hi[j], Math.max(lo[j], u[j] + step[j]));
+        // The step actually taken, after projection into the box.
+        step[j] = trial[j] - u[j];
         stepNorm += step[j] * step[j];
         uNorm += u[j] * u[j];
-        trial[j] = u[j] + step[j];
       }
       if (Math.sqrt(stepNorm) <= options.xtol * (Math.sqrt(uNorm) + options.xtol)) {
         return { u, cost, iterations: iteration, converged: true, reason: 'step below tolerance' };
       }
       const finite = residual(trial, rTrial);
       const trialCost = finite ? sumOfSquares(rTrial) : Infinity;
+      // Reduction the linear model predicts for the step taken: −2gᵀs − sᵀAs (equal to sᵀ(λDs − g) for an unprojected step).
       let predicted = 0;
-      for (let j = 0; j < p; j++) predicted += step[j] * (lambda * diag[j] * step[j] - g[j]);
-      const rho = (cost - trialCost) / predicted;
+      for (let j = 0; j < p; j++) {
+        let as = 0;
+        for (let k = 0; k < p; k++) as += a[j * p + k] * step[k];
+        predicted -= 2 * g[j] * step[j] + step[j] * as;
+      }
+      const rho = predicted > 0 ? (cost - trialCost) / predicted : -1;
       if (finite && rho > 0) {
         const drop = cost - trialCost;
         u.set(trial);

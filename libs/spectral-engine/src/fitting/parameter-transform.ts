@@ -1,8 +1,10 @@
 /*
- * Bounds by reparametrisation: the optimiser works on an unconstrained u, the model sees p.
- * [0, ∞) and [a, ∞) use p = a + e^u, which also makes the step size relative — important for
- * CPE magnitudes of 1e−6 next to resistances of 1e3. Two-sided bounds use p = a + (b − a)(1 + sin u)/2,
- * which can reach either bound exactly (an ideal capacitor has n = 1).
+ * The search space of the fitter. Parameters with one bound (resistances, CPE magnitudes,
+ * time constants: [0, ∞)) are searched as logarithms, p = a + e^u: a CPE magnitude of 1e−9 and a
+ * resistance of 1e3 then take steps of the same relative size and the Jacobian's columns the same
+ * order of magnitude (log-parameters). Parameters with two bounds (a CPE exponent in [0, 1]) stay
+ * linear and are held inside their box by the minimiser's active set, so they can rest exactly on
+ * a bound (an ideal capacitor has n = 1) without the flat spot a sine or logistic map has there.
  */
 
 export interface Bounds {
@@ -10,35 +12,36 @@ export interface Bounds {
   readonly upper: number;
 }
 
+const twoSided = (b: Bounds): boolean => Number.isFinite(b.lower) && Number.isFinite(b.upper);
+
 export function toModelSpace(u: number, b: Bounds): number {
-  const lowerFinite = Number.isFinite(b.lower);
-  const upperFinite = Number.isFinite(b.upper);
-  if (lowerFinite && upperFinite) return b.lower + ((b.upper - b.lower) * (1 + Math.sin(u))) / 2;
-  if (lowerFinite) return b.lower + Math.exp(u);
-  if (upperFinite) return b.upper - Math.exp(u);
+  if (twoSided(b)) return u;
+  if (Number.isFinite(b.lower)) return b.lower + Math.exp(u);
+  if (Number.isFinite(b.upper)) return b.upper - Math.exp(u);
   return u;
 }
 
-/** Inverse of toModelSpace; values on or past a one-sided bound are nudged just inside it. */
+/** Inverse of toModelSpace; values on or past a one-sided bound are nudged just inside it, two-sided ones clipped into the box. */
 export function toSearchSpace(p: number, b: Bounds): number {
-  const lowerFinite = Number.isFinite(b.lower);
-  const upperFinite = Number.isFinite(b.upper);
-  if (lowerFinite && upperFinite) {
-    const t = (2 * (p - b.lower)) / (b.upper - b.lower) - 1;
-    return Math.asin(Math.min(1, Math.max(-1, t)));
-  }
+  if (twoSided(b)) return Math.min(b.upper, Math.max(b.lower, p));
   const tiny = 1e-12 * Math.max(1, Math.abs(p));
-  if (lowerFinite) return Math.log(Math.max(p - b.lower, tiny));
-  if (upperFinite) return Math.log(Math.max(b.upper - p, tiny));
+  if (Number.isFinite(b.lower)) return Math.log(Math.max(p - b.lower, tiny));
+  if (Number.isFinite(b.upper)) return Math.log(Math.max(b.upper - p, tiny));
   return p;
 }
 
 /** dp/du at u. */
 export function modelSpaceSlope(u: number, b: Bounds): number {
-  const lowerFinite = Number.isFinite(b.lower);
-  const upperFinite = Number.isFinite(b.upper);
-  if (lowerFinite && upperFinite) return ((b.upper - b.lower) * Math.cos(u)) / 2;
-  if (lowerFinite) return Math.exp(u);
-  if (upperFinite) return -Math.exp(u);
+  if (twoSided(b)) return 1;
+  if (Number.isFinite(b.lower)) return Math.exp(u);
+  if (Number.isFinite(b.upper)) return -Math.exp(u);
   return 1;
+}
+
+/** The box the minimiser keeps u in: the bounds themselves for two-sided parameters, no limit otherwise. */
+export function searchBox(bounds: readonly Bounds[]): { lower: Float64Array; upper: Float64Array } {
+  return {
+    lower: Float64Array.from(bounds, (b) => (twoSided(b) ? b.lower : -Infinity)),
+    upper: Float64Array.from(bounds, (b) => (twoSided(b) ? b.upper : Infinity)),
+  };
 }

@@ -1,8 +1,8 @@
 /** What a column holds. `negativeImaginary` is −Z″; `negativePhase` is −φ. */
 export type ColumnRole = 'frequency' | 'real' | 'imaginary' | 'negativeImaginary' | 'modulus' | 'phase' | 'negativePhase';
 
-export type FrequencyUnit = 'Hz' | 'kHz' | 'MHz';
-export type ImpedanceUnit = 'Ω' | 'kΩ' | 'MΩ';
+export type FrequencyUnit = 'mHz' | 'Hz' | 'kHz' | 'MHz';
+export type ImpedanceUnit = 'mΩ' | 'Ω' | 'kΩ' | 'MΩ';
 export type PhaseUnit = 'deg' | 'rad';
 
 /** Caller's word on what the header leaves open. Everything is optional. */

@@ -124,6 +124,63 @@ describe('parseSpectrumFile', () => {
     expect(early.reason).toMatch(/numbers before any header row/);
   });
 
+  it('reads a tab-separated export with sixty metadata lines before thirty-five data rows', () => {
+    const metadata = Array.from({ length: 60 }, (_, i) => (i % 3 === 0 ? `Setting ${i}: value ${i}` : i % 3 === 1 ? `Note ${i}` : `Operator\tdemo ${i}`));
+    const data = Array.from({ length: 35 }, (_, i) => `${10 ** (5 - i / 7)}\t${100 + i}\t${-i - 1}`);
+    const s = parseSpectrumFile([...metadata, 'Freq (Hz)\tZ\' (Ohm)\tZ\'\' (Ohm)', ...data].join('\n'));
+    expect(s.frequencyHz.length).toBe(35);
+    expect(s.frequencyHz[34]).toBe(1e5);
+    expect([s.re[34], s.im[34]]).toEqual([100, -1]);
+    // A bad cell in those rows is named by its own line and column, not by line 1.
+    const broken = [...metadata, 'Freq (Hz)\tZ\' (Ohm)\tZ\'\' (Ohm)', ...data];
+    broken[70] = '12\tabc\t-3';
+    const e = importError(broken.join('\n'));
+    expect([e.line, e.column]).toEqual([71, 4]);
+    expect(e.reason).toMatch(/expected a number for 'Z' \(Ohm\)', found 'abc'/);
+  });
+
+  it('names the line that has no separator rather than line 1', () => {
+    const e = importError(['Demo analyser export', 'Freq (Hz) Z (Ohm)', '1 2 3', '2 3 4'].join('\n'));
+    expect(e.line).toBe(3);
+    expect(e.reason).toMatch(/no cell separator found: this line starts with a number but has no tab, semicolon or comma/);
+  });
+
+  it('reads snake-case headers with units as suffixes and a neg_ or minus_ prefix for −Z″', () => {
+    const expected = { f: [1, 10, 100, 1000, 10000], re: [500, 400, 300, 200, 100], im: [-50, -40, -30, -20, -10] };
+    const body = (scaleF: number, scaleZ: number, negate: boolean, sep = ',') =>
+      expected.f.map((f, i) => [f / scaleF, expected.re[i] / scaleZ, (negate ? -1 : 1) * (expected.im[i] / scaleZ)].join(sep));
+    const cases: [string, number, number, boolean][] = [
+      ['freq_hz,z_real_ohm,neg_z_imag_ohm', 1, 1, true],
+      ['frequency_khz,z_real_kohm,minus_z_imag_kohm', 1e3, 1e3, true],
+      ['freq_MHz,z_re_MOhm,z_im_MOhm', 1e6, 1e6, false],
+      ['freq_mHz,z_real_mOhm,z_imag_mOhm', 1e-3, 1e-3, false],
+      ["freq_hz,z_real (Ohm),neg_z_imag (Ohm)", 1, 1, true],
+    ];
+    for (const [header, scaleF, scaleZ, negate] of cases) {
+      const s = parseSpectrumFile([header, ...body(scaleF, scaleZ, negate)].join('\n'));
+      expect(Array.from(s.frequencyHz).map((v) => Number(v.toPrecision(12)))).toEqual(expected.f);
+      expect(Array.from(s.re).map((v) => Number(v.toPrecision(12)))).toEqual(expected.re.slice().reverse().reverse());
+      expect(Array.from(s.im).map((v) => Number(v.toPrecision(12)))).toEqual(expected.im);
+    }
+    const polar = parseSpectrumFile(['freq_hz;z_mod_ohm;phase_deg', '1;2;-90', '2;2;0', '3;2;0', '4;2;0', '5;2;0'].join('\n'));
+    expect(polar.im[0]).toBeCloseTo(-2, 12);
+    const radians = parseSpectrumFile(['freq_hz;z_mod_ohm;phase_rad', '1;2;-1,5707963267948966', '2;2;0', '3;2;0', '4;2;0', '5;2;0'].join('\n'));
+    expect(radians.im[0]).toBeCloseTo(-2, 12);
+  });
+
+  it('refuses a lower-case suffix that could be milli or mega, naming line and column, unless the caller says', () => {
+    const lines = ['# demo', 'freq_hz;z_real_mohm;z_imag_mohm', ...rows(';')];
+    const e = importError(lines.join('\n'));
+    expect([e.line, e.column]).toEqual([2, 9]);
+    expect(e.reason).toMatch(/'z_real_mohm' \(Z′\) gives an ambiguous unit: 'mohm' could be milliohm or megaohm/);
+    const f = importError(['freq_mhz;z_real_ohm;z_imag_ohm', ...rows(';')].join('\n'));
+    expect([f.line, f.column]).toEqual([1, 1]);
+    expect(f.reason).toMatch(/'mhz' could be millihertz or megahertz/);
+    expect(parseSpectrumFile(lines.join('\n'), { units: { impedance: 'MΩ' } }).re[0]).toBe(300e6);
+    // A name with no unit at all stays a refusal: nothing is guessed.
+    expect(importError(['freq_hz;z_real;z_imag', ...rows(';')].join('\n')).reason).toMatch(/'z_real' \(Z′\) names no unit/);
+  });
+
   it('reads a valid file with one character changed, or rejects it with SpectrumImportError', () => {
     const valid = ['Frequency (Hz);Z\' (Ω);Z\'\' (Ω)', ...rows(';')].join('\r\n');
     fc.assert(

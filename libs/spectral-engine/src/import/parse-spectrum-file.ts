@@ -64,14 +64,63 @@ function rejectBinary(text: string): void {
   }
 }
 
-function chooseDelimiter(lines: Line[], options: ImportOptions): string {
-  if (options.delimiter) return options.delimiter;
-  const content = lines.filter((l) => l.text.trim() !== '');
-  for (const d of DELIMITERS) {
-    const using = content.filter((l) => l.text.includes(d)).length;
-    if (using > 0 && using >= content.length / 2) return d;
+function isContent(line: Line): boolean {
+  const t = line.text.trim();
+  return t !== '' && !t.startsWith('#');
+}
+
+/** A run of consecutive numeric rows (blank and comment lines inside it neither break nor count). */
+interface DataBlock {
+  /** Index into `lines` of the run's first row. */
+  readonly start: number;
+  readonly rows: number;
+}
+
+/**
+ * The longest run of rows that are all numbers when split at `delimiter`: where the data are,
+ * however many metadata lines come before them. A line with more than MAX_CELLS cells is refused
+ * here already.
+ */
+function longestDataBlock(lines: Line[], delimiter: string): DataBlock | null {
+  const decimalComma = delimiter !== ',';
+  let best: DataBlock | null = null;
+  let start = -1;
+  let count = 0;
+  for (let i = 0; i <= lines.length; i++) {
+    const line = lines[i];
+    if (line && !isContent(line)) continue;
+    let numeric = false;
+    if (line && line.text.includes(delimiter)) numeric = isNumericRow(splitCells(line.text, delimiter, line.number), decimalComma);
+    if (numeric) {
+      if (count === 0) start = i;
+      count++;
+      continue;
+    }
+    if (count > 0 && (!best || count > best.rows)) best = { start, rows: count };
+    count = 0;
   }
-  throw new SpectrumImportError(`no cell separator found: expected columns separated by tab, semicolon or comma; ${SHAPE_HINT}`, content[0]?.number);
+  return best;
+}
+
+/**
+ * The cell separator, found from the data rows rather than from all lines: the separator that
+ * gives the longest run of all-number rows (tab, then semicolon, then comma on a tie). Metadata
+ * lines above the data, however many, do not take part in the vote.
+ */
+function chooseDelimiter(lines: Line[], options: ImportOptions): { delimiter: string; block: DataBlock | null } {
+  if (options.delimiter) return { delimiter: options.delimiter, block: longestDataBlock(lines, options.delimiter) };
+  let chosen: { delimiter: string; block: DataBlock } | null = null;
+  for (const d of DELIMITERS) {
+    const block = longestDataBlock(lines, d);
+    if (block && (!chosen || block.rows > chosen.block.rows)) chosen = { delimiter: d, block };
+  }
+  if (chosen) return chosen;
+  // No row of numbers under any separator: name the first line that starts like a data row, else the first line with text.
+  const content = lines.filter(isContent);
+  const dataLike = content.find((l) => /^[+\-\u2212]?\.?\d/.test(l.text.trim()));
+  const at = dataLike ?? content[0];
+  const hint = dataLike ? 'this line starts with a number but has no tab, semicolon or comma between its values' : 'no line holds numbers separated by tab, semicolon or comma';
+  throw new SpectrumImportError(`no cell separator found: ${hint}; expected ${SHAPE_HINT}`, at?.number);
 }
 
 function isNumericRow(cells: Cell[], decimalComma: boolean): boolean {
@@ -121,7 +170,11 @@ function layoutFrom(headerCells: Cell[] | null, headerLine: number | undefined, 
     }
     if (scale === null || scale === undefined) {
       const expected = { frequency: 'Hz, kHz or MHz', impedance: 'Ω, kΩ or MΩ (also written Ohm, kOhm, MOhm)', phase: '° (deg) or rad' }[kind];
-      const what = f.header?.badUnit ? `gives unit '${f.header.badUnit}', which is not one of ${expected}` : `names no unit: expected ${expected} in brackets in the header, or options.units.${kind}`;
+      const what = f.header?.ambiguity
+        ? `gives an ambiguous unit: ${f.header.ambiguity} in the header, or give options.units.${kind}`
+        : f.header?.badUnit
+          ? `gives unit '${f.header.badUnit}', which is not one of ${expected}`
+          : `names no unit: expected ${expected} in brackets in the header (or as a suffix such as '_hz', '_ohm', '_deg'), or options.units.${kind}`;
       throw new SpectrumImportError(`column '${f.text}' (${columnName(role)}) ${what}`, headerLine, f.column);
     }
     return { index: f.index, header: f.text, scale };
@@ -176,7 +229,7 @@ export function parseSpectrumFile(text: string, options: ImportOptions = {}): Sp
   rejectBinary(body);
   const minPoints = options.minPoints ?? 5;
   const lines: Line[] = body.split(/\r\n|\r|\n/).map((t, i) => ({ number: i + 1, text: t }));
-  const delimiter = chooseDelimiter(lines, options);
+  const { delimiter, block } = chooseDelimiter(lines, options);
   const decimalComma = delimiter !== ',';
 
   let cursor = 0;
@@ -184,34 +237,42 @@ export function parseSpectrumFile(text: string, options: ImportOptions = {}): Sp
   let headerLine: number | undefined;
   const explicit = hasExplicitLayout(options);
   const namedColumns = Object.values(options.columns ?? {}).filter((c): c is string => typeof c === 'string').map(plainText);
+  const isHeaderRow = (cells: Cell[]): boolean => {
+    const texts = cells.map((c) => plainText(c.text.replace(/^"(.*)"$/, '$1')));
+    const recognised = cells.map((c) => readColumnHeader(c.text)).filter((h) => h !== null);
+    const namesGiven = namedColumns.length > 0 && namedColumns.every((n) => texts.includes(n));
+    return namesGiven || (recognised.some((h) => h.role === 'frequency') && recognised.length >= 2);
+  };
+  // The header is the nearest line above the data block that names the columns; everything above
+  // it (instrument, operator, settings…) is metadata, however long.
+  const blockStart = block ? block.start : lines.length;
   let lastText: Line | undefined;
-  for (; cursor < lines.length; cursor++) {
-    const line = lines[cursor];
-    if (line.text.trim() === '' || line.text.trimStart().startsWith('#')) continue;
+  for (let i = blockStart - 1; i >= 0; i--) {
+    const line = lines[i];
+    if (!isContent(line)) continue;
     const cells = splitCells(line.text, delimiter, line.number);
-    if (isNumericRow(cells, decimalComma)) {
-      if (explicit) break;
+    if (isHeaderRow(cells)) {
+      headerCells = cells;
+      headerLine = line.number;
+      cursor = i + 1;
+      break;
+    }
+    lastText ??= line;
+  }
+  if (!headerCells) {
+    if (!explicit) {
+      if (!block) throw new SpectrumImportError(`no header row found: expected ${SHAPE_HINT}`);
       if (lastText) {
         throw new SpectrumImportError(
           `no header row found: the line above the numbers does not name the columns; expected ${SHAPE_HINT}, or options.columns`,
           lastText.number,
         );
       }
-      throw new SpectrumImportError(`numbers before any header row: expected a header naming the columns first (${SHAPE_HINT}), or options.columns`, line.number);
+      throw new SpectrumImportError(`numbers before any header row: expected a header naming the columns first (${SHAPE_HINT}), or options.columns`, lines[blockStart].number);
     }
-    lastText = line;
-    const texts = cells.map((c) => plainText(c.text.replace(/^"(.*)"$/, '$1')));
-    const recognised = cells.map((c) => readColumnHeader(c.text)).filter((h) => h !== null);
-    const namesGiven = namedColumns.length > 0 && namedColumns.every((n) => texts.includes(n));
-    if (namesGiven || (recognised.some((h) => h.role === 'frequency') && recognised.length >= 2)) {
-      headerCells = cells;
-      headerLine = line.number;
-      cursor++;
-      break;
-    }
-  }
-  if (!headerCells && !explicit) {
-    throw new SpectrumImportError(`no header row found: expected ${SHAPE_HINT}`);
+    // Columns given by number and no header: the data start at the first row of numbers.
+    cursor = lines.findIndex((l) => isContent(l) && isNumericRow(splitCells(l.text, delimiter, l.number), decimalComma));
+    if (cursor < 0) cursor = lines.length;
   }
   const layout = layoutFrom(headerCells, headerLine, options);
   const used = layout.kind === 'cartesian' ? [layout.frequency, layout.real, layout.imaginary] : [layout.frequency, layout.modulus, layout.phase];
@@ -220,7 +281,7 @@ export function parseSpectrumFile(text: string, options: ImportOptions = {}): Sp
   const rows: { f: number; re: number; im: number; line: number }[] = [];
   for (; cursor < lines.length; cursor++) {
     const line = lines[cursor];
-    if (line.text.trim() === '' || line.text.trimStart().startsWith('#')) continue;
+    if (!isContent(line)) continue;
     const cells = splitCells(line.text, delimiter, line.number);
     if (cells.length < needed) {
       throw new SpectrumImportError(

@@ -314,18 +314,27 @@ const randlesCpeModel: ImpedanceModel = {
   initialGuess(s) {
     const f = shapeFeatures(s);
     const rs = Math.max(f.reHigh, 0);
+    // When the diffusion tail rises above the arc, the largest −Z″ is at the lowest frequency: the
+    // arc's apex is then the largest −Z″ above the lowest point between tail and arc.
+    let peakIndex = f.peakIndex;
+    if (peakIndex === 0 && s.im.length > 3) {
+      let low = 1;
+      for (let i = 2; i < s.im.length - 1; i++) if (-s.im[i] < -s.im[low]) low = i;
+      peakIndex = low + 1;
+      for (let i = low + 1; i < s.im.length; i++) if (-s.im[i] > -s.im[peakIndex]) peakIndex = i;
+    }
     // The charge-transfer arc ends where −Z″ turns up again towards the diffusion tail.
     let valley = -1;
-    for (let i = f.peakIndex - 1; i > 0; i--) {
+    for (let i = peakIndex - 1; i > 0; i--) {
       if (-s.im[i] <= -s.im[i - 1] && -s.im[i] <= -s.im[i + 1]) {
         valley = i;
         break;
       }
     }
     const rct = Math.max(valley > 0 ? s.re[valley] - rs : (f.reLow - rs) / 2, 1e-9);
-    const n = exponentFromArc(f.peakNegIm, rct);
+    const n = exponentFromArc(-s.im[peakIndex], rct);
     const sigma = Math.max(-s.im[0] * Math.sqrt(f.omega[0]), 1e-9);
-    return Float64Array.of(rs, rct, Math.pow(1 / f.peakOmega, n) / rct, n, sigma);
+    return Float64Array.of(rs, rct, Math.pow(1 / f.omega[peakIndex], n) / rct, n, sigma);
   },
 };
 

@@ -8,7 +8,10 @@ export interface KramersKronigOptions {
   readonly muCriterion?: number;
   /** Use exactly this many RC elements instead of searching. */
   readonly elements?: number;
-  /** Upper end of the search; default the number of frequencies. */
+  /**
+   * Upper end of the search; default half the number of frequencies (at least one element per
+   * decade), well below the point count, where the elements would start fitting the noise.
+   */
   readonly maxElements?: number;
   /** Include a series inductance (cable and instrument leads); default true. */
   readonly inductance?: boolean;
@@ -38,8 +41,10 @@ export interface KramersKronigResult {
   readonly noiseEstimatePct: number;
 }
 
-/** How many extra elements the search tries past the μ criterion before settling. */
+/** How many extra elements the search tries past its current choice before settling. */
 const LOOK_AHEAD = 5;
+/** Default ceiling on the element count, as a fraction of the number of frequencies. */
+const MAX_ELEMENTS_PER_POINT = 1 / 2;
 
 interface Trial {
   readonly elements: number;
@@ -121,7 +126,8 @@ function fitWith(s: Spectrum, omega: Float64Array, modulus: Float64Array, m: num
  * On clean data μ can fall below the criterion early while the fit is still poor (one ideal RC
  * element is the known case); the search therefore looks up to five elements further and moves on
  * whenever one at least halves the largest residual, and starts from one element per decade, so
- * valid data is not failed by stopping too soon.
+ * valid data is not failed by stopping too soon. The count never passes `maxElements` (default
+ * half the points): on noisy data the residual stops halving near where μ stopped the search.
  * @param s spectrum, Hz and Ω, at least 3 frequencies
  * @returns residuals in % of |Z| and whether all are within `limitPct`
  */
@@ -139,18 +145,22 @@ export function linearKramersKronig(s: Spectrum, options: KramersKronigOptions =
     if (!(modulus[i] > 0) || !Number.isFinite(modulus[i])) throw new RangeError(`|Z| at ${s.frequencyHz[i]} Hz is zero or not finite`);
   }
   const extra = 1 + (shape.inductance ? 1 : 0) + (shape.capacitance ? 1 : 0);
-  const maxElements = Math.min(options.maxElements ?? n, 2 * n - extra);
+  // At least one time constant per decade of the band, a floor against stopping on a lucky μ.
+  const decades = Math.log10(s.frequencyHz[n - 1] / s.frequencyHz[0]);
+  const perDecade = Math.max(1, Math.ceil(decades));
+  const ceiling = options.maxElements ?? Math.max(perDecade, Math.floor(n * MAX_ELEMENTS_PER_POINT));
+  const maxElements = Math.max(1, Math.min(ceiling, 2 * n - extra));
 
   let chosen: Trial | null = null;
   if (options.elements !== undefined) {
-    if (!Number.isInteger(options.elements) || options.elements < 1 || options.elements > maxElements) {
-      throw new RangeError(`elements must be an integer from 1 to ${maxElements}`);
+    // A count the caller chooses may go past the search's default ceiling, up to what the rows allow.
+    const allowed = Math.min(options.maxElements ?? 2 * n - extra, 2 * n - extra);
+    if (!Number.isInteger(options.elements) || options.elements < 1 || options.elements > allowed) {
+      throw new RangeError(`elements must be an integer from 1 to ${allowed}`);
     }
     chosen = fitWith(s, omega, modulus, options.elements, shape);
   } else {
-    // At least one time constant per decade of the band, a floor against stopping on a lucky μ.
-    const decades = Math.log10(s.frequencyHz[n - 1] / s.frequencyHz[0]);
-    let m = Math.max(1, Math.min(maxElements, Math.ceil(decades)));
+    let m = Math.min(maxElements, perDecade);
     let settled = false;
     for (; m <= maxElements; m++) {
       const trial = fitWith(s, omega, modulus, m, shape);
@@ -164,12 +174,16 @@ export function linearKramersKronig(s: Spectrum, options: KramersKronigOptions =
         break;
       }
     }
-    // Look ahead: on clean data the residual swings with the element count but keeps falling.
+    // Look ahead: on clean data the residual swings with the element count but keeps falling. A
+    // count up to LOOK_AHEAD past the current choice replaces it when it at least halves the largest
+    // residual; the search ends at residuals within a twentieth of the limit and never passes
+    // maxElements (half the points by default), so it cannot climb towards the point count.
     let best = chosen;
-    for (let ahead = m + 1; chosen && !settled && ahead <= Math.min(maxElements, best!.elements + LOOK_AHEAD); ahead++) {
+    for (let ahead = (chosen?.elements ?? maxElements) + 1; best && !settled && ahead <= Math.min(maxElements, best.elements + LOOK_AHEAD); ahead++) {
       const trial = fitWith(s, omega, modulus, ahead, shape);
       if (!trial) break;
-      if (trial.maxAbs < 0.5 * best!.maxAbs) best = trial;
+      if (trial.maxAbs < 0.5 * best.maxAbs) best = trial;
+      if (best.maxAbs <= limitPct / 20) break;
     }
     chosen = best;
   }

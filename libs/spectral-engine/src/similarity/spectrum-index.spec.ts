@@ -42,6 +42,24 @@ describe('spectrum index', () => {
     // A generous limit: the machine is shared, and this test checks results, not speed.
   }, 60_000);
 
+  it('returns the top k of a full scan on a broad library, where the pivot bounds rule most spectra out', () => {
+    // Spectra spread over six decades, some exact copies, and a query near one of them: the shape
+    // where the triangle-inequality bounds do the pruning.
+    let seed = 12345;
+    const random = () => (seed = (seed * 16807) % 2147483647) / 2147483647;
+    const grid = Float64Array.from({ length: 16 }, (_, i) => 10 ** (i / 3));
+    const library: Spectrum[] = Array.from({ length: 600 }, () => {
+      const scale = 10 ** (6 * random());
+      const tilt = random();
+      return { frequencyHz: grid, re: grid.map((f) => scale / (1 + tilt * f) + random()), im: grid.map((f) => -scale * tilt * random() * f ** 0.5) };
+    });
+    library.push(library[17], library[420], library[3]);
+    const near = library[250];
+    for (const sample of [{ ...near, re: near.re.map((v) => v * 1.001) }, library[420], library[599]]) {
+      for (const k of [1, 3, 10, 40]) expect(createSpectrumIndex(library).nearest(sample, k)).toEqual(fullScan(library, sample, k));
+    }
+  }, 60_000);
+
   it('returns the whole library, sorted, when k exceeds its size', () => {
     const library = [3, 0.5, 1].map((scale) => ({ frequencyHz: GRID, re: GRID.map((f) => scale * f), im: GRID.map(() => -scale) }));
     const sample = library[2];

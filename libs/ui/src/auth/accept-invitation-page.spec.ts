@@ -11,7 +11,7 @@ import { authRoutes } from './auth.routes';
 import { Session } from './session';
 
 const TOKEN = 'invitation-token-0123456789abcdef';
-const preview = { email: 'new.analyst@calder.test', labName: 'Calder Analytical', clientOrganisationName: null, roles: ['analyst'], expiresAt: '2026-12-16T09:00:00.000Z' };
+const preview = { email: 'new.analyst@calder.test', displayName: null, labName: 'Calder Analytical', clientOrganisationName: null, roles: ['analyst'], expiresAt: '2026-12-16T09:00:00.000Z' };
 
 async function open() {
   TestBed.configureTestingModule({ providers: provideTestPortal({ routes: [...authRoutes, { path: '**', children: [] }] }) });
@@ -40,6 +40,14 @@ describe('AcceptInvitationPage', () => {
     expect(page.textContent).toContain("This invitation can't be used.");
     expect(page.textContent).toContain('This invitation expired on 1 December 2026.');
     expect(page.querySelector('form')).toBeNull();
+  });
+
+  it('starts the name field from the name the inviter typed', async () => {
+    const { harness, previewReq, loader } = await open();
+    previewReq.flush({ ...preview, displayName: 'Nadia Analyst' });
+    await harness.fixture.whenStable();
+    const name = await loader.getHarness(MatInputHarness.with({ selector: '[formControlName=displayName]' }));
+    expect(await name.getValue()).toBe('Nadia Analyst');
   });
 
   it('catches two different passwords before sending anything', async () => {

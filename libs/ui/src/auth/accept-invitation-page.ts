@@ -55,6 +55,7 @@ export class AcceptInvitationPage implements OnInit {
     this.api.previewInvitation(token).subscribe({
       next: (preview) => {
         this.invitation.set(preview);
+        if (preview.displayName && !this.form.controls.displayName.value) this.form.controls.displayName.setValue(preview.displayName);
         this.loading.set(false);
       },
       error: (error: unknown) => {

@@ -1,6 +1,7 @@
 import { TestBed } from '@angular/core/testing';
 import { Router, UrlTree, type ActivatedRouteSnapshot, type RouterStateSnapshot } from '@angular/router';
 import { provideTestPortal, testUser } from '../testing/portal-testing';
+import { Notifier } from '../errors/notifier';
 import { roleGuard, signedInGuard } from './guards';
 import { Session } from './session';
 
@@ -37,6 +38,13 @@ describe('route guards', () => {
   it('turns away a user without the role and sends them home', () => {
     TestBed.inject(Session).adopt({ accessToken: 't', user: testUser({ roles: ['analyst'] }) });
     expect(serialise(run(roleGuard('lab-admin')))).toBe('/');
+  });
+
+  it('names the roles a page is for in words, not codes', () => {
+    TestBed.inject(Session).adopt({ accessToken: 't', user: testUser({ roles: ['platform-operator'] }) });
+    const error = jest.spyOn(TestBed.inject(Notifier), 'error');
+    run(roleGuard('intake-technician', 'analyst', 'lab-admin'));
+    expect(error).toHaveBeenCalledWith('That page is for the intake technician, analyst or lab admin role; your account does not hold it.');
   });
 
   it('sends a signed-out visitor of a role-guarded page to sign in', () => {

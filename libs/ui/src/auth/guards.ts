@@ -2,6 +2,7 @@ import { inject } from '@angular/core';
 import { Router, type CanActivateFn } from '@angular/router';
 import type { Role } from '@ohmprint/contracts';
 import { Notifier } from '../errors/notifier';
+import { ROLE_LABELS } from './role-labels';
 import { Session } from './session';
 
 /** Lets signed-in users through; everyone else goes to sign-in and comes back afterwards. */
@@ -24,7 +25,9 @@ export function roleGuard(...roles: Role[]): CanActivateFn {
     const router = inject(Router);
     if (!session.signedIn()) return router.createUrlTree(['/sign-in'], { queryParams: { returnUrl: state.url } });
     if (session.hasAnyRole(roles)) return true;
-    inject(Notifier).error(`That page needs the ${roles.join(' or ')} role. Ask your lab admin if you need it.`);
+    const allowed = roles.map((r) => ROLE_LABELS[r].toLowerCase());
+    const who = allowed.length > 1 ? `${allowed.slice(0, -1).join(', ')} or ${allowed.at(-1)}` : allowed[0];
+    inject(Notifier).error(`That page is for the ${who} role; your account does not hold it.`);
     return router.createUrlTree(['/']);
   };
 }

@@ -29,6 +29,10 @@ import { MatIconModule } from '@angular/material/icon';
       background: var(--mat-sys-primary-container);
       color: var(--mat-sys-on-primary-container);
     }
+    :host(.tone-warning) {
+      background: var(--ohm-verdict-inconclusive-container);
+      color: var(--ohm-verdict-inconclusive-on-container);
+    }
     :host(.tone-error) {
       background: var(--mat-sys-error-container);
       color: var(--mat-sys-on-error-container);
@@ -36,6 +40,6 @@ import { MatIconModule } from '@angular/material/icon';
   `,
 })
 export class Notice {
-  readonly tone = input<'info' | 'success' | 'error'>('info');
+  readonly tone = input<'info' | 'success' | 'warning' | 'error'>('info');
   readonly icon = input('info');
 }

@@ -1,11 +1,9 @@
-import { Router } from 'express';
+import type { Router } from 'express';
 import { AuditEventSchema, AuditLogQuerySchema, pageOf, type AuditEventEntry, type AuditLogQuery } from '@ohmprint/contracts';
 import { escapeLike, pageParams, toPage } from '../../core/paging';
 import { labIdOf } from '../../core/tenancy';
-import { validate } from '../../core/validate';
 import { dataSource } from '../../db/data-source';
-import { registerRoute } from '../../openapi/registry';
-import { requireRole } from '../auth/require-auth';
+import { routeTable } from '../../core/route-table';
 
 const tag = 'Audit log';
 const SORT_COLUMNS: Record<string, string> = { createdAt: 'e.created_at', action: 'e.action' };
@@ -25,9 +23,8 @@ interface AuditRow {
 
 /** The lab admin's view of everything recorded in their lab, newest first. */
 export function auditLogRouter(): Router {
-  const router = Router();
-  registerRoute({ method: 'get', path: '/lab/audit-events', tag, summary: 'My lab’s audit log, filterable by action and subject', roles: ['lab-admin'], query: AuditLogQuerySchema, response: pageOf(AuditEventSchema) });
-  router.get('/', requireRole('lab-admin'), validate({ query: AuditLogQuerySchema }), async (_req, res) => {
+  const { router, route } = routeTable();
+  route({ method: 'get', path: '/lab/audit-events', tag, summary: 'My lab’s audit log, filterable by action and subject', roles: ['lab-admin'], query: AuditLogQuerySchema, response: pageOf(AuditEventSchema) }, async (_req, res) => {
     const query = res.locals.query as AuditLogQuery;
     const { skip, take } = pageParams(query);
     const params = [labIdOf(res.locals.auth), query.q ? escapeLike(query.q) : null, query.action ?? null, query.subjectType ?? null, query.subjectId ?? null];

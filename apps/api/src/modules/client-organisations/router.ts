@@ -1,4 +1,4 @@
-import { Router } from 'express';
+import type { Router } from 'express';
 import { z } from 'zod';
 import {
   ClientOrganisationListQuerySchema,
@@ -12,38 +12,33 @@ import {
 } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
 import { labIdOf } from '../../core/tenancy';
-import { validate } from '../../core/validate';
 import { dataSource } from '../../db/data-source';
-import { registerRoute } from '../../openapi/registry';
 import { recordAudit } from '../audit/record-audit';
-import { requireRole } from '../auth/require-auth';
 import { toInvitationDto } from '../invitations/invitation-dto';
 import { sendInvitation } from '../invitations/send-invitation';
 import { Lab } from '../labs/lab.entity';
 import { ClientOrganisation } from './client-organisation.entity';
 import { findOrganisation, listOrganisations } from './organisation-queries';
+import { routeTable } from '../../core/route-table';
 
 const tag = 'Client organisations';
 const roles = ['lab-admin'] as const;
 const CreatedSchema = z.object({ organisation: ClientOrganisationSchema, invitation: InvitationSchema });
 
 export function clientOrganisationsRouter(): Router {
-  const router = Router();
-  router.use(requireRole(...roles));
+  const { router, route } = routeTable();
 
-  registerRoute({ method: 'get', path: '/lab/client-organisations', tag, summary: 'List the lab’s client organisations', roles, query: ClientOrganisationListQuerySchema, response: pageOf(ClientOrganisationSchema) });
-  router.get('/', validate({ query: ClientOrganisationListQuerySchema }), async (_req, res) => {
+  route({ method: 'get', path: '/lab/client-organisations', tag, summary: 'List the lab’s client organisations', roles, query: ClientOrganisationListQuerySchema, response: pageOf(ClientOrganisationSchema) }, async (_req, res) => {
     res.json(await listOrganisations(dataSource.manager, labIdOf(res.locals.auth), res.locals.query as ListQuery));
   });
 
-  registerRoute({ method: 'get', path: '/lab/client-organisations/:id', tag, summary: 'One client organisation', roles, params: IdParamsSchema, response: ClientOrganisationSchema });
-  router.get('/:id', validate({ params: IdParamsSchema }), async (_req, res) => {
+  route({ method: 'get', path: '/lab/client-organisations/:id', tag, summary: 'One client organisation', roles, params: IdParamsSchema, response: ClientOrganisationSchema }, async (_req, res) => {
     const organisation = await findOrganisation(dataSource.manager, labIdOf(res.locals.auth), (res.locals.params as { id: string }).id);
     if (!organisation) throw ApiError.notFound('Client organisation');
     res.json(organisation);
   });
 
-  registerRoute({
+  route({
     method: 'post',
     path: '/lab/client-organisations',
     tag,
@@ -52,8 +47,7 @@ export function clientOrganisationsRouter(): Router {
     body: CreateClientOrganisationRequestSchema,
     response: CreatedSchema,
     status: 201,
-  });
-  router.post('/', validate({ body: CreateClientOrganisationRequestSchema }), async (_req, res) => {
+  }, async (_req, res) => {
     const input = res.locals.body as CreateClientOrganisationRequest;
     const auth = res.locals.auth;
     const labId = labIdOf(auth);

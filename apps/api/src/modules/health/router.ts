@@ -1,13 +1,12 @@
-import { Router } from 'express';
+import type { Router } from 'express';
 import { HealthSchema, type Health } from '@ohmprint/contracts';
 import { dataSource } from '../../db/data-source';
-import { registerRoute } from '../../openapi/registry';
 import { API_VERSION } from '../../version';
+import { routeTable } from '../../core/route-table';
 
 export function healthRouter(): Router {
-  const router = Router();
-  registerRoute({ method: 'get', path: '/health', tag: 'Health', summary: 'Liveness and database reachability (503 when the database is down)', roles: [], response: HealthSchema });
-  router.get('/', async (_req, res) => {
+  const { router, route } = routeTable();
+  route({ method: 'get', path: '/health', tag: 'Health', summary: 'Liveness and database reachability (503 when the database is down)', roles: [], response: HealthSchema }, async (_req, res) => {
     let database: Health['database'] = 'ok';
     try {
       await dataSource.query('SELECT 1');

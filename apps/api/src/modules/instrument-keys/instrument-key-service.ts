@@ -7,7 +7,7 @@ import { recordAudit } from '../audit/record-audit';
 import { InstrumentKey } from './instrument-key.entity';
 
 const BASE32 = 'abcdefghijklmnopqrstuvwxyz234567';
-/** Characters after `ohm_live_` kept visible so a lab can tell its keys apart. */
+/** Characters after the prefix kept visible so a lab can tell its keys apart. */
 const VISIBLE = 6;
 
 /** 200 random bits as 40 base-32 characters: unguessable, and safe in headers and config files. */

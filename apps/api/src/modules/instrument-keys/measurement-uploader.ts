@@ -1,5 +1,5 @@
 import type { NextFunction, Request, Response } from 'express';
-import { INSTRUMENT_KEY_PREFIX } from '@ohmprint/contracts';
+import { isInstrumentKey } from '@ohmprint/contracts';
 import { labIdOf } from '../../core/tenancy';
 import { dataSource } from '../../db/data-source';
 import { requireRole } from '../auth/require-auth';
@@ -20,11 +20,11 @@ const analystOnly = requireRole('analyst');
 
 /**
  * Sign-in for the measurement upload route, the one route an instrument key opens: a bearer
- * token starting `ohm_live_` is a bench computer's key; anything else must be a signed-in analyst.
+ * token starting `ohmbench-` (or, for keys issued earlier, `ohm_live_`) is a bench computer's key; anything else must be a signed-in analyst.
  */
 export async function requireMeasurementUploader(req: Request, res: Response, next: NextFunction): Promise<void> {
   const token = req.headers.authorization?.match(/^Bearer\s+(\S+)$/i)?.[1];
-  if (token?.startsWith(INSTRUMENT_KEY_PREFIX)) {
+  if (token && isInstrumentKey(token)) {
     const key = await authenticateInstrumentKey(dataSource.manager, token);
     res.locals.uploader = { kind: 'instrument-key', keyId: key.keyId };
     res.locals.uploaderLabId = key.labId;

@@ -20,7 +20,7 @@ export function instrumentKeysRouter(): Router {
     res.json(await listInstrumentKeys(dataSource.manager, labIdOf(res.locals.auth)));
   });
 
-  registerRoute({ method: 'post', path: '/lab/instrument-keys', tag, summary: 'Issue a key for a bench computer; the full key (ohm_live_…) is shown in this answer only', roles: ['lab-admin'], body: CreateInstrumentKeySchema, response: IssuedInstrumentKeySchema, status: 201 });
+  registerRoute({ method: 'post', path: '/lab/instrument-keys', tag, summary: 'Issue a key for a bench computer; the full key (ohmbench-…) is shown in this answer only', roles: ['lab-admin'], body: CreateInstrumentKeySchema, response: IssuedInstrumentKeySchema, status: 201 });
   router.post('/instrument-keys', admin, validate({ body: CreateInstrumentKeySchema }), async (_req, res) => {
     const labId = labIdOf(res.locals.auth);
     const issued = await dataSource.transaction((m) => issueInstrumentKey(m, res.locals.auth, labId, (res.locals.body as CreateInstrumentKey).name));

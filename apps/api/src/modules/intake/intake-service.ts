@@ -7,7 +7,7 @@ import { appendCustody } from '../custody/append-custody';
 import { enqueueEmail } from '../mail/enqueue-email';
 import { refreshOrderStatus } from '../orders/order-progress';
 import { findLabSample, moveSample, requireSampleState } from '../samples/sample-access';
-import { samplePhotos } from '../samples/sample-views';
+import { sampleDetail, samplePhotos } from '../samples/sample-views';
 import { imageKind } from './image-kind';
 import { IntakePhoto } from './intake-photo.entity';
 import { SampleIntake } from './sample-intake.entity';
@@ -19,7 +19,7 @@ export async function recordArrival(manager: EntityManager, auth: AuthContext, l
   const sample = await findLabSample(manager, labId, sampleId, true);
   const arrivedAt = new Date(arrival.arrivedAt);
   if (arrivedAt.getTime() > Date.now() + 5 * 60_000) {
-    throw ApiError.badRequest('arrivedAt is in the future.', [{ field: 'arrivedAt', message: 'must not be in the future' }]);
+    throw ApiError.badRequest('The arrival time is in the future; enter when the parcel actually arrived.', [{ field: 'arrivedAt', message: 'must not be in the future' }]);
   }
   requireSampleState(sample, ['awaiting-arrival'], 'recording its arrival');
   await manager.insert(SampleIntake, { ...arrival, arrivedAt, sampleId, labId, recordedByUserId: auth.userId, recordedAt: new Date() });
@@ -74,14 +74,25 @@ export async function photoContent(manager: EntityManager, labId: string, sample
   return photo;
 }
 
-/** received → accepted, and the sample goes into storage (two custody links). */
+/**
+ * received → accepted, and the sample goes into storage (two custody links). A sample with intake
+ * warnings (seal, container, temperature, age) is accepted only with a reason, kept in the audit
+ * log and the custody link.
+ */
 export async function acceptSample(manager: EntityManager, auth: AuthContext, labId: string, sampleId: string, body: AcceptSample): Promise<void> {
   const sample = await findLabSample(manager, labId, sampleId, true);
   requireSampleState(sample, ['received'], 'accepting it');
+  const { intakeWarnings: warnings } = await sampleDetail(manager, labId, { id: sampleId });
+  if (warnings.length && !body.overrideReason) {
+    throw new ApiError(409, 'Intake warnings', `${sample.code} needs a second look before it is accepted: ${warnings.map((w) => w.message).join(' ')} ` +
+      'Give a reason to accept it anyway, or reject it.', { type: 'intake-warnings', errors: [...warnings, { field: 'overrideReason', message: 'is required to accept despite the warnings' }] });
+  }
   await moveSample(manager, sample, 'accepted', { storageLocation: body.storageLocation });
-  await appendCustody(manager, { labId, sampleId, kind: 'accepted', location: INTAKE_BENCH, reason: 'Condition acceptable for testing', actorUserId: auth.userId });
+  const acceptedBecause = warnings.length ? `Accepted despite: ${warnings.map((w) => w.message).join(' ')} Reason: ${body.overrideReason}` : 'Condition acceptable for testing';
+  await appendCustody(manager, { labId, sampleId, kind: 'accepted', location: INTAKE_BENCH, reason: acceptedBecause, actorUserId: auth.userId });
   await appendCustody(manager, { labId, sampleId, kind: 'stored', location: body.storageLocation, reason: 'Stored until measurement', actorUserId: auth.userId });
-  await recordAudit(manager, { labId, actorUserId: auth.userId, action: 'sample.accepted', subjectType: 'sample', subjectId: sampleId, details: { code: sample.code, storageLocation: body.storageLocation } });
+  await recordAudit(manager, { labId, actorUserId: auth.userId, action: 'sample.accepted', subjectType: 'sample', subjectId: sampleId, details: { code: sample.code, storageLocation: body.storageLocation,
+    ...(warnings.length ? { warnings: warnings.map((w) => w.message), overrideReason: body.overrideReason } : {}) } });
 }
 
 /** received → rejected; every client admin of the ordering organisation is told why. */

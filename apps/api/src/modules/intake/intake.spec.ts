@@ -118,6 +118,70 @@ describe('intake', () => {
     expect(milk.body.items[0]).toMatchObject({ turnaroundDays: 7, overdue: true });
     expect(milk.body.items[0].ageDays).toBeCloseTo(8, 0);
   });
+
+  it('sorts the work queue by due date, soonest first or last', async () => {
+    const analyst = await t.authFor('analyst');
+    const soonest = await request(t.app).get('/api/lab/samples?sort=due&dir=asc&pageSize=100').set(analyst);
+    const dues = soonest.body.items.map((i: { dueAt: string }) => Date.parse(i.dueAt));
+    expect(dues.length).toBeGreaterThan(2);
+    expect(dues).toEqual([...dues].sort((a, b) => a - b));
+    const latest = await request(t.app).get('/api/lab/samples?sort=due&dir=desc&pageSize=100').set(analyst);
+    expect(latest.body.items.map((i: { dueAt: string }) => Date.parse(i.dueAt))).toEqual([...dues].sort((a, b) => b - a));
+  });
+});
+
+describe('intake guardrails', () => {
+  it('asks for a reason before accepting warm, unsealed, old milk, and keeps the reason', async () => {
+    const intake = await t.authFor('intake-technician');
+    const id = await sampleId('OP-2DKE-7W');
+    await t.db.query(`UPDATE sample SET obtained_on = (now() - interval '20 days')::date WHERE id = $1`, [id]);
+    const arrived = await request(t.app).post(`/api/lab/samples/${id}/arrival`).set(intake)
+      .send({ ...arrival, temperatureC: 31, sealIntact: false, containerCondition: 'damaged' });
+    expect(arrived.status).toBe(200);
+    // Ohmprint's default for milk (common practice, stated as such): 0–8 °C on arrival, tested within 10 days.
+    expect(arrived.body.intakeWarnings).toEqual([
+      { field: 'sealIntact', message: 'The seal was broken on arrival.' },
+      { field: 'containerCondition', message: 'The container arrived damaged.' },
+      { field: 'temperatureC', message: 'It arrived at 31 °C, outside 0–8 °C for milk.' },
+      { field: 'obtainedOn', message: expect.stringMatching(/^It was obtained (19|20) days before arrival; milk is tested within 10 days\.$/) },
+    ]);
+
+    const refused = await request(t.app).post(`/api/lab/samples/${id}/accept`).set(intake).send({ storageLocation: 'Cold room 1' });
+    expect(refused.status).toBe(409);
+    expect(refused.body.type).toBe('urn:ohmprint:problem:intake-warnings');
+    expect(refused.body.detail).toContain('31 °C');
+    expect(refused.body.errors.map((e: { field: string }) => e.field)).toEqual(['sealIntact', 'containerCondition', 'temperatureC', 'obtainedOn', 'overrideReason']);
+    expect((await t.db.query('SELECT state FROM sample WHERE id = $1', [id]))[0].state).toBe('received');
+
+    const reason = 'Client confirmed by phone that this is the only bottle; tested as received.';
+    const accepted = await request(t.app).post(`/api/lab/samples/${id}/accept`).set(intake).send({ storageLocation: 'Cold room 1', overrideReason: reason });
+    expect(accepted.status).toBe(200);
+    const [audit] = await t.db.query(`SELECT details FROM audit_event WHERE action = 'sample.accepted' AND subject_id = $1`, [id]);
+    expect(audit.details).toMatchObject({ overrideReason: reason, warnings: expect.arrayContaining(['The seal was broken on arrival.']) });
+    const timeline = await request(t.app).get(`/api/lab/samples/${id}/custody`).set(intake);
+    expect(timeline.body.events.find((e: { kind: string }) => e.kind === 'accepted').reason).toContain(reason);
+  });
+
+  it('lets a lab admin set the lab’s own limits, says where the values come from, and keeps other labs apart', async () => {
+    const defaults = await request(t.app).get('/api/lab/intake-limits').set(await t.authFor('intake-technician'));
+    expect(defaults.status).toBe(200);
+    expect(defaults.body.source).toMatch(/common practice/);
+    expect(defaults.body.limits.find((l: { matrix: string }) => l.matrix === 'wine')).toEqual({ matrix: 'wine', minArrivalC: 2, maxArrivalC: 25, maxAgeDays: 3650 });
+
+    const admin = await t.authFor('lab-admin');
+    const bad = await request(t.app).put('/api/lab/intake-limits').set(admin).send({ limits: [{ matrix: 'wine', minArrivalC: 20, maxArrivalC: 10, maxAgeDays: 30 }] });
+    expect(bad.status).toBe(400);
+    expect(bad.body.errors).toEqual([expect.objectContaining({ field: 'limits.0.maxArrivalC' })]);
+    expect((await request(t.app).put('/api/lab/intake-limits').set(await t.authFor('analyst')).send({ limits: [] })).status).toBe(403);
+
+    const set = await request(t.app).put('/api/lab/intake-limits').set(admin).send({ limits: [{ matrix: 'wine', minArrivalC: 8, maxArrivalC: 18, maxAgeDays: 400 }] });
+    expect(set.status).toBe(200);
+    expect(set.body.source).toBe('Set by the lab.');
+    expect(set.body.limits.find((l: { matrix: string }) => l.matrix === 'wine')).toMatchObject({ minArrivalC: 8, maxArrivalC: 18 });
+    expect(set.body.limits.find((l: { matrix: string }) => l.matrix === 'milk')).toMatchObject({ minArrivalC: 0, maxArrivalC: 8 });
+    const other = await request(t.app).get('/api/lab/intake-limits').set(await t.authFor('lab-admin', 'marlow'));
+    expect(other.body.limits.find((l: { matrix: string }) => l.matrix === 'wine')).toMatchObject({ minArrivalC: 2, maxArrivalC: 25 });
+  });
 });
 
 describe('chain of custody is append-only', () => {

@@ -35,6 +35,7 @@ export async function previewInvitation(token: string): Promise<InvitationPrevie
   const organisation = invitation.clientOrganisationId ? await dataSource.manager.findOneBy(ClientOrganisation, { id: invitation.clientOrganisationId }) : null;
   return {
     email: invitation.email,
+    displayName: invitation.displayName,
     labName: lab.name,
     clientOrganisationName: organisation?.name ?? null,
     roles: invitation.roles,

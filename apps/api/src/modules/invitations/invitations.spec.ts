@@ -21,7 +21,7 @@ describe('staff invitations', () => {
     expect(url).toMatch(/^http:\/\/127\.0\.0\.1:4300\/lab\/accept-invitation\?token=/);
 
     const preview = await request(t.app).post('/api/invitations/preview').send({ token });
-    expect(preview.body).toMatchObject({ email: 'new.analyst@calder.test', labName: 'Calder Analytical', clientOrganisationName: null, roles: ['analyst', 'reviewer'] });
+    expect(preview.body).toMatchObject({ email: 'new.analyst@calder.test', displayName: null, labName: 'Calder Analytical', clientOrganisationName: null, roles: ['analyst', 'reviewer'] });
 
     const accepted = await request(t.app).post('/api/invitations/accept').send({ token, displayName: 'Nova Analyst', password: PASSWORD });
     expect(accepted.status).toBe(201);
@@ -139,5 +139,16 @@ describe('client onboarding', () => {
       .send({ name: 'sunvale juice works', firstAdmin: { email: 'dup@sunvale.test' } });
     expect(res.status).toBe(409);
     expect(res.body.errors).toEqual([{ field: 'name', message: 'is already used by another client organisation' }]);
+  });
+
+  it('shows the invitee the name the lab typed for them', async () => {
+    const created = await request(t.app)
+      .post('/api/lab/client-organisations')
+      .set(await t.authFor('lab-admin'))
+      .send({ name: 'Fernhill Vinegar Co (demo)', firstAdmin: { email: 'ivo@fernhill.test', displayName: 'Ivo Fern' } });
+    expect(created.status).toBe(201);
+    const { token } = linkToken((await latestEmailTo(t.db, 'ivo@fernhill.test')).text);
+    const preview = await request(t.app).post('/api/invitations/preview').send({ token });
+    expect(preview.body).toMatchObject({ email: 'ivo@fernhill.test', displayName: 'Ivo Fern' });
   });
 });

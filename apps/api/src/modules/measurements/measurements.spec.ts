@@ -1,3 +1,4 @@
+import { createHash } from 'node:crypto';
 import request from 'supertest';
 import { seedLabDemo } from '../../../../../docker-free-scripts/seed/lab-demo';
 import { brokenDemoFile, demoFiles } from '../../../../../docker-free-scripts/seed/lab-demo-files';
@@ -129,7 +130,7 @@ describe('instrument keys', () => {
     const issued = await request(t.app).post('/api/lab/instrument-keys').set(admin).send({ name: 'Bench PC 1' });
     expect(issued.status).toBe(201);
     const secret: string = issued.body.secret;
-    expect(secret).toMatch(/^ohm_live_[a-z2-7]{40}$/);
+    expect(secret).toMatch(/^ohmbench-[a-z2-7]{40}$/);
     expect(secret.startsWith(issued.body.key.prefix)).toBe(true);
     const [stored] = await t.db.query('SELECT secret_sha256 FROM instrument_key WHERE id = $1', [issued.body.key.id]);
     expect(stored.secret_sha256).toMatch(/^[0-9a-f]{64}$/);
@@ -149,6 +150,17 @@ describe('instrument keys', () => {
     expect((await request(t.app).post(`/api/lab/instrument-keys/${issued.body.key.id}/revoke`).set(admin)).status).toBe(200);
     const refused = await upload('/api/lab/samples/OP-9RWD-6F/measurements', key, filesOf('OP-9RWD-6F').slice(0, 1), '21');
     expect(refused.status).toBe(401);
+  });
+
+  it('still accepts a key issued with the earlier prefix until it is revoked', async () => {
+    const admin = await t.authFor('lab-admin');
+    const issued = await request(t.app).post('/api/lab/instrument-keys').set(admin).send({ name: 'Bench PC from before' });
+    const earlier = `ohm_live_${'b'.repeat(40)}`;
+    await t.db.query('UPDATE instrument_key SET secret_sha256 = $2, prefix = $3 WHERE id = $1',
+      [issued.body.key.id, createHash('sha256').update(earlier).digest('hex'), earlier.slice(0, 15)]);
+    const posted = await upload('/api/lab/samples/OP-9RWD-6F/measurements', { Authorization: `Bearer ${earlier}` }, filesOf('OP-9RWD-6F').slice(0, 1), '21');
+    expect(posted.status).toBe(201);
+    expect(posted.body.saved[0]).toMatchObject({ via: 'instrument-key' });
   });
 
   it('keeps a lab’s key out of another lab’s samples', async () => {

@@ -61,7 +61,7 @@ export function measurementsRouter(): Router {
     path: '/lab/samples/:id/measurements',
     tag,
     summary:
-      'Upload instrument exports, one file per replicate (multipart field "files"). Signed-in analysts, or a bench computer with "Authorization: Bearer ohm_live_…" (an instrument key; this is the only route a key opens). Unreadable files are listed with file name, line and column; the readable ones are still saved.',
+      'Upload instrument exports, one file per replicate (multipart field "files"). Signed-in analysts, or a bench computer with "Authorization: Bearer ohmbench-…" (an instrument key; this is the only route a key opens). Unreadable files are listed with file name, line and column; the readable ones are still saved.',
     roles: ['analyst'],
     params: UploadParamsSchema,
     body: UploadBodySchema,

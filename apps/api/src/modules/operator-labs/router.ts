@@ -1,4 +1,4 @@
-import { Router } from 'express';
+import type { Router } from 'express';
 import { z } from 'zod';
 import {
   ChangeLabStatusRequestSchema,
@@ -13,40 +13,34 @@ import {
   type ListQuery,
 } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
-import { validate } from '../../core/validate';
 import { dataSource } from '../../db/data-source';
-import { registerRoute } from '../../openapi/registry';
 import { recordAudit } from '../audit/record-audit';
 import { RefreshSession } from '../auth/refresh-session.entity';
-import { requireRole } from '../auth/require-auth';
 import { toInvitationDto } from '../invitations/invitation-dto';
 import { sendInvitation } from '../invitations/send-invitation';
 import { Lab } from '../labs/lab.entity';
 import { IsNull } from 'typeorm';
 import { findLab, listLabs } from './lab-queries';
+import { routeTable } from '../../core/route-table';
 
 const tag = 'Platform: labs';
 const roles = ['platform-operator'] as const;
 const CreatedSchema = z.object({ lab: LabSummarySchema, invitation: InvitationSchema });
 
 export function operatorLabsRouter(): Router {
-  const router = Router();
-  router.use(requireRole(...roles));
+  const { router, route } = routeTable();
 
-  registerRoute({ method: 'get', path: '/operator/labs', tag, summary: 'List lab tenants', roles, query: LabListQuerySchema, response: pageOf(LabSummarySchema) });
-  router.get('/', validate({ query: LabListQuerySchema }), async (_req, res) => {
+  route({ method: 'get', path: '/operator/labs', tag, summary: 'List lab tenants', roles, query: LabListQuerySchema, response: pageOf(LabSummarySchema) }, async (_req, res) => {
     res.json(await listLabs(dataSource.manager, res.locals.query as ListQuery));
   });
 
-  registerRoute({ method: 'get', path: '/operator/labs/:id', tag, summary: 'One lab tenant', roles, params: IdParamsSchema, response: LabSummarySchema });
-  router.get('/:id', validate({ params: IdParamsSchema }), async (_req, res) => {
+  route({ method: 'get', path: '/operator/labs/:id', tag, summary: 'One lab tenant', roles, params: IdParamsSchema, response: LabSummarySchema }, async (_req, res) => {
     const lab = await findLab(dataSource.manager, (res.locals.params as { id: string }).id);
     if (!lab) throw ApiError.notFound('Lab');
     res.json(lab);
   });
 
-  registerRoute({ method: 'post', path: '/operator/labs', tag, summary: 'Create a lab tenant and invite its first lab admin', roles, body: CreateLabRequestSchema, response: CreatedSchema, status: 201 });
-  router.post('/', validate({ body: CreateLabRequestSchema }), async (_req, res) => {
+  route({ method: 'post', path: '/operator/labs', tag, summary: 'Create a lab tenant and invite its first lab admin', roles, body: CreateLabRequestSchema, response: CreatedSchema, status: 201 }, async (_req, res) => {
     const input = res.locals.body as CreateLabRequest;
     const auth = res.locals.auth;
     const created = await dataSource.transaction(async (manager) => {
@@ -80,7 +74,7 @@ export function operatorLabsRouter(): Router {
     res.status(201).json(created);
   });
 
-  registerRoute({
+  route({
     method: 'patch',
     path: '/operator/labs/:id',
     tag,
@@ -89,8 +83,7 @@ export function operatorLabsRouter(): Router {
     params: IdParamsSchema,
     body: ChangeLabStatusRequestSchema,
     response: LabSummarySchema,
-  });
-  router.patch('/:id', validate({ params: IdParamsSchema, body: ChangeLabStatusRequestSchema }), async (_req, res) => {
+  }, async (_req, res) => {
     const { id } = res.locals.params as { id: string };
     const { status, reason } = res.locals.body as ChangeLabStatusRequest;
     const auth = res.locals.auth;

@@ -1,5 +1,6 @@
 import type { EntityManager } from 'typeorm';
-import type { IntakePhoto, Page, SampleDetail, WorkQueueItem, WorkQueueQuery } from '@ohmprint/contracts';
+import type { IntakeLimit, IntakePhoto, Page, SampleDetail, WorkQueueItem, WorkQueueQuery } from '@ohmprint/contracts';
+import { intakeWarnings, limitsFrom } from '../intake/intake-guardrails';
 import { ApiError } from '../../core/api-error';
 import { escapeLike, pageParams, toPage } from '../../core/paging';
 import { sampleTiming } from './sample-timing';
@@ -20,6 +21,8 @@ interface QueueRow {
 const QUEUE_SORT: Record<WorkQueueQuery['sort'], string> = {
   // Oldest first is "age descending", i.e. the clock's start ascending.
   age: 'COALESCE(s.received_at, o.placed_at)',
+  // The turnaround target is the lab's, so the due date orders as the clock's start does.
+  due: 'COALESCE(s.received_at, o.placed_at)',
   code: 's.code',
   state: 's.state',
   product: 'lower(p.name)',
@@ -110,6 +113,7 @@ interface DetailRow {
   client_id: string;
   client_name: string;
   turnaround_days: number;
+  intake_limits: IntakeLimit[] | null;
   intake: (Omit<NonNullable<SampleDetail['intake']>, 'recordedBy'> & { recordedById: string; recordedByName: string }) | null;
 }
 
@@ -121,7 +125,7 @@ export async function sampleDetail(manager: EntityManager, labId: string, where:
             s.label_text, s.claimed_lot, s.storage_location, s.rejection_reason, s.received_at,
             o.id AS order_id, o.placed_at, o.credits_reserved, pb.id AS placed_by_id, pb.display_name AS placed_by_name,
             p.id AS product_id, p.name AS product_name, p.matrix, co.id AS client_id, co.name AS client_name,
-            l.turnaround_target_days AS turnaround_days,
+            l.turnaround_target_days AS turnaround_days, l.intake_limits,
             CASE WHEN i.sample_id IS NULL THEN NULL ELSE json_build_object(
               'carrier', i.carrier, 'trackingNumber', i.tracking_number,
               'arrivedAt', to_char(i.arrived_at AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"'),
@@ -159,6 +163,9 @@ export async function sampleDetail(manager: EntityManager, labId: string, where:
     product: { id: r.product_id, name: r.product_name, matrix: r.matrix },
     clientOrganisation: { id: r.client_id, name: r.client_name },
     intake: r.intake ? { ...intake, recordedBy: { id: recordedById, displayName: recordedByName } } : null,
+    intakeWarnings: r.intake
+      ? intakeWarnings({ ...intake, arrivedAt: new Date(intake.arrivedAt), obtainedOn: r.obtained_on, matrix: r.matrix }, limitsFrom(r.intake_limits))
+      : [],
     photos,
     rejectionReason: r.rejection_reason,
     storageLocation: r.storage_location,

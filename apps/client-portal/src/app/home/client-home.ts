@@ -3,13 +3,14 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { RouterLink } from '@angular/router';
 import { ScreeningCaution, Session } from '@ohmprint/ui';
+import { CreditSummary } from '../credits/credit-summary';
 import { OpenOrders } from '../orders/open-orders';
 import { LatestReports } from '../reports/latest-reports';
 
 @Component({
   selector: 'ohm-client-home',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [RouterLink, MatButtonModule, MatIconModule, ScreeningCaution, OpenOrders, LatestReports],
+  imports: [RouterLink, MatButtonModule, MatIconModule, ScreeningCaution, CreditSummary, OpenOrders, LatestReports],
   templateUrl: './client-home.html',
   styleUrl: './client-home.scss',
 })

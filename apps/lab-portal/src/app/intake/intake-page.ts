@@ -11,8 +11,8 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { ActivatedRoute, RouterLink } from '@angular/router';
-import { CONTAINER_CONDITIONS, SampleCodeSchema, type CustodyEvent, type SampleDetail } from '@ohmprint/contracts';
-import { ApiProblem, Notice, Notifier, SampleStateChip, showFieldErrors } from '@ohmprint/ui';
+import { CONTAINER_CONDITION_LABELS, CONTAINER_CONDITIONS, SampleCodeSchema, type CustodyEvent, type SampleDetail } from '@ohmprint/contracts';
+import { ApiProblem, Notice, Notifier, SAMPLE_STATE_LOOK, SampleStateChip, showFieldErrors } from '@ohmprint/ui';
 import { CustodyTimeline } from './custody-timeline';
 import { IntakeData } from './intake-data';
 import { IntakePhotos } from './intake-photos';
@@ -43,6 +43,8 @@ export class IntakePage implements OnInit, AfterViewInit {
   private readonly fb = inject(FormBuilder).nonNullable;
 
   protected readonly conditions = CONTAINER_CONDITIONS;
+  protected readonly conditionLabels = CONTAINER_CONDITION_LABELS;
+  protected readonly stateLook = SAMPLE_STATE_LOOK;
   protected readonly code = new FormControl('', { nonNullable: true });
   protected readonly scan = new FormGroup({ code: this.code });
   protected readonly codeError = signal<string | null>(null);
@@ -63,7 +65,10 @@ export class IntakePage implements OnInit, AfterViewInit {
     volumeMl: [750, [Validators.required, Validators.min(0.1), Validators.max(100000)]],
     notes: ['', Validators.maxLength(2000)],
   });
-  protected readonly storage = this.fb.group({ storageLocation: ['', [Validators.required, Validators.maxLength(200)]] });
+  protected readonly storage = this.fb.group({
+    storageLocation: ['', [Validators.required, Validators.maxLength(200)]],
+    overrideReason: ['', Validators.maxLength(2000)],
+  });
 
   ngOnInit(): void {
     const code = this.route.snapshot.queryParamMap.get('code');
@@ -121,7 +126,9 @@ export class IntakePage implements OnInit, AfterViewInit {
     const s = this.sample();
     if (!s || this.storage.invalid) return;
     this.saving.set(true);
-    this.data.accept(s.id, this.storage.getRawValue()).subscribe({
+    const { storageLocation, overrideReason } = this.storage.getRawValue();
+    const body = s.intakeWarnings.length ? { storageLocation, overrideReason } : { storageLocation };
+    this.data.accept(s.id, body).subscribe({
       next: (updated) => this.decided(`${updated.code} accepted and stored at ${updated.storageLocation}.`),
       error: (e: unknown) => this.failed(e, this.storage),
     });

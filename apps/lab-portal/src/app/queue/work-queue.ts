@@ -71,11 +71,14 @@ export class WorkQueue implements AfterViewInit {
     return Math.min(100, (item.ageDays / Math.max(1, item.turnaroundDays)) * 100);
   }
 
+  /** Where a sample is worked on: the intake bench until it is accepted, its own page after. */
+  protected linkOf(item: WorkQueueItem): { path: string[]; query: Record<string, string> | null } {
+    if (item.state === 'awaiting-arrival' || item.state === 'received') return { path: ['/intake'], query: { code: item.code } };
+    return { path: ['/samples', item.id], query: null };
+  }
+
   protected open(item: WorkQueueItem): void {
-    if (item.state === 'awaiting-arrival' || item.state === 'received') {
-      void this.router.navigate(['/intake'], { queryParams: { code: item.code } });
-    } else {
-      void this.router.navigate(['/samples', item.id]);
-    }
+    const { path, query } = this.linkOf(item);
+    void this.router.navigate(path, query ? { queryParams: query } : {});
   }
 }
