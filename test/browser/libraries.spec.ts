@@ -122,7 +122,7 @@ describe('a library built and published in the lab portal', () => {
     // published, the version offers retiring instead of publishing
     await page.getByRole('button', { name: 'Retire' }).waitFor();
     await page.getByText('Lognormal fitted by maximum likelihood').waitFor();
-    await page.getByText(/95 % percentile bootstrap, 2000 resamples/).waitFor();
+    await page.getByText(/95\s?% percentile bootstrap, 2000 resamples/).waitFor();
     await bothSchemes(page, 'published');
     await context.close();
   });

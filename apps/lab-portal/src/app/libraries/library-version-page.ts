@@ -272,6 +272,7 @@ export class LibraryVersionPage {
       this.version.set(v);
       this.notifier.success(`${l.lotCode} ${l.included ? 'excluded' : 'included'}; the draft was recalibrated.`);
       this.data.overview(this.id()).subscribe((o) => this.overview.set(o));
+      this.data.crossProduct(this.id()).subscribe((x) => this.cross.set(x));
       this.loadLots();
     });
   }
