@@ -14,7 +14,7 @@ import { LibrariesData } from './libraries-data';
 type NumberKey = Exclude<keyof MethodSettings, 'model' | 'thresholdEstimator'>;
 const NUMBER_FIELDS: NumberKey[] = [
   'bandMinHz', 'bandMaxHz', 'subBandMinHz', 'subBandMaxHz', 'gridPoints', 'referenceTemperatureC', 'temperatureCoefficientPerC', 'minimumReplicates',
-  'replicateDistanceLimit', 'kkResidualLimitPercent', 'lowerQuantile', 'upperQuantile', 'maxThresholdIntervalWidth', 'minimumLots',
+  'replicateDistanceLimit', 'kkResidualLimitPercent', 'temperatureMismatchLimitC', 'lowerQuantile', 'upperQuantile', 'maxThresholdIntervalWidth', 'minimumLots',
 ];
 const OPTIONAL: NumberKey[] = ['subBandMinHz', 'subBandMaxHz', 'maxThresholdIntervalWidth'];
 
@@ -207,7 +207,7 @@ export class MethodsPage {
     this.basedOn.set(null);
     this.fill({
       bandMinHz: 100, bandMaxHz: 500000, gridPoints: 41, referenceTemperatureC: 20, temperatureCoefficientPerC: 0.02, lowerQuantile: 0.95, upperQuantile: 0.99,
-      minimumLots: 5, minimumReplicates: 2, model: 'cole-cole', kkResidualLimitPercent: 2, replicateDistanceLimit: 0.01, thresholdEstimator: 'lognormal-ml', maxThresholdIntervalWidth: 1,
+      minimumLots: 5, minimumReplicates: 2, model: 'cole-cole', kkResidualLimitPercent: 2, replicateDistanceLimit: 0.01, temperatureMismatchLimitC: 0.5, thresholdEstimator: 'lognormal-ml', maxThresholdIntervalWidth: 1,
     });
     this.editing.set(true);
   }
