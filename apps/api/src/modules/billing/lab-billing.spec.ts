@@ -68,7 +68,11 @@ describe('prices and credit packs (lab admin)', () => {
 
   it('refuses bad pack input with field errors', async () => {
     const admin = await t.authFor('lab-admin');
-    const bad = await request(t.app).post('/api/lab/credit-packs').set(admin).send({ name: 'x\u0000y', credits: 0, price: 12.5, currency: 'euro' });
+    // A NUL byte is refused before anything else is read, naming its field.
+    const nul = await request(t.app).post('/api/lab/credit-packs').set(admin).send({ name: 'x\u0000y', credits: 5, price: 1250, currency: 'eur' });
+    expect(nul.status).toBe(400);
+    expect(nul.body.errors.map((e: { field: string }) => e.field)).toEqual(['name']);
+    const bad = await request(t.app).post('/api/lab/credit-packs').set(admin).send({ name: '', credits: 0, price: 12.5, currency: 'euro' });
     expect(bad.status).toBe(400);
     expect(bad.body.errors.map((e: { field: string }) => e.field).sort()).toEqual(['credits', 'currency', 'name', 'price']);
     const huge = await request(t.app).post('/api/lab/credit-packs').set(admin).send({ name: 'A'.repeat(5000), credits: 1, price: 1, currency: 'eur' });
@@ -171,7 +175,7 @@ describe('receipt e-mail', () => {
     expect(mail.text).toContain('Calder Analytical received your payment');
     expect(mail.text).toContain('£31.50');
     expect(mail.text).toContain('Receipt pack: 2 test credits');
-    expect(mail.text).toMatch(/reply to admin@calder\.test/);
+    expect(mail.text).toMatch(/reply to lab@calder\.test/);
     expect(mail.html).toContain('<table');
     expect(mail.html).not.toMatch(/<img/i);
   });
