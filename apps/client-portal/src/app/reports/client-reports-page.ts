@@ -63,7 +63,7 @@ import { reportStanding } from './report-standing';
         </ng-container>
         <ng-container matColumnDef="download">
           <th mat-header-cell *matHeaderCellDef><span class="cdk-visually-hidden">Download</span></th>
-          <td mat-cell *matCellDef="let r"><button mat-stroked-button type="button" [attr.aria-label]="'Download ' + r.number + (r.status === 'issued' ? '' : ' (' + statusOf(r).label + ')')" (click)="data.download(r)"><mat-icon>download</mat-icon>{{ r.status === 'issued' ? 'PDF' : r.status === 'revoked' ? 'Revoked PDF' : 'Old PDF' }}</button></td>
+          <td mat-cell *matCellDef="let r"><button mat-stroked-button type="button" [attr.aria-label]="pdfLabel(r) + ' of ' + r.number" (click)="data.download(r)"><mat-icon>download</mat-icon>{{ pdfLabel(r) }}</button></td>
         </ng-container>
         <tr mat-header-row *matHeaderRowDef="columns"></tr>
         <tr mat-row *matRowDef="let row; columns: columns"></tr>
@@ -90,6 +90,11 @@ export class ClientReportsPage implements AfterViewInit {
   private readonly sort = viewChild.required(MatSort);
   private readonly paginator = viewChild.required(MatPaginator);
   protected readonly columns = ['number', 'sample', 'verdict', 'status', 'issuedAt', 'download'];
+
+  /** The button's words, also the start of its accessible name (what is seen is what is said). */
+  protected pdfLabel(r: { status: string }): string {
+    return r.status === 'issued' ? 'PDF' : r.status === 'revoked' ? 'Revoked PDF' : 'Old PDF';
+  }
   protected readonly list = new ServerList<ReportSummary>();
   protected readonly search = new Subject<string>();
 
