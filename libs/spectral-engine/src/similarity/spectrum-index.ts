@@ -153,8 +153,13 @@ class PackedSpectrumIndex implements SpectrumIndex {
     const bestSum = new Float64Array(wanted);
     let found = 0;
     let limit = Infinity;
-    /** Keeps the best `wanted` by (sum, position): ties go to the lower library position. */
-    const offer = (r: number, exact: number): void => {
+    /**
+     * Keeps the best `wanted` by (distance, position): ties go to the lower library position. Ranked
+     * by the distance itself (sum ÷ terms), as a full scan ranks: two sums one ulp apart can be the
+     * same distance, and then position decides.
+     */
+    const offer = (r: number, sum: number): void => {
+      const exact = sum / width;
       if (found === wanted && (exact > bestSum[wanted - 1] || (exact === bestSum[wanted - 1] && r > bestIndex[wanted - 1]))) return;
       let slot = found < wanted ? found++ : wanted - 1;
       while (slot > 0 && (bestSum[slot - 1] > exact || (bestSum[slot - 1] === exact && bestIndex[slot - 1] > r))) {
@@ -164,7 +169,7 @@ class PackedSpectrumIndex implements SpectrumIndex {
       }
       bestSum[slot] = exact;
       bestIndex[slot] = r;
-      if (found === wanted) limit = bestSum[wanted - 1];
+      if (found === wanted) limit = bestSum[wanted - 1] * width;
     };
     // Seed the k-th best with the spectra whose pivot bound is lowest, so the pass below starts with
     // a tight limit whatever the library's order.
@@ -189,10 +194,9 @@ class PackedSpectrumIndex implements SpectrumIndex {
         }
       }
       if (partial > cut || isSeeded.has(r)) continue;
-      const exact = this.exactSum(query, r);
-      if (exact <= limit) offer(r, exact);
+      offer(r, this.exactSum(query, r));
     }
-    return Array.from({ length: found }, (_, i) => ({ index: bestIndex[i], distance: bestSum[i] / width }));
+    return Array.from({ length: found }, (_, i) => ({ index: bestIndex[i], distance: bestSum[i] }));
   }
 
   /**
