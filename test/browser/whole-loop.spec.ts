@@ -305,7 +305,7 @@ describe('one suspect sample, from order to verified report', () => {
     await reports.getByRole('button', { name: `More for ${number}` }).click();
     await page.getByRole('menuitem', { name: 'Amend…' }).click();
     const amend = page.getByRole('dialog', { name: `Amend report ${number}?` });
-    await amend.getByLabel('Corrected remarks').fill(`${REMARKS} Claimed lot checked against the label.`);
+    await amend.getByLabel('Remarks (the current ones, to correct)').fill(`${REMARKS} Claimed lot checked against the label.`);
     await amend.getByLabel('Reason (printed and shown on verification)').fill('Remarks completed (invented demo amendment).');
     await screenshotWhole(page, 'whole-loop-07a-amend-dialog');
     await amend.getByRole('button', { name: 'Issue amendment' }).click();
