@@ -153,9 +153,13 @@ describe('check orders', () => {
     expect(sample).toMatchObject({ kind: 'check', credits: 1, creditState: 'reserved', description: { claimedLot: 'L24-140' } });
     expect(await balance()).toEqual({ available: before.available - 1, reserved: before.reserved + 1 });
     expect(await ledgerFor(order.id)).toEqual([{ kind: 'reserve', available_change: -1, reserved_change: 1, sample_id: sample.id }]);
-    const [mail] = await t.db.query(`SELECT to_address, html_body, text_body FROM email_outbox WHERE subject LIKE 'Order placed%' AND text_body LIKE $1`, [`%${sample.code}%`]);
-    expect(mail).toMatchObject({ to_address: 'admin@hollinridge.test' });
-    expect(mail.html_body).toContain(`<code>${sample.code}</code>`);
+    const mails: { to_address: string; html_body: string; reply_to: string | null }[] = await t.db.query(
+      `SELECT to_address, html_body, reply_to FROM email_outbox WHERE subject LIKE 'Order placed%' AND text_body LIKE $1`, [`%${sample.code}%`]);
+    const mail = mails.find((m) => m.to_address === 'admin@hollinridge.test');
+    expect(mail?.html_body).toContain(`<code>${sample.code}</code>`);
+    expect(mail?.reply_to).toBe('lab@calder.test');
+    const [notice] = await t.db.query(`SELECT event, link FROM client_notification WHERE event = 'order-placed' AND link = $1`, [`/orders/${order.id}`]);
+    expect(notice).toEqual({ event: 'order-placed', link: `/orders/${order.id}` });
 
     const shipped = await request(t.app).post(`/api/client/orders/${order.id}/shipment`).set(await admin()).send({ carrier: 'Invented Parcel Ltd', trackingNumber: 'IPL-42' });
     expect(shipped.body.shipment).toMatchObject({ carrier: 'Invented Parcel Ltd', trackingNumber: 'IPL-42' });
