@@ -4,8 +4,13 @@
 ensure_node_modules
 cd "$ROOT"
 npm run -s bench:engine
-if [ -f test/bench/api-bench.ts ]; then
+# every test/bench/api-*.ts file runs in name order against the local stack
+api_benches=(test/bench/api-*.ts)
+if [ -f "${api_benches[0]}" ]; then
   ensure_secrets; start_postgres; start_mail_catcher; start_payment_fake
   build_if_changed api build:api apps/api libs docker-free-scripts
-  npx tsx test/bench/api-bench.ts
+  for bench in "${api_benches[@]}"; do
+    log "bench: $bench"
+    npx tsx "$bench"
+  done
 fi
