@@ -24,6 +24,7 @@ import { methodsRouter } from './libraries/methods.router';
 import { libraryBuildRouter } from './libraries/library-build.router';
 import { analysesRouter } from './analyses/router';
 import { reviewsRouter } from './reviews/router';
+import { reportIssuanceRouter } from './reviews/report-issuance.router';
 import { clientOrdersRouter } from './orders/router';
 import { clientOrderingRouter } from './orders/client-ordering.router';
 import { clientBillingRouter } from './billing/client-billing.router';
@@ -36,6 +37,7 @@ import { validationRouter } from './validation/router';
 export function apiRoutes(): Router {
   const api = Router();
   api.use(healthRouter());
+  api.use(reportIssuanceRouter());
   api.use('/auth', authRouter());
   api.use('/invitations', invitationsRouter());
   api.use('/me', meRouter());

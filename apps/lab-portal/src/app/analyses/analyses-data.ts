@@ -71,6 +71,16 @@ export class AnalysesData {
       .pipe(map((r) => ApprovalResultSchema.parse(r)));
   }
 
+  /** Where the approved analysis's report is (issuing, issued or failed); the review page polls it. */
+  issuance(id: string): Observable<ApprovalResult> {
+    return this.http.get(`/api/lab/analyses/${id}/issuance`, { context: quietRequest() }).pipe(map((r) => ApprovalResultSchema.parse(r)));
+  }
+
+  /** Queues a failed issuance again. */
+  retryIssuance(id: string): Observable<ApprovalResult> {
+    return this.http.post(`/api/lab/analyses/${id}/issuance/retry`, {}, { context: quietRequest() }).pipe(map((r) => ApprovalResultSchema.parse(r)));
+  }
+
   returnToAnalyst(id: string, comments: string): Observable<Analysis> {
     return this.http
       .post(`/api/lab/analyses/${id}/return`, { comments }, { context: quietRequest() })
