@@ -34,6 +34,8 @@ export interface LabelRequest {
   readonly height: number;
   /** Sides to try first, best first. Default: right, left, above, below, then the diagonals. */
   readonly sides?: readonly LabelSide[];
+  /** Distance from the anchor to the box on its preferred sides (clear of a marker's radius). Default: the gap. */
+  readonly offset?: number;
 }
 
 export interface PlacedLabel extends LabelRect {
@@ -142,6 +144,7 @@ export function placeLabels(labels: readonly LabelRequest[], bounds: LabelRect, 
       continue;
     }
     const sides = label.sides && label.sides.length > 0 ? label.sides : DEFAULT_SIDES;
+    const offset = Number.isFinite(label.offset) ? Math.max(0, label.offset!) : gap;
     let chosen: { r: LabelRect; side: LabelSide | 'moved' } | null = null;
 
     // 1 and 2: preferred sides, then the same sides stacked up or down by whole label heights.
@@ -149,7 +152,7 @@ export function placeLabels(labels: readonly LabelRequest[], bounds: LabelRect, 
       const shifts = step === 0 ? [0] : [step, -step];
       for (const shift of shifts) {
         for (const side of sides) {
-          const p = sideBox(side, ax, ay, w, h, gap);
+          const p = sideBox(side, ax, ay, w, h, offset);
           const r = { x: p.x, y: p.y + shift * (h + gap), width: w, height: h };
           if (fits(r, gap / 2, true)) {
             chosen = { r, side };
@@ -163,7 +166,7 @@ export function placeLabels(labels: readonly LabelRequest[], bounds: LabelRect, 
     if (!chosen) {
       for (const avoid of [true, false]) {
         for (const pad of [gap / 2, 0]) {
-          const r = nearestFree(ax, ay, w, h, bounds, taken, avoid ? obstacles : [], pad, fits, avoid);
+          const r = nearestFree(ax, ay, w, h, offset, bounds, taken, avoid ? obstacles : [], pad, fits, avoid);
           if (r) {
             chosen = { r, side: 'moved' };
             break;
@@ -178,7 +181,7 @@ export function placeLabels(labels: readonly LabelRequest[], bounds: LabelRect, 
       continue;
     }
     taken.push(chosen.r);
-    const touching = distanceTo(chosen.r, ax, ay) <= gap * 1.5 + EPS;
+    const touching = distanceTo(chosen.r, ax, ay) <= Math.max(gap, offset) * 1.5 + EPS;
     const end = nearestPoint(chosen.r, ax, ay);
     out.push({
       id: label.id,
@@ -196,6 +199,7 @@ function nearestFree(
   ay: number,
   w: number,
   h: number,
+  offset: number,
   bounds: LabelRect,
   taken: readonly LabelRect[],
   obstacles: readonly LabelRect[],
@@ -207,8 +211,8 @@ function nearestFree(
   // it meets the top bound or a box's bottom edge, and stays free; so these x and y values reach
   // every free region. The mirrored edges and the anchor itself give positions nearer the anchor.
   const blockers = [...taken.map((t) => ({ r: t, pad })), ...obstacles.map((o) => ({ r: o, pad: 0 }))];
-  const xs = new Set<number>([bounds.x, bounds.x + bounds.width - w, ax - w / 2, ax + 3, ax - 3 - w]);
-  const ys = new Set<number>([bounds.y, bounds.y + bounds.height - h, ay - h / 2]);
+  const xs = new Set<number>([bounds.x, bounds.x + bounds.width - w, ax - w / 2, ax + offset, ax - offset - w]);
+  const ys = new Set<number>([bounds.y, bounds.y + bounds.height - h, ay - h / 2, ay - offset - h, ay + offset]);
   for (const { r, pad: p } of blockers) {
     xs.add(r.x + r.width + 2 * p);
     xs.add(r.x - w - 2 * p);
