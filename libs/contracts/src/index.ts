@@ -17,3 +17,4 @@ export * from './lab/reports';
 export * from './billing';
 export * from './notifications';
 export * from './format';
+export * from './layout';
