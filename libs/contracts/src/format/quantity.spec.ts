@@ -54,6 +54,9 @@ describe('formatQuantity', () => {
     expect(quantityText(125000, { unit: 'Hz', significant: 3 })).toBe('125 kHz');
     expect(quantityText(125000, { unit: 'Hz', significant: 3, notation: 'scientific' })).toBe('1.25 × 10⁵ Hz');
     expect(quantityText(0.000123, { notation: 'plain', significant: 2 })).toBe('0.00012');
+    // pure numbers such as χ²: plain in range, else one digit before the point
+    expect(quantityText(3.1e-4, { notation: 'auto-scientific', significant: 3 })).toBe('3.10 × 10⁻⁴');
+    expect(quantityText(0.0188, { notation: 'auto-scientific', significant: 3 })).toBe('0.0188');
   });
 
   it('keeps significant digits when rounding carries into a new power of ten, and uses a true minus sign', () => {

@@ -19,7 +19,7 @@ export interface QuantityPart {
   readonly role: QuantityPartRole;
 }
 
-export type Notation = 'auto' | 'engineering' | 'scientific' | 'plain';
+export type Notation = 'auto' | 'auto-scientific' | 'engineering' | 'scientific' | 'plain';
 
 export interface QuantityOptions {
   /** Standard error of the value; null/undefined/not finite/≤ 0 = none, and `significant` applies. */
@@ -28,7 +28,8 @@ export interface QuantityOptions {
   readonly unit?: string;
   /**
    * 'auto' (default): plain between 10⁻³ and 10⁵, else engineering (with an SI prefix when the
-   * unit takes one, else "× 10ⁿ"). 'engineering': exponent a multiple of 3. 'scientific': one digit
+   * unit takes one, else "× 10ⁿ"). 'auto-scientific': plain in the same range, else scientific
+   * (for pure numbers such as χ²: 3.10 × 10⁻⁴). 'engineering': exponent a multiple of 3. 'scientific': one digit
    * before the point. 'plain': never a power of ten.
    */
   readonly notation?: Notation;
@@ -125,7 +126,8 @@ function simpleUnit(unit: string): boolean {
   return /^[A-Za-zΩ]+$/u.test(unit);
 }
 
-function superscript(text: string): string {
+/** Digits, signs and the minus sign written as Unicode superscripts: '−6' → '⁻⁶'. */
+export function superscriptText(text: string): string {
   return [...text].map((c) => SUPERSCRIPT[c] ?? c).join('');
 }
 
@@ -160,11 +162,11 @@ export function formatQuantity(value: number, options: QuantityOptions = {}): Qu
   let shown = 0;
   let prefix = '';
   const plainFits = lead >= -3 && lead < 5;
-  if (notation === 'scientific') shown = lead;
+  if (notation === 'scientific' || (notation === 'auto-scientific' && !plainFits)) shown = lead;
   else if (notation === 'engineering' || (notation === 'auto' && !plainFits)) {
     shown = Math.floor(lead / 3) * 3;
   }
-  if (prefixable && shown !== 0 && SI_PREFIXES[shown] !== undefined && notation !== 'scientific') {
+  if (prefixable && shown !== 0 && SI_PREFIXES[shown] !== undefined && shown % 3 === 0 && notation !== 'scientific' && notation !== 'auto-scientific') {
     prefix = SI_PREFIXES[shown];
   }
 
@@ -186,7 +188,7 @@ export function formatQuantity(value: number, options: QuantityOptions = {}): Qu
     parts.push({ text: unitText ? `${core} ${unitText}` : core, role: 'normal' });
   }
   // Units written with superscripts (S·sⁿ, Ω·cm²) stay as their characters; only the exponent is a run.
-  const text = parts.map((p) => (p.role === 'sup' ? superscript(p.text) : p.text)).join('');
+  const text = parts.map((p) => (p.role === 'sup' ? superscriptText(p.text) : p.text)).join('');
   return { negative, mantissa, uncertainty, exponent, prefix, unit, parts, text };
 }
 

@@ -2,14 +2,15 @@ import PDFDocument from 'pdfkit';
 import { followsText, measurementTemperatureText, referralText } from './temperature-wording';
 import { ReportData } from './report-data';
 import { registerInter } from './inter-fonts';
-import { INK, widthOf, write } from './pen';
+import { formatQuantity, formatSymbol } from '@ohmprint/contracts';
+import { INK, widthOf, write, writeParts } from './pen';
 import { CONTENT_WIDTH, Flow, PAGE } from './report-layout';
 import { drawBode, drawNyquist } from './spectrum-plots';
 import { drawDistanceHistogram, drawLotMap } from './library-plots';
 import { drawVerdict } from './verdict-badge';
 import { drawQr } from './qr-vector';
 import { DEMO_MARK, ITEMS_TESTED, REPRODUCTION, SAFETY_NOTE, SCREENING_CAUTION, decisionRule, thresholdStatement } from './report-wording';
-import { formatDate, formatDateTime, formatNumber, formatPercent } from './report-formats';
+import { formatDate, formatDateTime, formatHz, formatNumber, formatPercent } from './report-formats';
 
 /**
  * Renders a test report as an unsigned PDF (signing is a separate step, so the bytes signed are
@@ -140,9 +141,9 @@ function writeResult(flow: Flow, data: ReportData): void {
   drawVerdict(doc, r.verdict, PAGE.left + 10, top + 8, 18);
   flow.y = top + 42;
   const rows: Array<[string, string]> = [
-    ['Nearest distance', r.nearestDistance === null ? 'not available' : `${formatNumber(r.nearestDistance, 4)} (normalised Canberra distance, 0 to 1)`],
+    ['Nearest distance', r.nearestDistance === null ? 'not available' : `${formatNumber(r.nearestDistance, 3)} (normalised Canberra distance, 0 to 1)`],
     ['Nearest reference lot', r.nearestLot ?? 'not available'],
-    ['Thresholds', `T95 = ${r.t95 === null ? 'not available' : formatNumber(r.t95, 4)}   ·   T99 = ${r.t99 === null ? 'not available' : formatNumber(r.t99, 4)}`],
+    ['Thresholds', `T95 = ${r.t95 === null ? 'not available' : formatNumber(r.t95, 3)}   ·   T99 = ${r.t99 === null ? 'not available' : formatNumber(r.t99, 3)}`],
     ['Typicality', r.typicality === null ? 'not available' : `${formatPercent(r.typicality)} of the library's calibration distances are larger than the sample's`],
   ];
   flow.y += flow.rows(rows);
@@ -157,7 +158,7 @@ function writeMethod(flow: Flow, data: ReportData): void {
   flow.heading('Method');
   const rows: Array<[string, string]> = [
     ['Method', m.name],
-    ['Frequency band', `${formatNumber(m.bandHz.min, 3)} Hz to ${formatNumber(m.bandHz.max, 3)} Hz, ${m.gridPoints} log-spaced points`],
+    ['Frequency band', `${formatHz(m.bandHz.min)} to ${formatHz(m.bandHz.max)}, ${m.gridPoints} log-spaced points`],
     ...(measurementTemperatureText(data) ? ([['Measurement temperature', measurementTemperatureText(data)]] as Array<[string, string]>) : []),
     ['Temperature referral', referralText(data)],
     ['Model fitted', m.modelName],
@@ -205,21 +206,37 @@ function writePlots(flow: Flow, data: ReportData): void {
   );
 }
 
+/** "Series resistance Rs" → "Series resistance" when the last word is the symbol drawn beside it. */
+function withoutTrailingSymbol(description: string, symbolText: string): string {
+  const words = description.split(' ');
+  const last = words[words.length - 1];
+  const plain = (t: string) => t.normalize('NFKD').replace(/[^\p{L}\p{N}∞]/gu, '').toLowerCase();
+  return words.length > 1 && plain(last) === plain(symbolText) ? words.slice(0, -1).join(' ') : description;
+}
+
 function writeParameters(flow: Flow, data: ReportData): void {
   const r = data.results;
   flow.heading('Fitted model parameters and data quality');
   const { doc } = flow;
-  const cols = [PAGE.left, PAGE.left + 210, PAGE.left + 310, PAGE.left + 420];
-  flow.ensure(16 + 13 * (r.fittedParameters.length + 1));
-  ['Parameter', 'Value', 'Standard error', 'Unit'].forEach((h, i) => write(doc, h, { size: 8, weight: 600, color: INK.muted, lineBreak: false }, cols[i], flow.y));
-  flow.y += 13;
+  const cols = [PAGE.left, PAGE.left + 200, PAGE.left + 250, PAGE.left + 400];
+  const rowH = 14;
+  flow.ensure(16 + rowH * (r.fittedParameters.length + 1));
+  ['Parameter', 'Symbol', 'Value ± standard error', 'Unit'].forEach((h, i) => write(doc, h, { size: 8, weight: 600, color: INK.muted, lineBreak: false }, cols[i], flow.y));
+  flow.y += rowH;
   for (const p of r.fittedParameters) {
-    flow.ensure(13);
-    const cells = [p.description ?? p.name, formatNumber(p.value, 4), p.standardError === null ? 'not estimated' : formatNumber(p.standardError, 2), p.unit || 'none'];
-    cells.forEach((c, i) => write(doc, c, { size: 8.5, lineBreak: false }, cols[i], flow.y));
-    flow.y += 13;
+    flow.ensure(rowH);
+    const symbol = formatSymbol(p.name);
+    const value = formatQuantity(p.value, { standardError: p.standardError, significant: 4 });
+    write(doc, withoutTrailingSymbol(p.description ?? p.name, symbol.text), { size: 8.5, lineBreak: false }, cols[0], flow.y);
+    writeParts(doc, symbol.parts, { size: 8.5 }, cols[1], flow.y);
+    const valueParts = p.standardError === null ? [...value.parts, { text: ' (SE not estimated)', role: 'normal' as const }] : value.parts;
+    writeParts(doc, valueParts, { size: 8.5 }, cols[2], flow.y);
+    write(doc, p.unit && p.unit !== '1' ? p.unit : 'none (dimensionless)', { size: 8.5, lineBreak: false }, cols[3], flow.y);
+    flow.y += rowH;
   }
-  if (!r.fittedParameters.length) flow.paragraph('No model was fitted.');
+  if (r.fittedParameters.length) {
+    flow.paragraph('Each value is rounded to the last decimal place of its standard error, which keeps one or two significant digits.', 7.5, INK.muted);
+  } else flow.paragraph('No model was fitted.');
   if (r.goodnessOfFit !== null) flow.paragraph(`Goodness of fit (weighted χ²): ${formatNumber(r.goodnessOfFit, 3)}`);
   flow.gap(2);
   if (r.qualityFlags.length === 0) flow.paragraph('Data quality: no flags raised.');
