@@ -83,6 +83,10 @@ export function demoReportContent(overrides: Partial<ReportContent> = {}): Repor
         modulusMax: high.map(mod),
         phaseMinDeg: frequencyHz.map((_, i) => Math.min(ph(low[i]), ph(high[i])) - 0.6),
         phaseMaxDeg: frequencyHz.map((_, i) => Math.max(ph(low[i]), ph(high[i])) + 0.6),
+        reMin: frequencyHz.map((_, i) => Math.min(low[i].re, high[i].re) - 3),
+        reMax: frequencyHz.map((_, i) => Math.max(low[i].re, high[i].re) + 3),
+        imMin: frequencyHz.map((_, i) => Math.min(low[i].im, high[i].im) - 3),
+        imMax: frequencyHz.map((_, i) => Math.max(low[i].im, high[i].im) + 3),
       },
       calibrationDistances: [0.0061, 0.0083, 0.0094, 0.0102, 0.0111, 0.0119, 0.0128, 0.0137, 0.0149, 0.0163, 0.0181, 0.0232],
       map: {

@@ -185,7 +185,7 @@ function writePlots(flow: Flow, data: ReportData): void {
   drawBode(flow.doc, { x: bodeX, y: top, w: bodeW, h: halfH }, { x: bodeX, y: top + halfH + 34, w: bodeW, h: halfH }, data.plots, data.method.bandHz);
   flow.y = top + plotH + 26;
   flow.paragraph(
-    'Sample: teal line. Shaded in the Bode plots: the method band (grey) and the spread of the reference lots (light teal). ' +
+    'Sample: teal line. Shaded light teal: the spread of the reference lots (in the Nyquist plot, the region their Z′ and −Z″ span at each frequency); grey in the Bode plots: the method band. ' +
       'Both plots show the averaged, normalised spectrum of the replicates.',
     7.5,
     INK.muted,

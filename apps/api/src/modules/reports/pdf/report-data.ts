@@ -130,6 +130,11 @@ export interface ReportPlots {
     modulusMax: number[];
     phaseMinDeg: number[];
     phaseMaxDeg: number[];
+    /** Spread of Z′ and Z″ per frequency, for the Nyquist band (absent on reports issued before it was stored). */
+    reMin?: number[];
+    reMax?: number[];
+    imMin?: number[];
+    imMax?: number[];
   } | null;
   /** Each reference lot's leave-one-out distance to its nearest other lot. */
   calibrationDistances: number[];
