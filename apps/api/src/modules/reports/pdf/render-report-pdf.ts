@@ -6,7 +6,7 @@ import { formatQuantity, formatSymbol } from '@ohmprint/contracts';
 import { INK, widthOf, write, writeParts } from './pen';
 import { CONTENT_WIDTH, Flow, PAGE } from './report-layout';
 import { drawBode, drawNyquist } from './spectrum-plots';
-import { drawDistanceHistogram, drawLotMap } from './library-plots';
+import { MAP_LABELLED_LOTS, drawDistanceHistogram, drawLotMap } from './library-plots';
 import { drawVerdict } from './verdict-badge';
 import { drawQr } from './qr-vector';
 import { DEMO_MARK, ITEMS_TESTED, REPRODUCTION, SAFETY_NOTE, SCREENING_CAUTION, decisionRule, thresholdStatement } from './report-wording';
@@ -199,7 +199,8 @@ function writePlots(flow: Flow, data: ReportData): void {
   flow.paragraph(
     "Left: how far each reference lot lies from its nearest other lot, with the thresholds and this sample's nearest distance. " +
       (data.plots.map
-        ? 'Right: classical multidimensional scaling of the distances between the lots and the sample; closeness on the map mirrors closeness of the spectra.'
+        ? 'Right: classical multidimensional scaling of the distances between the lots and the sample; closeness on the map mirrors closeness of the spectra.' +
+          (data.plots.map.lots.length > MAP_LABELLED_LOTS ? ` Named: up to ${MAP_LABELLED_LOTS} lots nearest the sample, where room allows.` : '')
         : 'No map is drawn: the library holds too few lots for one.'),
     7.5,
     INK.muted,
