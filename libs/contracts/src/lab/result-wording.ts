@@ -25,15 +25,15 @@ export function weightingText(weighting: FitWeighting): string {
   return WEIGHTING_TEXT[weighting];
 }
 
-/** What each weighting does, for a tooltip or a note beside χ². */
+/** What each weighting does, as the end of a sentence (lower case, full stop) beside χ². */
 export function weightingExplained(weighting: FitWeighting): string {
   switch (weighting) {
     case 'modulus':
-      return 'Each residual is divided by |Z| at its frequency, so every frequency counts alike.';
+      return 'each residual is divided by |Z| at its frequency, so every frequency counts alike.';
     case 'proportional':
-      return 'Each residual is divided by the size of its own part (Z′ or Z″).';
+      return 'each residual is divided by the size of its own part (Z′ or Z″).';
     case 'unit':
-      return 'Residuals are not scaled, so the largest impedances dominate χ².';
+      return 'residuals are not scaled, so the largest impedances dominate χ².';
   }
 }
 
