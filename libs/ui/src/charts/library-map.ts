@@ -20,7 +20,7 @@ let nextId = 0;
     <ohm-chart-frame [heading]="heading()" [table]="table()">
       <svg role="img" [attr.viewBox]="'0 0 ' + layout().width + ' ' + layout().height" [attr.aria-labelledby]="titleId">
         <title [id]="titleId">{{ summary() }}</title>
-        <svg:g ohmChartAxes [area]="layout().area" [xTicks]="layout().xTicks" [yTicks]="layout().yTicks" xLabel="Map axis 1" yLabel="Map axis 2" [yLabelOffset]="40" />
+        <svg:g ohmChartAxes [area]="layout().area" [xTicks]="layout().xTicks" [yTicks]="layout().yTicks" [xLabel]="axisLabel(0)" [yLabel]="axisLabel(1)" [yLabelOffset]="40" />
         @if (layout().link; as k) {
           <svg:line class="link" [attr.x1]="k.x1" [attr.y1]="k.y1" [attr.x2]="k.x2" [attr.y2]="k.y2" />
         }
@@ -64,9 +64,16 @@ export class LibraryMap {
   readonly nearestId = input<string | null>(null);
   readonly verdict = input<Verdict | null>(null);
   readonly heading = input('Map of the sample among the reference lots');
+  /** Each axis's share of the spread (0–1), from the map's eigenvalues; absent on older analyses. */
+  readonly axisShares = input<readonly [number, number] | null>(null);
 
   protected readonly titleId = `ohm-map-${nextId++}`;
   protected readonly layout = computed(() => libraryMapLayout(this.points(), this.nearestId(), 560, 380));
+  protected axisLabel(k: 0 | 1): string {
+    const share = this.axisShares()?.[k];
+    return share === undefined || !Number.isFinite(share) ? `Map axis ${k + 1}` : `Map axis ${k + 1} (${Math.round(share * 100)} % of spread)`;
+  }
+
   protected readonly summary = computed(() => {
     const lots = this.points().filter((p) => p.kind === 'reference').length;
     const nearest = this.points().find((p) => p.id === this.nearestId());
