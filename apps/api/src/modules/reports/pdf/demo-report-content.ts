@@ -46,6 +46,7 @@ export function demoReportContent(overrides: Partial<ReportContent> = {}): Repor
     },
     method: {
       name: 'Wine fingerprint, 10 Hz to 100 kHz',
+      methodVersion: { name: 'Red wine screening', version: 2 },
       bandHz: { min: 10, max: 1e5 },
       gridPoints: 41,
       referenceTemperatureC: 20,
@@ -61,7 +62,9 @@ export function demoReportContent(overrides: Partial<ReportContent> = {}): Repor
     results: {
       verdict: 'consistent',
       nearestDistance: 0.0123,
-      nearestLot: 'L2025-117',
+      nearestLot: 'CAL-L0117',
+      nearestLotProducerCode: 'L2025-117',
+      claimedLotCheck: { lotCode: 'L2025-117', nearestIsClaimed: true },
       t95: 0.0188,
       t99: 0.0246,
       typicality: 0.58,
@@ -72,6 +75,7 @@ export function demoReportContent(overrides: Partial<ReportContent> = {}): Repor
         { name: 'n', description: 'CPE exponent n', value: 0.8203, standardError: 0.0009, unit: '1' },
       ],
       goodnessOfFit: 3.1e-4,
+      fitWeighting: 'modulus weighting',
       qualityFlags: [{ severity: 'info', message: 'Kramers–Kronig residuals within 0.4 % of |Z| across the band.' }],
     },
     plots: {

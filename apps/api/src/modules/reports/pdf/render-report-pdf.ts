@@ -2,7 +2,7 @@ import PDFDocument from 'pdfkit';
 import { followsText, measurementTemperatureText, referralText } from './temperature-wording';
 import { ReportData } from './report-data';
 import { registerInter } from './inter-fonts';
-import { formatQuantity, formatSymbol } from '@ohmprint/contracts';
+import { formatQuantity, formatSymbol, sameLotCode } from '@ohmprint/contracts';
 import { INK, widthOf, write, writeParts } from './pen';
 import { CONTENT_WIDTH, Flow, PAGE } from './report-layout';
 import { drawBode, drawNyquist } from './spectrum-plots';
@@ -115,7 +115,6 @@ function writeParties(flow: Flow, data: ReportData): void {
 
 function writeSample(flow: Flow, data: ReportData): void {
   const s = data.sample;
-  flow.heading('Item tested');
   const rows: Array<[string, string]> = [
     ['Sample code', s.code],
     ['Product', `${s.productName} (${s.matrix})`],
@@ -127,13 +126,13 @@ function writeSample(flow: Flow, data: ReportData): void {
     ['Tested', data.testedFrom === data.testedTo ? formatDate(data.testedFrom) : `${formatDate(data.testedFrom)} to ${formatDate(data.testedTo)}`],
     ['Report issued', formatDate(data.issuedAt)],
   ];
-  flow.ensure(flow.rows(rows, undefined, undefined, 130, false));
+  flow.heading('Item tested', flow.rows(rows, undefined, undefined, 130, false));
   flow.y += flow.rows(rows);
 }
 
 function writeResult(flow: Flow, data: ReportData): void {
   const r = data.results;
-  flow.heading('Result');
+  flow.heading('Result', 150);
   flow.ensure(150);
   const { doc } = flow;
   const top = flow.y;
@@ -142,7 +141,8 @@ function writeResult(flow: Flow, data: ReportData): void {
   flow.y = top + 42;
   const rows: Array<[string, string]> = [
     ['Nearest distance', r.nearestDistance === null ? 'not available' : `${formatNumber(r.nearestDistance, 3)} (normalised Canberra distance, 0 to 1)`],
-    ['Nearest reference lot', r.nearestLot ?? 'not available'],
+    ['Nearest reference lot', r.nearestLot === null ? 'not available' : nearestLotText(r.nearestLot, r.nearestLotProducerCode ?? null)],
+    ...(r.claimedLotCheck ? ([['Claimed lot', claimedLotSentence(r.claimedLotCheck, r.nearestLotProducerCode ?? null)]] as Array<[string, string]>) : []),
     ['Thresholds', `T95 = ${r.t95 === null ? 'not available' : formatNumber(r.t95, 3)}   ·   T99 = ${r.t99 === null ? 'not available' : formatNumber(r.t99, 3)}`],
     ['Typicality', r.typicality === null ? 'not available' : `${formatPercent(r.typicality)} of the library's calibration distances are larger than the sample's`],
   ];
@@ -153,11 +153,28 @@ function writeResult(flow: Flow, data: ReportData): void {
   if (thresholds) flow.paragraph(thresholds, 8.5, INK.text, 600);
 }
 
+/** Our lot code, with the producer's own code beside it when it differs. */
+export function nearestLotText(lotCode: string, producerCode: string | null): string {
+  if (!producerCode) return `${lotCode} (no producer's lot code on record)`;
+  return sameLotCode(lotCode, producerCode) ? `${lotCode} (the producer's lot code)` : `${lotCode}, the producer's lot ${producerCode}`;
+}
+
+/** Whether the nearest lot is the lot claimed for the item, in one sentence. */
+export function claimedLotSentence(check: { lotCode: string; nearestIsClaimed: boolean | null }, producerCode: string | null): string {
+  if (check.nearestIsClaimed === true) return `The nearest lot is the lot claimed for the item (${check.lotCode}).`;
+  if (check.nearestIsClaimed === false) {
+    return (
+      `The nearest lot is not the lot claimed for the item: the item claims ${check.lotCode}, the nearest lot is the producer's ${producerCode ?? 'another lot'}. ` +
+      'Lots of one product can lie close together; this does not change the verdict above.'
+    );
+  }
+  return `The item claims lot ${check.lotCode}; whether the nearest lot is that lot cannot be said, as the nearest lot has no producer's lot code on record.`;
+}
+
 function writeMethod(flow: Flow, data: ReportData): void {
   const m = data.method;
-  flow.heading('Method');
   const rows: Array<[string, string]> = [
-    ['Method', m.name],
+    ['Method', m.methodVersion ? `${m.methodVersion.name}, version ${m.methodVersion.version}: ${m.name}` : m.name],
     ['Frequency band', `${formatHz(m.bandHz.min)} to ${formatHz(m.bandHz.max)}, ${m.gridPoints} log-spaced points`],
     ...(measurementTemperatureText(data) ? ([['Measurement temperature', measurementTemperatureText(data)]] as Array<[string, string]>) : []),
     ['Temperature referral', referralText(data)],
@@ -168,7 +185,7 @@ function writeMethod(flow: Flow, data: ReportData): void {
     ['Software', `Ohmprint spectral engine ${m.engineVersion}`],
     ['Deviations', m.deviations.length ? m.deviations.join('; ') : 'none from the documented method'],
   ];
-  flow.ensure(flow.rows(rows, undefined, undefined, 130, false));
+  flow.heading('Method', flow.rows(rows, undefined, undefined, 130, false));
   flow.y += flow.rows(rows);
 }
 
@@ -217,11 +234,10 @@ function withoutTrailingSymbol(description: string, symbolText: string): string 
 
 function writeParameters(flow: Flow, data: ReportData): void {
   const r = data.results;
-  flow.heading('Fitted model parameters and data quality');
+  const rowH = 14;
+  flow.heading('Fitted model parameters and data quality', rowH * (r.fittedParameters.length + 1) + 60);
   const { doc } = flow;
   const cols = [PAGE.left, PAGE.left + 200, PAGE.left + 250, PAGE.left + 400];
-  const rowH = 14;
-  flow.ensure(16 + rowH * (r.fittedParameters.length + 1));
   ['Parameter', 'Symbol', 'Value ± standard error', 'Unit'].forEach((h, i) => write(doc, h, { size: 8, weight: 600, color: INK.muted, lineBreak: false }, cols[i], flow.y));
   flow.y += rowH;
   for (const p of r.fittedParameters) {
@@ -238,7 +254,7 @@ function writeParameters(flow: Flow, data: ReportData): void {
   if (r.fittedParameters.length) {
     flow.paragraph('Each value is rounded to the last decimal place of its standard error, which keeps one or two significant digits.', 7.5, INK.muted);
   } else flow.paragraph('No model was fitted.');
-  if (r.goodnessOfFit !== null) flow.paragraph(`Goodness of fit (weighted χ²): ${formatNumber(r.goodnessOfFit, 3)}`);
+  if (r.goodnessOfFit !== null) flow.paragraph(`Goodness of fit (weighted χ²${r.fitWeighting ? `, ${r.fitWeighting}` : ''}): ${formatNumber(r.goodnessOfFit, 3)}`);
   flow.gap(2);
   if (r.qualityFlags.length === 0) flow.paragraph('Data quality: no flags raised.');
   else for (const q of r.qualityFlags) flow.paragraph(`${q.severity === 'warning' ? 'Warning' : 'Note'}: ${q.message}`);
