@@ -13,7 +13,7 @@ export async function approveAndIssue(t: TestApp, analysisId: string, comments =
 }
 
 /** Polls `GET /lab/analyses/:id/issuance` until the report is issued (throws if it failed or took too long). */
-export async function issuedReport(t: TestApp, analysisId: string, ms = 30_000): Promise<{ id: string; number: string }> {
+export async function issuedReport(t: TestApp, analysisId: string, ms = 90_000): Promise<{ id: string; number: string }> {
   const reviewer = await t.authFor('reviewer');
   const until = Date.now() + ms;
   for (;;) {
@@ -22,7 +22,10 @@ export async function issuedReport(t: TestApp, analysisId: string, ms = 30_000):
     if (res.status !== 200) throw new Error(`issuance of ${analysisId} answered ${res.status}: ${JSON.stringify(res.body)}`);
     if (body.state === 'issued' && body.report) return body.report;
     if (body.state === 'failed') throw new Error(`issuance of ${analysisId} failed: ${body.detail}`);
-    if (Date.now() > until) throw new Error(`the report of ${analysisId} was not issued within ${ms} ms`);
+    if (Date.now() > until) {
+      const [job] = await t.db.query(`SELECT state, retry_count, output FROM pgboss.job WHERE name = 'report-issue' AND singleton_key = $1 ORDER BY created_on DESC LIMIT 1`, [analysisId]);
+      throw new Error(`the report of ${analysisId} was not issued within ${ms} ms; its job: ${JSON.stringify(job)}`);
+    }
     await new Promise((r) => setTimeout(r, 100));
   }
 }
