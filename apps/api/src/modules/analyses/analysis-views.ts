@@ -87,7 +87,10 @@ export async function listAnalyses(manager: EntityManager, labId: string, query:
   const { skip, take } = pageParams(query);
   // the sample's code orders through a join; the other sorts walk an index of analysis alone
   const bySample = query.sort === 'sample';
-  const order = `${SORT[query.sort]} ${query.dir === 'asc' ? 'ASC' : 'DESC'} NULLS LAST, a.id`;
+  // the tie-breaker runs the same way as the sort, so an index of (lab, column, id) serves either
+  // direction; only the submission time can be empty, and empty ones come last
+  const dir = query.dir === 'asc' ? 'ASC' : 'DESC';
+  const order = `${SORT[query.sort]} ${dir}${query.sort === 'submittedAt' ? ' NULLS LAST' : ''}, a.id ${dir}`;
   const [rows, counted]: [{ id: string; sample_id: string; sample_code: string; product_name: string; status: AnalysisListItem['status']; verdict: AnalysisListItem['verdict']; analyst_id: string; analyst_name: string; created_at: Date; submitted_at: Date | null }[], number] =
     await Promise.all([manager.query(
       `SELECT a.id, s.id AS sample_id, s.code AS sample_code, p.name AS product_name, a.status, a.verdict,
