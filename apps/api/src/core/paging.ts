@@ -33,15 +33,16 @@ export function toCappedPage<T>(items: T[], counted: number, query: ListQuery): 
 export const SPARSE_MATCHES = 200;
 
 /**
- * Whether a search matches few rows: `arms` is a UNION ALL of id queries, each on its own
- * (trigram) index, read no further than `SPARSE_MATCHES`. A sparse search is best answered from
- * those indexes (`id IN (arms)`); a broad one by walking the list's sort index and testing each
- * row, since the first page's rows are found within the first few hundred.
+ * The ids a search matches when they are few: `arms` is a UNION ALL of id queries, each on its own
+ * (trigram) index, read no further than `SPARSE_MATCHES`. Fewer than that: the ids, which the list
+ * then fetches by primary key (`id = ANY($n::uuid[])`, reusing the search text's parameter slot).
+ * Otherwise null: a broad search is best answered by walking the list's sort index and testing
+ * each row, since the first page's rows come within the first few hundred.
  */
-export async function isSparseSearch(manager: EntityManager, arms: string, params: unknown[]): Promise<boolean> {
+export async function sparseSearchIds(manager: EntityManager, arms: string, params: unknown[]): Promise<string[] | null> {
   // only the parameters the arms use are sent (PostgreSQL refuses one it cannot type), renumbered
   const used = [...new Set([...arms.matchAll(/\$(\d+)/g)].map((m) => Number(m[1])))].sort((a, b) => a - b);
   const sql = arms.replace(/\$(\d+)/g, (_, n: string) => `$${used.indexOf(Number(n)) + 1}`);
-  const [row]: { n: number }[] = await manager.query(`SELECT count(*)::int AS n FROM (${sql} LIMIT ${SPARSE_MATCHES}) arms`, used.map((n) => params[n - 1]));
-  return row.n < SPARSE_MATCHES;
+  const rows: { id: string }[] = await manager.query(`SELECT id FROM (${sql} LIMIT ${SPARSE_MATCHES}) arms(id)`, used.map((n) => params[n - 1]));
+  return rows.length < SPARSE_MATCHES ? [...new Set(rows.map((r) => r.id))] : null;
 }

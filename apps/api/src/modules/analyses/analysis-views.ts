@@ -1,7 +1,7 @@
 import type { EntityManager } from 'typeorm';
 import type { Analysis as AnalysisView, AnalysisListItem, AnalysisListQuery, Page } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
-import { cappedCount, escapeLike, isSparseSearch, pageParams, toCappedPage } from '../../core/paging';
+import { cappedCount, escapeLike, sparseSearchIds, pageParams, toCappedPage } from '../../core/paging';
 import { revokedReportOf } from './revoked-report';
 
 const iso = (d: Date | null) => d?.toISOString() ?? null;
@@ -79,8 +79,10 @@ export async function listAnalyses(manager: EntityManager, labId: string, query:
       UNION ALL SELECT x.id FROM analysis x JOIN sample s2 ON s2.id = x.sample_id JOIN test_order o2 ON o2.id = s2.order_id
                 WHERE x.lab_id = $1 AND o2.lab_id = $1 AND o2.product_id IN (${products})
       UNION ALL SELECT x.id FROM analysis x WHERE x.lab_id = $1 AND x.analyst_user_id IN (${analysts})`;
-    where.push((await isSparseSearch(manager, arms, params))
-      ? `a.id IN (${arms})`
+    const ids = await sparseSearchIds(manager, arms, params);
+    if (ids) params[params.length - 1] = ids;
+    where.push(ids
+      ? `a.id = ANY(${p}::uuid[])`
       : `(a.analyst_user_id IN (${analysts}) OR EXISTS (SELECT 1 FROM sample s2 JOIN test_order o2 ON o2.id = s2.order_id
            WHERE s2.id = a.sample_id AND (s2.code ILIKE ${p} OR o2.product_id IN (${products}))))`);
   }

@@ -1,7 +1,7 @@
 import type { EntityManager } from 'typeorm';
 import type { CheckoutStatus, CreditAccountListQuery, CreditAccountView, LedgerEntry, LedgerListQuery, Page, Payment, PaymentListQuery } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
-import { cappedCount, escapeLike, isSparseSearch, pageParams, toCappedPage } from '../../core/paging';
+import { cappedCount, escapeLike, sparseSearchIds, pageParams, toCappedPage } from '../../core/paging';
 import { creditBalance, type CreditScope } from '../credits/credit-ledger';
 import { receiptNumber } from './receipt-email';
 
@@ -111,8 +111,10 @@ export async function ledger(manager: EntityManager, scope: CreditScope, query: 
     const arms = `SELECT x.id FROM credit_ledger_entry x WHERE x.lab_id = $1 AND x.client_organisation_id = $2 AND x.reason ILIKE ${p}
       UNION ALL SELECT x.id FROM credit_ledger_entry x WHERE x.lab_id = $1 AND x.client_organisation_id = $2 AND x.sample_id IN (${samples})
       UNION ALL SELECT x.id FROM credit_ledger_entry x WHERE x.lab_id = $1 AND x.client_organisation_id = $2 AND x.actor_user_id IN (${actors})`;
-    where.push((await isSparseSearch(manager, arms, params))
-      ? `e.id IN (${arms})`
+    const ids = await sparseSearchIds(manager, arms, params);
+    if (ids) params[params.length - 1] = ids;
+    where.push(ids
+      ? `e.id = ANY(${p}::uuid[])`
       : `(e.reason ILIKE ${p} OR e.actor_user_id IN (${actors}) OR EXISTS (SELECT 1 FROM sample s2 WHERE s2.id = e.sample_id AND s2.code ILIKE ${p}))`);
   }
   const { skip, take } = pageParams(query);

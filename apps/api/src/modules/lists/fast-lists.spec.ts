@@ -111,8 +111,8 @@ describe('searches', () => {
     expect(few.body.total).toBe(1);
 
     // "Cider" names a product of every organisation and one organisation: the broad path,
-    // walked in the queue's order; "Cider 2 (demo)" only the big client's: the narrow path
-    for (const q of ['Cider', 'Cider 2 (demo)']) {
+    // walked in the queue's order; "Tonic 5 (demo)" one small client's product: the narrow path
+    for (const q of ['Cider', 'Tonic 5 (demo)']) {
       const found = await allPages('/api/lab/samples', tenant.users.analyst, `q=${encodeURIComponent(q)}&sort=code&dir=asc`);
       const expected: { code: string }[] = await t.db.query(
         `SELECT s.code FROM sample s JOIN test_order o ON o.id = s.order_id JOIN product p ON p.id = o.product_id
@@ -120,7 +120,7 @@ describe('searches', () => {
          WHERE s.lab_id = $1 AND o.status <> 'cancelled' AND (p.name ILIKE $2 OR co.name ILIKE $2 OR s.code ILIKE $2 OR s.claimed_lot ILIKE $2) ORDER BY s.code`,
         [tenant.labId, `%${q}%`],
       );
-      expect(expected.length).toBeGreaterThan(q === 'Cider' ? SPARSE_MATCHES : 5);
+      expect(expected.length).toBeGreaterThan(q === 'Cider' ? SPARSE_MATCHES : 0);
       if (q !== 'Cider') expect(expected.length).toBeLessThan(SPARSE_MATCHES);
       expect(found.codes).toEqual(expected.map((r) => r.code));
     }

@@ -1,7 +1,7 @@
 import type { EntityManager } from 'typeorm';
 import type { ClientOrderListQuery, OrderSummary, Page, ProductListQuery, ProductSummary } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
-import { cappedCount, escapeLike, isSparseSearch, pageParams, toCappedPage } from '../../core/paging';
+import { cappedCount, escapeLike, sparseSearchIds, pageParams, toCappedPage } from '../../core/paging';
 
 /** Whose data a client user sees: their organisation, inside their lab. */
 export interface ClientScope {
@@ -89,8 +89,10 @@ export async function clientOrders(manager: EntityManager, scope: ClientScope, q
       UNION ALL SELECT s.order_id FROM sample s WHERE s.lab_id = $1 AND s.code ILIKE ${p}
       UNION ALL SELECT s.order_id FROM sample s WHERE s.lab_id = $1 AND s.claimed_lot ILIKE ${p}
       UNION ALL SELECT s.order_id FROM sample s WHERE s.lab_id = $1 AND s.label_text ILIKE ${p}`;
-    where.push((await isSparseSearch(manager, arms, params))
-      ? `o.id IN (${arms})`
+    const ids = await sparseSearchIds(manager, arms, params);
+    if (ids) params[params.length - 1] = ids;
+    where.push(ids
+      ? `o.id = ANY(${p}::uuid[])`
       : `(o.product_id IN (${products}) OR EXISTS (SELECT 1 FROM sample s WHERE s.order_id = o.id AND s.lab_id = $1
            AND (s.code ILIKE ${p} OR s.claimed_lot ILIKE ${p} OR s.label_text ILIKE ${p})))`);
   }

@@ -1,7 +1,7 @@
 import type { EntityManager } from 'typeorm';
 import type { Page, ReportDetail, ReportListQuery, ReportSummary } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
-import { cappedCount, escapeLike, isSparseSearch, pageParams, toCappedPage } from '../../core/paging';
+import { cappedCount, escapeLike, sparseSearchIds, pageParams, toCappedPage } from '../../core/paging';
 import { formatVerificationCode, verificationUrl } from './verification-code';
 import { TestReport } from './test-report.entity';
 
@@ -99,8 +99,10 @@ export async function listReports(manager: EntityManager, scope: ReportScope, qu
       UNION ALL SELECT x.id FROM test_report x WHERE x.lab_id = $1 AND x.sample_code ILIKE ${p}
       UNION ALL SELECT x.id FROM test_report x WHERE x.lab_id = $1 AND x.product_name ILIKE ${p}
       UNION ALL SELECT x.id FROM test_report x WHERE x.lab_id = $1 AND x.client_organisation_id IN (${clients})`;
-    clause += (await isSparseSearch(manager, arms, params))
-      ? ` AND r.id IN (${arms})`
+    const ids = await sparseSearchIds(manager, arms, params);
+    if (ids) params[params.length - 1] = ids;
+    clause += ids
+      ? ` AND r.id = ANY(${p}::uuid[])`
       : ` AND (r.number ILIKE ${p} OR r.sample_code ILIKE ${p} OR r.product_name ILIKE ${p} OR r.client_organisation_id IN (${clients}))`;
   }
   const { skip, take } = pageParams(query);

@@ -2,7 +2,7 @@ import type { EntityManager } from 'typeorm';
 import type { IntakeLimit, IntakePhoto, Page, SampleDetail, WorkQueueItem, WorkQueueQuery } from '@ohmprint/contracts';
 import { intakeWarnings, limitsFrom } from '../intake/intake-guardrails';
 import { ApiError } from '../../core/api-error';
-import { cappedCount, escapeLike, isSparseSearch, pageParams, toCappedPage } from '../../core/paging';
+import { cappedCount, escapeLike, sparseSearchIds, pageParams, toCappedPage } from '../../core/paging';
 import { sampleTiming } from './sample-timing';
 import { revokedReportOf } from '../analyses/revoked-report';
 
@@ -56,8 +56,10 @@ export async function workQueue(manager: EntityManager, labId: string, query: Wo
       UNION ALL SELECT x.id FROM sample x WHERE x.lab_id = $1 AND x.claimed_lot ILIKE ${p}
       UNION ALL SELECT x.id FROM sample x JOIN test_order o2 ON o2.id = x.order_id WHERE x.lab_id = $1 AND o2.lab_id = $1 AND o2.product_id IN (${products})
       UNION ALL SELECT x.id FROM sample x JOIN test_order o2 ON o2.id = x.order_id WHERE x.lab_id = $1 AND o2.lab_id = $1 AND o2.client_organisation_id IN (${clients})`;
-    where.push((await isSparseSearch(manager, arms, params))
-      ? `s.id IN (${arms})`
+    const ids = await sparseSearchIds(manager, arms, params);
+    if (ids) params[params.length - 1] = ids;
+    where.push(ids
+      ? `s.id = ANY(${p}::uuid[])`
       : `(s.code ILIKE ${p} OR s.claimed_lot ILIKE ${p} OR EXISTS (SELECT 1 FROM test_order o2 WHERE o2.id = s.order_id
            AND (o2.product_id IN (${products}) OR o2.client_organisation_id IN (${clients}))))`);
   }
