@@ -5,7 +5,7 @@ import { config } from '../../config';
 import { ApiError } from '../api-error';
 import type * as Tasks from './cpu-tasks';
 
-type TaskName = Exclude<keyof typeof Tasks, 'TaskRefusal' | 'ExportFile' | 'ParsedExport'>;
+type TaskName = Exclude<keyof typeof Tasks, 'TaskRefusal' | 'ExportFile' | 'ParsedExport' | 'transferredBytes'>;
 type TaskInput<N extends TaskName> = Parameters<(typeof Tasks)[N]>[0];
 type TaskOutput<N extends TaskName> = Awaited<ReturnType<(typeof Tasks)[N]>>;
 
