@@ -51,8 +51,20 @@ export interface ExportFile {
 }
 
 export type ParsedExport =
-  | { name: string; ok: true; spectrum: Spectrum; kramersKronig: KramersKronigSummary }
+  | { name: string; ok: true; spectrum: Spectrum; kramersKronig: KramersKronigSummary; literals: SpectrumLiterals }
   | { name: string; ok: false; line: number | null; column: number | null; message: string };
+
+/**
+ * The spectrum's three columns as PostgreSQL array literals, written here so the event loop does
+ * not turn 100,000 numbers into text while it stores an upload. `String(number)` is the shortest
+ * text that reads back as the same double, as the driver would write it.
+ */
+export interface SpectrumLiterals {
+  frequencyHz: string;
+  re: string;
+  im: string;
+}
+const arrayLiteral = (values: Float64Array): string => `{${Array.prototype.join.call(values, ',')}}`;
 
 /** Reads each instrument export and runs its Kramers–Kronig check; a bad file does not stop the others. */
 export async function parseExports(input: { files: ExportFile[]; maxPoints: number; kkLimitPercent: number }): Promise<ParsedExport[]> {
@@ -62,7 +74,8 @@ export async function parseExports(input: { files: ExportFile[]; maxPoints: numb
   return input.files.map((file): ParsedExport => {
     try {
       const spectrum = parseSpectrumFile(decoder.decode(file.bytes), { maxPoints: input.maxPoints });
-      return { name: file.name, ok: true, spectrum, kramersKronig: kramersKronigCheck(spectrum, input.kkLimitPercent) };
+      const literals = { frequencyHz: arrayLiteral(spectrum.frequencyHz), re: arrayLiteral(spectrum.re), im: arrayLiteral(spectrum.im) };
+      return { name: file.name, ok: true, spectrum, kramersKronig: kramersKronigCheck(spectrum, input.kkLimitPercent), literals };
     } catch (err) {
       if (!(err instanceof SpectrumImportError)) throw err;
       return { name: file.name, ok: false, line: err.line ?? null, column: err.column ?? null, message: err.message };
