@@ -131,6 +131,9 @@ async function checkResult(page: Page): Promise<void> {
   const histogram = await labelBoxes(page, 'ohm-analysis-result ohm-distance-histogram');
   expect(histogram.boxes.map((b) => b.label.split(' ')[0]).sort()).toEqual(['Sample', 'T95', 'T99']);
   expectApartAndInside(histogram);
+  const nyquist = await labelBoxes(page, 'ohm-analysis-result ohm-nyquist-chart');
+  expect(nyquist.boxes.length).toBeGreaterThanOrEqual(2);
+  expectApartAndInside(nyquist);
   const map = await labelBoxes(page, 'ohm-analysis-result ohm-library-map');
   expect(map.boxes.length).toBeGreaterThanOrEqual(3);
   expectApartAndInside(map);
