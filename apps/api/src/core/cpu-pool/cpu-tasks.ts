@@ -10,7 +10,7 @@ import type { calibrate, Spectrum } from '@ohmprint/spectral-engine';
 import type { KramersKronigSummary } from '@ohmprint/contracts';
 import type { ComputedAnalysis } from '../../modules/analyses/compute-analysis';
 import type { OtherLibrary } from '../../modules/analyses/does-not-belong';
-import type { PublishedLibrary } from '../../modules/libraries/published-library';
+import type { PackedLibrary } from '../../modules/libraries/library-packing';
 import type { Replicate } from '../../modules/measurements/replicate.entity';
 import type { ReportData } from '../../modules/reports/pdf/report-data';
 import type { SignatureFields } from '../../modules/reports/signing/sign-pdf';
@@ -66,10 +66,12 @@ export async function parseExports(input: { files: ExportFile[]; maxPoints: numb
   });
 }
 
-export async function analyse(input: { replicates: Replicate[]; library: PublishedLibrary; others?: OtherLibrary[] }): Promise<ComputedAnalysis | TaskRefusal> {
+export async function analyse(input: { replicates: Replicate[]; library: PackedLibrary; others?: (Omit<OtherLibrary, 'library'> & { library: PackedLibrary })[] }): Promise<ComputedAnalysis | TaskRefusal> {
   const { computeAnalysis } = load<typeof import('../../modules/analyses/compute-analysis')>('../../modules/analyses/compute-analysis');
+  const { unpackLibrary } = load<typeof import('../../modules/libraries/library-packing')>('../../modules/libraries/library-packing');
   try {
-    return computeAnalysis(input.replicates, input.library, input.others ?? []);
+    const others = (input.others ?? []).map((o) => ({ ...o, library: unpackLibrary(o.library) }));
+    return computeAnalysis(input.replicates, unpackLibrary(input.library), others);
   } catch (err) {
     return refusalOf(err);
   }
