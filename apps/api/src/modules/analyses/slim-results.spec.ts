@@ -115,4 +115,23 @@ describe('an analysis against a library of thousands of lots', () => {
     expect(changed.body.reproduced).toBe(false);
     expect(changed.body.differences[0].field).toMatch(/^lotDistances\[\d+\]$/);
   });
+
+  it('issues a report that keeps the bins and the band, not every calibration distance', async () => {
+    // Reproduced above with a tampered distance: run again so the report is from an honest analysis.
+    const [{ sample_id }] = await t.db.query(`SELECT sample_id FROM analysis WHERE id = $1`, [analysisId]);
+    const fresh = await request(t.app).post(`/api/lab/samples/${sample_id}/analyses`).set(await t.authFor('analyst')).send({ libraryVersionId: versionId });
+    await request(t.app).post(`/api/lab/analyses/${fresh.body.id}/submit`).set(await t.authFor('analyst'));
+    const res = await request(t.app).post(`/api/lab/analyses/${fresh.body.id}/approve`).set(await t.authFor('reviewer')).send({ comments: 'Agreed.' });
+    expect(res.status).toBe(200);
+    const [report] = await t.db.query(`SELECT content, octet_length(content::text) AS bytes FROM test_report WHERE id = $1`, [res.body.report.id]);
+    const plots = report.content.plots;
+    expect(plots.calibrationDistances).toBeUndefined();
+    expect(plots.calibrationHistogram).toEqual({ binEdges: fresh.body.result.histogram.binEdges, counts: fresh.body.result.histogram.counts });
+    expect(plots.calibrationHistogram.counts.reduce((a: number, b: number) => a + b, 0)).toBe(LOTS);
+    const band = fresh.body.referenceBand;
+    expect(plots.referenceEnvelope).toEqual({ frequencyHz: band.frequencyHz, modulusMin: band.modulusLow, modulusMax: band.modulusHigh, phaseMinDeg: band.phaseLowDeg, phaseMaxDeg: band.phaseHighDeg });
+    expect(plots.map.lots).toHaveLength(NEAREST_LOTS);
+    expect(report.content.results.nearestLot).toBe(fresh.body.result.nearest.lotCode);
+    expect(report.bytes).toBeLessThan(60_000);
+  });
 });
