@@ -97,7 +97,7 @@ describe('AnalysisResult', () => {
     http.verify();
     const nearestTable = el.querySelector('section[aria-labelledby="distances-heading"] table');
     expect(nearestTable?.querySelectorAll('tbody tr')).toHaveLength(10);
-    expect(nearestTable?.textContent).toContain('The 10 nearest of 3000 lots');
+    expect(nearestTable?.textContent).toContain('The 10 nearest of 3,000 lots');
 
     const show = Array.from(el.querySelectorAll('button')).find((b) => b.textContent?.includes('Show every lot'));
     show?.click();
@@ -106,7 +106,7 @@ describe('AnalysisResult', () => {
     await fixture.whenStable();
     fixture.detectChanges();
     expect(el.querySelector('ohm-lot-distance-pager tbody')?.querySelectorAll('tr')).toHaveLength(50);
-    expect(el.querySelector('ohm-lot-distance-pager caption')?.textContent).toContain('Lots 1–50 of 3000');
+    expect(el.querySelector('ohm-lot-distance-pager caption')?.textContent).toContain('Lots 1–50 of 3,000');
 
     Array.from(el.querySelectorAll('ohm-lot-distance-pager button')).find((b) => b.textContent?.includes('Next'))?.dispatchEvent(new Event('click'));
     http.expectOne((r) => r.url === `/api/lab/analyses/${large.id}/lot-distances` && r.params.get('after') === '50');

@@ -17,7 +17,7 @@ const PAGE = 50;
   template: `
     @if (page(); as p) {
       <table class="plain">
-        <caption>Lots {{ p.items[0]?.rank ?? 0 }}–{{ p.items[p.items.length - 1]?.rank ?? 0 }} of {{ p.total }}, nearest first</caption>
+        <caption>Lots {{ p.items[0]?.rank ?? 0 }}–{{ p.items[p.items.length - 1]?.rank ?? 0 }} of {{ p.total | number }}, nearest first</caption>
         <thead><tr><th scope="col">Rank</th><th scope="col">Lot</th><th scope="col">Canberra distance</th></tr></thead>
         <tbody>
           @for (d of p.items; track d.lotId) {
@@ -31,12 +31,16 @@ const PAGE = 50;
         <button mat-button type="button" (click)="page.set(null)">Hide</button>
       </div>
     } @else {
-      <button mat-stroked-button type="button" [disabled]="loading()" (click)="load(0)">Show every lot’s distance ({{ lotCount() }} lots, {{ pageSize }} a page)</button>
+      <button mat-stroked-button type="button" [disabled]="loading()" (click)="load(0)">Show every lot’s distance ({{ lotCount() | number }} lots, {{ pageSize }} a page)</button>
     }
   `,
   styles: `
     .pager { display: flex; gap: 8px; margin-top: 4px; }
-    caption { text-align: start; font: var(--mat-sys-body-small); color: var(--mat-sys-on-surface-variant); }
+    caption { text-align: start; padding: 8px 8px 2px; font: var(--mat-sys-body-small); color: var(--mat-sys-on-surface-variant); }
+    .plain { border-collapse: collapse; width: 100%; font: var(--mat-sys-body-small); font-variant-numeric: tabular-nums; }
+    .plain th, .plain td { text-align: left; padding: 3px 8px; border-bottom: 1px solid var(--mat-sys-outline-variant); }
+    .plain th { font-weight: 500; color: var(--mat-sys-on-surface-variant); }
+    .plain tr.nearest { font-weight: 600; }
   `,
 })
 export class LotDistancePager {
