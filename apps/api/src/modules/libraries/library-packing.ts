@@ -23,9 +23,17 @@ export function spectraOver(packed: Float64Array, grid: Float64Array): Spectrum[
   return spectra;
 }
 
+/** One packed form per cached library (the cache hands out one object per version), built once. */
+const packedForms = new WeakMap<PublishedLibrary, PackedLibrary>();
+
 export function packLibrary(library: PublishedLibrary): PackedLibrary {
-  const { spectra: _spectra, lots, ...rest } = library;
-  return { ...rest, lotKeys: lots.map((l) => `${l.id}\t${l.lotCode}`).join('\n') };
+  let packed = packedForms.get(library);
+  if (!packed) {
+    const { spectra: _spectra, lots, ...rest } = library;
+    packed = { ...rest, lotKeys: lots.map((l) => `${l.id}\t${l.lotCode}`).join('\n') };
+    packedForms.set(library, packed);
+  }
+  return packed;
 }
 
 /**
