@@ -16,3 +16,5 @@ export * from './lab';
 export * from './lab/reports';
 export * from './billing';
 export * from './notifications';
+export * from './format';
+export * from './layout';

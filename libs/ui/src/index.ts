@@ -37,3 +37,4 @@ export * from './people/invitee-email-field';
 export * from './people/open-invitations';
 export * from './people/first-admin';
 export * from './shell/toolbar-items';
+export * from './format/quantity';

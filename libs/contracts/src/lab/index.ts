@@ -19,3 +19,4 @@ export * from './chemistry';
 export * from './intake-limits';
 export * from './export-identity';
 export * from './validation';
+export * from './result-wording';

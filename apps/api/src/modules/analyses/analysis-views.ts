@@ -1,5 +1,5 @@
 import type { EntityManager } from 'typeorm';
-import { NEAREST_LOTS, type Analysis as AnalysisView, type AnalysisListItem, type AnalysisListQuery, type Page } from '@ohmprint/contracts';
+import { NEAREST_LOTS, sameLotCode, type Analysis as AnalysisView, type AnalysisListItem, type AnalysisListQuery, type Page } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
 import { escapeLike, pageParams, toPage } from '../../core/paging';
 import { referenceBandOf } from '../libraries/reference-band';
@@ -20,11 +20,11 @@ const iso = (d: Date | null) => d?.toISOString() ?? null;
 export async function analysisView(manager: EntityManager, labId: string, analysisId: string): Promise<AnalysisView> {
   const [a]: {
     id: string; status: AnalysisView['status']; result: AnalysisView['result']; method: AnalysisView['method']; engine_version: string; remarks: string; sample_spectrum: AnalysisView['sampleSpectrum'];
-    created_at: Date; submitted_at: Date | null; sample_id: string; sample_code: string; version_id: string; version: number; version_status: string; product_name: string;
+    created_at: Date; submitted_at: Date | null; sample_id: string; sample_code: string; claimed_lot: string | null; version_id: string; version: number; version_status: string; product_name: string;
     analyst_id: string; analyst_name: string;
   }[] = await manager.query(
     `SELECT a.id, a.status, a.result, a.method, a.sample_spectrum, a.engine_version, a.remarks, a.created_at, a.submitted_at,
-            s.id AS sample_id, s.code AS sample_code, v.id AS version_id, v.version, v.status AS version_status, p.name AS product_name,
+            s.id AS sample_id, s.code AS sample_code, s.claimed_lot, v.id AS version_id, v.version, v.status AS version_status, p.name AS product_name,
             u.id AS analyst_id, u.display_name AS analyst_name
      FROM analysis a
      JOIN sample s ON s.id = a.sample_id
@@ -47,6 +47,11 @@ export async function analysisView(manager: EntityManager, labId: string, analys
   );
   const follows = await revokedReportOf(manager, labId, a.sample_id);
   const referenceBand = await referenceBandOf(manager, labId, a.version_id);
+  // The nearest lot and the mapped ones: the same lots as the result's nearest distances.
+  const producerLotCodes = await producerLotCodesOf(manager, labId, [
+    ...(a.result.nearest ? [a.result.nearest.lotId] : []),
+    ...a.result.map.lots.map((l) => l.lotId),
+  ]);
   return {
     id: a.id,
     sample: { id: a.sample_id, code: a.sample_code },
@@ -60,12 +65,33 @@ export async function analysisView(manager: EntityManager, labId: string, analys
     analyst: { id: a.analyst_id, displayName: a.analyst_name },
     createdAt: a.created_at.toISOString(),
     submittedAt: iso(a.submitted_at),
+    producerLotCodes,
+    claimedLot: claimedLotMatch(a.claimed_lot, a.result.nearest ? (producerLotCodes[a.result.nearest.lotId] ?? null) : null),
     measurementTemperatures: temperatures.map((t) => ({ replicateNumber: t.replicate_number, fileName: t.file_name, temperatureC: t.temperature_c, source: t.temperature_source })),
     // only an analysis run after the revocation is the new one; the revoked report's own analysis is not
     followsRevokedReport: follows && a.created_at.toISOString() > follows.revokedAt ? follows.number : null,
     referenceBand,
     reviews: reviews.map((r) => ({ id: r.id, decision: r.decision, comments: r.comments, reviewer: { id: r.reviewer_id, displayName: r.reviewer_name }, decidedAt: r.decided_at.toISOString() })),
   };
+}
+
+/** The producer's own codes of the given library lots (those that have one), by lot id. */
+export async function producerLotCodesOf(manager: EntityManager, labId: string, lotIds: readonly string[]): Promise<Record<string, string>> {
+  if (!lotIds.length) return {};
+  const rows: { id: string; code: string }[] = await manager.query(
+    `SELECT r.id, COALESCE(r.producer_lot_code, s.reference_lot->>'lotCode') AS code
+     FROM reference_lot r LEFT JOIN sample s ON s.id = r.sample_id AND s.lab_id = r.lab_id
+     WHERE r.lab_id = $1 AND r.id = ANY($2::uuid[])`,
+    [labId, [...new Set(lotIds)]],
+  );
+  return Object.fromEntries(rows.filter((r) => r.code).map((r) => [r.id, r.code]));
+}
+
+/** The client's claimed lot and whether the nearest lot's producer code is that lot; null when none was claimed. */
+export function claimedLotMatch(claimed: string | null, nearestProducerCode: string | null): AnalysisView['claimedLot'] {
+  const lotCode = claimed?.trim() ?? '';
+  if (!lotCode) return null;
+  return { lotCode, nearestIsClaimed: nearestProducerCode === null ? null : sameLotCode(lotCode, nearestProducerCode) };
 }
 
 const SORT: Record<AnalysisListQuery['sort'], string> = { createdAt: 'a.created_at', submittedAt: 'a.submitted_at', sample: 's.code', status: 'a.status' };

@@ -129,7 +129,7 @@ describe('an analysis against a library of thousands of lots', () => {
     expect(plots.calibrationHistogram).toEqual({ binEdges: fresh.body.result.histogram.binEdges, counts: fresh.body.result.histogram.counts });
     expect(plots.calibrationHistogram.counts.reduce((a: number, b: number) => a + b, 0)).toBe(LOTS);
     const band = fresh.body.referenceBand;
-    expect(plots.referenceEnvelope).toEqual({ frequencyHz: band.frequencyHz, modulusMin: band.modulusLow, modulusMax: band.modulusHigh, phaseMinDeg: band.phaseLowDeg, phaseMaxDeg: band.phaseHighDeg });
+    expect(plots.referenceEnvelope).toEqual({ frequencyHz: band.frequencyHz, modulusMin: band.modulusLow, modulusMax: band.modulusHigh, phaseMinDeg: band.phaseLowDeg, phaseMaxDeg: band.phaseHighDeg, reMin: band.reLow, reMax: band.reHigh, imMin: band.imLow, imMax: band.imHigh });
     expect(plots.map.lots).toHaveLength(NEAREST_LOTS);
     expect(report.content.results.nearestLot).toBe(fresh.body.result.nearest.lotCode);
     expect(report.bytes).toBeLessThan(60_000);
