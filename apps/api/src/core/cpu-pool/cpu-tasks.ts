@@ -70,8 +70,12 @@ export async function analyse(input: { replicates: Replicate[]; library: PackedL
   const { computeAnalysis } = load<typeof import('../../modules/analyses/compute-analysis')>('../../modules/analyses/compute-analysis');
   const { unpackLibrary } = load<typeof import('../../modules/libraries/library-packing')>('../../modules/libraries/library-packing');
   try {
+    const { encodeRanked } = load<typeof import('../../modules/analyses/lot-distances')>('../../modules/analyses/lot-distances');
     const others = (input.others ?? []).map((o) => ({ ...o, library: unpackLibrary(o.library) }));
-    return computeAnalysis(input.replicates, unpackLibrary(input.library), others);
+    const computed = computeAnalysis(input.replicates, unpackLibrary(input.library), others);
+    // Every lot's distance packed for storage here too, so the request thread only hands the bytes on.
+    const ranked = encodeRanked(computed.ranking, computed.lotDistances);
+    return { ...computed, rankedBytes: new Uint8Array(ranked.buffer, ranked.byteOffset, ranked.byteLength) };
   } catch (err) {
     return refusalOf(err);
   }

@@ -53,7 +53,7 @@ export async function runAnalysis(manager: EntityManager, auth: AuthContext, lab
     createdAt: new Date(),
   });
   const id = inserted.identifiers[0].id as string;
-  await storeLotDistances(manager, labId, id, computed.ranking, computed.lotDistances);
+  await storeLotDistances(manager, labId, id, computed.ranking, computed.lotDistances, computed.rankedBytes);
   const wasReported = sample.state === 'reported';
   await moveSample(manager, sample, 'analysed');
   if (wasReported) await refreshOrderStatus(manager, labId, sample.orderId);

@@ -27,6 +27,8 @@ export interface ComputedAnalysis {
   lotDistances: Float64Array;
   /** Lot indices nearest first (see `rankLots`). */
   ranking: Uint32Array;
+  /** `encodeRanked(ranking, lotDistances)`, when the worker thread packed it already. */
+  rankedBytes?: Uint8Array;
 }
 
 /** Lot indices nearest first, ties by lot order (lot code, then id). */

@@ -21,8 +21,9 @@ function decodeEntries(bytes: Buffer): { index: number; distance: number }[] {
   return out;
 }
 
-export async function storeLotDistances(manager: EntityManager, labId: string, analysisId: string, ranking: ArrayLike<number>, distances: ArrayLike<number>): Promise<void> {
-  await manager.query(`INSERT INTO analysis_lot_distance (analysis_id, lab_id, lot_count, ranked) VALUES ($1, $2, $3, $4)`, [analysisId, labId, ranking.length, encodeRanked(ranking, distances)]);
+export async function storeLotDistances(manager: EntityManager, labId: string, analysisId: string, ranking: ArrayLike<number>, distances: ArrayLike<number>, packed?: Uint8Array): Promise<void> {
+  const bytes = packed ? Buffer.from(packed.buffer, packed.byteOffset, packed.byteLength) : encodeRanked(ranking, distances);
+  await manager.query(`INSERT INTO analysis_lot_distance (analysis_id, lab_id, lot_count, ranked) VALUES ($1, $2, $3, $4)`, [analysisId, labId, ranking.length, bytes]);
 }
 
 /** Every lot's distance in the version's lot order, as stored; null for an analysis from before they were stored apart. */
