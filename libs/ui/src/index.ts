@@ -33,6 +33,7 @@ export * from './lists/pending-invitations';
 export * from './errors/form-submission';
 export * from './feedback/dialog-result';
 export * from './lists/list-status';
+export * from './lists/capped-paginator-intl';
 export * from './people/invitee-email-field';
 export * from './people/open-invitations';
 export * from './people/first-admin';

@@ -3,6 +3,7 @@ import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import type { MatPaginator } from '@angular/material/paginator';
 import type { MatSort } from '@angular/material/sort';
 import type { ListQuery, Page } from '@ohmprint/contracts';
+import { paginatorLength } from './capped-paginator-intl';
 import { Subject, catchError, map, merge, of, startWith, switchMap, tap, type Observable } from 'rxjs';
 
 export interface ServerListSources<T> {
@@ -63,7 +64,7 @@ export class ServerList<T> {
         if (!page) return;
         this.failed.set(false);
         this.rows.set(page.items);
-        this.total.set(page.total);
+        this.total.set(paginatorLength(page));
       });
   }
 
