@@ -23,6 +23,7 @@ import { librariesRouter } from './libraries/router';
 import { methodsRouter } from './libraries/methods.router';
 import { libraryBuildRouter } from './libraries/library-build.router';
 import { analysesRouter } from './analyses/router';
+import { slimResultsRouter } from './analyses/slim-results.router';
 import { reviewsRouter } from './reviews/router';
 import { reportIssuanceRouter } from './reviews/report-issuance.router';
 import { clientOrdersRouter } from './orders/router';
@@ -61,6 +62,7 @@ export function apiRoutes(): Router {
   api.use(methodsRouter());
   api.use(libraryBuildRouter());
   api.use('/lab', analysesRouter());
+  api.use(slimResultsRouter());
   api.use('/lab', reviewsRouter());
   api.use(clientOrdersRouter());
   api.use(clientOrderingRouter());

@@ -11,7 +11,7 @@ import type { calibrate, FitResult, ModelReference, Spectrum } from '@ohmprint/s
 import type { KramersKronigSummary } from '@ohmprint/contracts';
 import type { ComputedAnalysis } from '../../modules/analyses/compute-analysis';
 import type { OtherLibrary } from '../../modules/analyses/does-not-belong';
-import type { PublishedLibrary } from '../../modules/libraries/published-library';
+import type { PackedLibrary } from '../../modules/libraries/library-packing';
 import type { Replicate } from '../../modules/measurements/replicate.entity';
 import type { LabelPackData } from '../../modules/orders/label-pack-data';
 import type { ReportData } from '../../modules/reports/pdf/report-data';
@@ -83,10 +83,16 @@ export async function parseExports(input: { files: ExportFile[]; maxPoints: numb
   });
 }
 
-export async function analyse(input: { replicates: Replicate[]; library: PublishedLibrary; others?: OtherLibrary[] }): Promise<ComputedAnalysis | TaskRefusal> {
+export async function analyse(input: { replicates: Replicate[]; library: PackedLibrary; others?: (Omit<OtherLibrary, 'library'> & { library: PackedLibrary })[] }): Promise<ComputedAnalysis | TaskRefusal> {
   const { computeAnalysis } = load<typeof import('../../modules/analyses/compute-analysis')>('../../modules/analyses/compute-analysis');
+  const { unpackLibrary } = load<typeof import('../../modules/libraries/library-packing')>('../../modules/libraries/library-packing');
   try {
-    return computeAnalysis(input.replicates, input.library, input.others ?? []);
+    const { encodeRanked } = load<typeof import('../../modules/analyses/lot-distances')>('../../modules/analyses/lot-distances');
+    const others = (input.others ?? []).map((o) => ({ ...o, library: unpackLibrary(o.library) }));
+    const computed = computeAnalysis(input.replicates, unpackLibrary(input.library), others);
+    // Every lot's distance packed for storage here too, so the request thread only hands the bytes on.
+    const ranked = encodeRanked(computed.ranking, computed.lotDistances);
+    return { ...computed, rankedBytes: new Uint8Array(ranked.buffer, ranked.byteOffset, ranked.byteLength) };
   } catch (err) {
     return refusalOf(err);
   }

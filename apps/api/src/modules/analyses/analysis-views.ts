@@ -1,8 +1,19 @@
 import type { EntityManager } from 'typeorm';
-import { sameLotCode, type Analysis as AnalysisView, type AnalysisListItem, type AnalysisListQuery, type Page } from '@ohmprint/contracts';
+import { NEAREST_LOTS, sameLotCode, type Analysis as AnalysisView, type AnalysisListItem, type AnalysisListQuery, type Page } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
 import { cappedCount, escapeLike, sparseSearchIds, pageParams, toCappedPage } from '../../core/paging';
+import { referenceBandOf } from '../libraries/reference-band';
 import { revokedReportOf } from './revoked-report';
+
+/**
+ * The result as a reader gets it: an analysis from before results were slimmed kept every lot's
+ * distance, so only its nearest are returned (the rest page through the lot-distances route).
+ */
+function slimResult(result: AnalysisView['result']): AnalysisView['result'] {
+  if (result.lotCount !== undefined) return result;
+  const nearest = [...result.distances].sort((a, b) => a.distance - b.distance || a.lotCode.localeCompare(b.lotCode)).slice(0, NEAREST_LOTS);
+  return { ...result, distances: nearest, lotCount: result.distances.length };
+}
 
 const iso = (d: Date | null) => d?.toISOString() ?? null;
 
@@ -35,6 +46,8 @@ export async function analysisView(manager: EntityManager, labId: string, analys
     [labId, a.result.replicateIds],
   );
   const follows = await revokedReportOf(manager, labId, a.sample_id);
+  const referenceBand = await referenceBandOf(manager, labId, a.version_id);
+  // The nearest lot and the mapped ones: the same lots as the result's nearest distances.
   const producerLotCodes = await producerLotCodesOf(manager, labId, [
     ...(a.result.nearest ? [a.result.nearest.lotId] : []),
     ...a.result.map.lots.map((l) => l.lotId),
@@ -44,7 +57,7 @@ export async function analysisView(manager: EntityManager, labId: string, analys
     sample: { id: a.sample_id, code: a.sample_code },
     libraryVersion: { id: a.version_id, version: a.version, productName: a.product_name, retired: a.version_status === 'retired' },
     status: a.status,
-    result: a.result,
+    result: slimResult(a.result),
     method: a.method,
     sampleSpectrum: a.sample_spectrum,
     engineVersion: a.engine_version,
@@ -57,6 +70,7 @@ export async function analysisView(manager: EntityManager, labId: string, analys
     measurementTemperatures: temperatures.map((t) => ({ replicateNumber: t.replicate_number, fileName: t.file_name, temperatureC: t.temperature_c, source: t.temperature_source })),
     // only an analysis run after the revocation is the new one; the revoked report's own analysis is not
     followsRevokedReport: follows && a.created_at.toISOString() > follows.revokedAt ? follows.number : null,
+    referenceBand,
     reviews: reviews.map((r) => ({ id: r.id, decision: r.decision, comments: r.comments, reviewer: { id: r.reviewer_id, displayName: r.reviewer_name }, decidedAt: r.decided_at.toISOString() })),
   };
 }

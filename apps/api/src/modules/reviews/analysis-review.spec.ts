@@ -21,8 +21,9 @@ describe('analysis', () => {
     const r = res.body.result;
     expect(r.verdict).toBe('not-consistent');
     expect(r.nearest.distance).toBeGreaterThan(r.t99);
-    // Ridgeline Red's newest demo version holds 80 lots; the map shows the sample's 59 nearest.
-    expect(r.distances).toHaveLength(80);
+    // Ridgeline Red's newest demo version holds 80 lots; the result keeps and maps the sample's 59 nearest.
+    expect(r.lotCount).toBe(80);
+    expect(r.distances).toHaveLength(59);
     expect(r.map.lots).toHaveLength(59);
     expect(r.histogram.counts.reduce((a: number, b: number) => a + b, 0)).toBe(80);
     expect(r.thresholds).toMatchObject({ estimator: 'lognormal-ml', lotCount: 80, resamples: 2000 });
