@@ -16,3 +16,4 @@ export * from './lab';
 export * from './lab/reports';
 export * from './billing';
 export * from './notifications';
+export * from './field-words';
