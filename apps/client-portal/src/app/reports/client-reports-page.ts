@@ -33,8 +33,8 @@ import { reportStanding } from './report-standing';
           <th mat-header-cell *matHeaderCellDef mat-sort-header>Report</th>
           <td mat-cell *matCellDef="let r"><span class="number">{{ r.number }}</span>
             @if (r.replacesNumber) { <span class="note">replaces {{ r.replacesNumber }}</span> }
-            <span class="ohm-narrow-only note">{{ r.sampleCode }} · {{ r.productName }} · {{ r.issuedAt | date: 'd MMM y' }}</span>
-            @if (r.status !== 'revoked') { <ohm-verdict-chip class="ohm-narrow-only" [verdict]="r.verdict" [compact]="true" /> }
+            <span class="ohm-narrow-only"><span class="note">{{ r.sampleCode }} · {{ r.productName }} · {{ r.issuedAt | date: 'd MMM y' }}</span>
+              @if (r.status !== 'revoked') { <ohm-verdict-chip [verdict]="r.verdict" [compact]="true" /> }</span>
           </td>
         </ng-container>
         <ng-container matColumnDef="sample">
@@ -63,7 +63,7 @@ import { reportStanding } from './report-standing';
         </ng-container>
         <ng-container matColumnDef="download">
           <th mat-header-cell *matHeaderCellDef><span class="cdk-visually-hidden">Download</span></th>
-          <td mat-cell *matCellDef="let r"><button mat-stroked-button type="button" [attr.aria-label]="pdfLabel(r) + ' of ' + r.number" (click)="data.download(r)"><mat-icon>download</mat-icon>{{ pdfLabel(r) }}</button></td>
+          <td mat-cell *matCellDef="let r"><button mat-stroked-button type="button" [attr.aria-label]="pdfLabel(r) + ' of ' + r.number" (click)="data.download(r)"><mat-icon>download</mat-icon><span class="ohm-wide-only">{{ pdfLabel(r) }}</span></button></td>
         </ng-container>
         <tr mat-header-row *matHeaderRowDef="columns"></tr>
         <tr mat-row *matRowDef="let row; columns: columns"></tr>
@@ -79,7 +79,7 @@ import { reportStanding } from './report-standing';
     </div>
   `,
   styles: `
-    .number { font-family: ui-monospace, monospace; font-weight: 600; }
+    .number { font-family: ui-monospace, monospace; font-weight: 600; white-space: nowrap; }
     .note { display: block; font: var(--mat-sys-body-small); color: var(--mat-sys-on-surface-variant); }
     .caution { margin-bottom: 16px; }
   `,
