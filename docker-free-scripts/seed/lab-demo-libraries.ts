@@ -16,6 +16,7 @@ import { methodGrid } from '../../apps/api/src/modules/measurements/prepared-rep
 import { DEMO_PRODUCTS, type DemoProduct } from './lab-demo-catalog';
 import { demoRandom, seedFrom } from './lab-demo-random';
 import { DEMO_PROFILES, demoLots, type DemoLot } from './lab-demo-spectra';
+import { demoProducerLotCode } from './producer-lot-codes-demo';
 
 interface DemoMethod {
   matrix: Matrix;
@@ -56,6 +57,7 @@ function lotsOf(product: DemoProduct, grid: Float64Array, count: number): NewLot
   return lots.map((l, i) => ({
     ...l,
     note: 'Invented demo lot',
+    producerLotCode: demoProducerLotCode(l.lotCode),
     chemistry: chemistryOf(product.matrix, l, i, meanRe),
     quality: { replicates: 3, kkMaxResidualPercent: null, replicateMaxDistance: null, problems: [] },
   }));

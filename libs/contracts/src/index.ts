@@ -17,3 +17,5 @@ export * from './lab/reports';
 export * from './billing';
 export * from './notifications';
 export * from './field-words';
+export * from './format';
+export * from './layout';

@@ -13,7 +13,7 @@ export { calibrate } from './calibration/calibrate';
 export { NOT_ENOUGH_LOTS, type Calibration, type CalibrationOptions } from './calibration/calibration';
 export { judge, type Judgement, type Verdict } from './calibration/judge';
 export { decisionRuleText } from './calibration/decision-rule';
-export { classicalMds, FULL_DECOMPOSITION_LIMIT, type MdsResult, type MdsOptions, type MdsMethod, type MdsGoodnessOfFit } from './map/classical-mds';
+export { axisShares, classicalMds, FULL_DECOMPOSITION_LIMIT, type MdsResult, type MdsOptions, type MdsMethod, type MdsGoodnessOfFit } from './map/classical-mds';
 export { sampleMap, type SampleMap, type MapPoint } from './map/sample-map';
 export { pearson, type PearsonResult } from './statistics/pearson';
 export { mean, variance, standardDeviation, summarise, type Summary } from './statistics/summary';

@@ -57,6 +57,13 @@ export const FittedParameterSchema = z.object({
 });
 export type FittedParameter = z.infer<typeof FittedParameterSchema>;
 
+/**
+ * How a fit scales residuals before squaring: by |Z| at each frequency (modulus), by the part
+ * itself (proportional), or not at all (unit: large impedances dominate).
+ */
+export const FitWeightingSchema = z.enum(['modulus', 'proportional', 'unit']);
+export type FitWeighting = z.infer<typeof FitWeightingSchema>;
+
 /** The numbers behind a verdict; every one comes from the spectral engine. */
 export const AnalysisResultSchema = z.object({
   verdict: VerdictSchema,
@@ -70,6 +77,8 @@ export const AnalysisResultSchema = z.object({
   map: z.object({
     sample: z.tuple([z.number(), z.number()]),
     lots: z.array(z.object({ lotId: z.uuid(), lotCode: z.string(), x: z.number(), y: z.number() })),
+    /** Each axis's eigenvalue over the sum of the positive eigenvalues (0–1); absent on older analyses. */
+    axisShares: z.tuple([z.number(), z.number()]).optional(),
   }),
   /** Histogram of the calibration distances, for plotting with T95/T99 and the sample's distance. */
   histogram: z.object({ binEdges: z.array(z.number()), counts: z.array(z.number().int()) }),
@@ -79,6 +88,10 @@ export const AnalysisResultSchema = z.object({
       parameters: z.array(FittedParameterSchema),
       chiSquare: z.number(),
       converged: z.boolean(),
+      /** How residuals were scaled in χ² (absent on older analyses). */
+      weighting: FitWeightingSchema.optional(),
+      /** The fitted model evaluated at `sampleSpectrum.frequencyHz` (Ω·cm), to draw over the data; absent on older analyses. */
+      curve: z.object({ re: z.array(z.number()), im: z.array(z.number()) }).optional(),
     })
     .nullable(),
   qualityFlags: z.array(QualityFlagSchema),
@@ -113,6 +126,17 @@ export const AnalysisSchema = z.object({
   submittedAt: z.iso.datetime({ offset: true }).nullable(),
   /** The scored replicates' measurement temperatures, before referral to `method.referenceTemperatureC`. */
   measurementTemperatures: z.array(MeasurementTemperatureSchema).optional(),
+  /**
+   * The producer's own lot code (from its reference-lot declaration) for the library lots this
+   * analysis names, by lot id; lots without a declaration are absent. Read when the analysis is shown.
+   */
+  producerLotCodes: z.record(z.string(), z.string()).optional(),
+  /**
+   * The lot the client claimed for this check sample, and whether the nearest library lot is that
+   * lot (compared with the nearest lot's producer code; null when the nearest lot has none or there
+   * is no nearest lot). Null when the client claimed no lot.
+   */
+  claimedLot: z.object({ lotCode: z.string(), nearestIsClaimed: z.boolean().nullable() }).nullable().optional(),
   /** The revoked report of this sample that a report from this analysis would follow, if any. */
   followsRevokedReport: z.string().nullable().optional(),
   reviews: z.array(

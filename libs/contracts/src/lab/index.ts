@@ -17,3 +17,4 @@ export * from './chemistry';
 export * from './intake-limits';
 export * from './export-identity';
 export * from './validation';
+export * from './result-wording';

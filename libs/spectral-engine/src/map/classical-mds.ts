@@ -98,3 +98,15 @@ export function classicalMds(distances: readonly (readonly number[])[], dims: nu
   const positiveAxes = eigenvalues.slice(0, dims).filter(carries).length;
   return { coordinates, eigenvalues, method, positiveAxes, goodnessOfFit, negativeEigenvalues, smallestEigenvalue };
 }
+
+/**
+ * Each eigenvalue's share of the spread the map could show: λₖ / Σ max(λ, 0), as the positive
+ * goodness of fit of `cmdscale` splits by axis; a flat axis (λ ≤ 0) has share 0. Needs every
+ * eigenvalue (`complete`), else returns null.
+ */
+export function axisShares(eigenvalues: readonly number[], complete: boolean): number[] | null {
+  if (!complete) return null;
+  const positive = eigenvalues.reduce((s, x) => s + Math.max(x, 0), 0);
+  if (!(positive > 0)) return eigenvalues.map(() => 0);
+  return eigenvalues.map((x) => Math.max(x, 0) / positive);
+}

@@ -1,6 +1,6 @@
 import { distanceMatrix } from '../similarity/distance-matrix';
 import type { Spectrum } from '../spectrum';
-import { classicalMds, type MdsGoodnessOfFit } from './classical-mds';
+import { axisShares, classicalMds, type MdsGoodnessOfFit } from './classical-mds';
 
 /** One point of the map: a reference lot (by library position) or the sample. */
 export interface MapPoint {
@@ -20,6 +20,11 @@ export interface SampleMap {
   readonly goodnessOfFit: MdsGoodnessOfFit | null;
   /** How many of the two axes carry information (an axis with λ ≤ 0 is flat). */
   readonly positiveAxes: number;
+  /**
+   * Each axis's share of the spread: λₖ / Σ max(λ, 0) over all eigenvalues (so the two add up to
+   * `goodnessOfFit.positive`); null when only the largest eigenvalues were computed.
+   */
+  readonly axisShares: readonly [number, number] | null;
 }
 
 /**
@@ -32,5 +37,12 @@ export function sampleMap(library: readonly Spectrum[], sample: Spectrum): Sampl
   const points = mds.coordinates.map(([x, y], i): MapPoint =>
     i < library.length ? { kind: 'reference', index: i, x, y } : { kind: 'sample', index: -1, x, y },
   );
-  return { points, eigenvalues: [mds.eigenvalues[0], mds.eigenvalues[1]], goodnessOfFit: mds.goodnessOfFit, positiveAxes: mds.positiveAxes };
+  const shares = axisShares(mds.eigenvalues, mds.method === 'full');
+  return {
+    points,
+    eigenvalues: [mds.eigenvalues[0], mds.eigenvalues[1]],
+    goodnessOfFit: mds.goodnessOfFit,
+    positiveAxes: mds.positiveAxes,
+    axisShares: shares ? [shares[0], shares[1]] : null,
+  };
 }

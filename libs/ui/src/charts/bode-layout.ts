@@ -3,7 +3,7 @@ import { linearTicks, logTicks } from './axis-ticks';
 import type { PlotArea, ReferenceBand, SpectrumSeries } from './chart-types';
 import { finiteExtent } from './equal-aspect';
 import { markerIndices, type DrawnSeries, type PanelLayout } from './panel-layout';
-import { markerPath, seriesStyle } from './series-style';
+import { markerPath, styleFor } from './series-style';
 import { formatHz, formatNumber, formatSi } from './si-format';
 import { modulus, phaseDeg } from './spectrum-polar';
 import { bandPath, polylinePath } from './svg-path';
@@ -58,7 +58,7 @@ export function bodeLayout(
     series.map((s, k) => {
       const xs = Array.from(s.frequencyHz, (f) => x(f));
       const ys = Array.from(values(k), (v) => scaleY(v));
-      const style = seriesStyle(k);
+      const style = styleFor(series, k);
       return {
         label: s.label,
         d: polylinePath(xs, ys),

@@ -12,6 +12,8 @@ export interface SpectrumSeries {
   readonly im: ArrayLike<number>;
   /** Drawn faded and dashed: an excluded replicate stays visible but reads as set aside. */
   readonly muted?: boolean;
+  /** A model's fitted curve is drawn as a plain line without markers, over the data. Default 'data'. */
+  readonly role?: 'data' | 'fit';
 }
 
 /**

@@ -3,7 +3,7 @@ import type { Verdict } from '@ohmprint/contracts';
 import { ChartAxes } from './chart-axes';
 import { ChartFrame } from './chart-frame';
 import type { ChartTable } from './chart-types';
-import { distanceHistogramLayout, type DistanceHistogramInput } from './histogram-layout';
+import { LABEL_BASELINE, distanceHistogramLayout, type DistanceHistogramInput } from './histogram-layout';
 import { formatNumber } from './si-format';
 
 let nextId = 0;
@@ -26,9 +26,12 @@ let nextId = 0;
         }
         @for (l of layout().lines; track l.kind) {
           <svg:line [class]="'line ' + l.kind" [attr.x1]="l.x" [attr.x2]="l.x" [attr.y1]="layout().area.top" [attr.y2]="layout().area.top + layout().area.height" />
-          <svg:text class="line-label" [attr.x]="l.x" [attr.y]="l.kind === 'sample' ? layout().area.top + 14 : layout().area.top - 6" [attr.text-anchor]="l.kind === 't95' ? 'end' : 'start'" [attr.dx]="l.kind === 't95' ? -3 : 4">
-            {{ l.label }}
-          </svg:text>
+          @if (l.labelBox.placed) {
+            @if (l.labelBox.leader; as k) {
+              <svg:line class="leader" [attr.x1]="k.x1" [attr.y1]="k.y1" [attr.x2]="k.x2" [attr.y2]="k.y2" />
+            }
+            <svg:text [class]="'line-label ' + l.kind" [attr.data-label]="l.kind" [attr.x]="l.labelBox.x" [attr.y]="l.labelBox.y + baseline">{{ l.label }}</svg:text>
+          }
           @if (l.kind === 'sample') {
             <svg:path class="sample-mark" [attr.d]="'M' + l.x + ',' + (layout().area.top + layout().area.height) + 'l-6,10h12z'" />
           }
@@ -43,7 +46,10 @@ let nextId = 0;
     .line.t99 { stroke: var(--mat-sys-error); stroke-dasharray: 2 3; }
     .line.sample { stroke: var(--ohm-sample-mark, var(--mat-sys-primary)); stroke-width: 2.4; }
     .sample-mark { fill: var(--ohm-sample-mark, var(--mat-sys-primary)); }
-    .line-label { fill: var(--mat-sys-on-surface); font-weight: 500; }
+    .line-label { fill: var(--mat-sys-on-surface); font-weight: 500;
+      paint-order: stroke; stroke: var(--mat-sys-surface); stroke-width: 3px; stroke-linejoin: round; }
+    .line-label.sample { font-weight: 600; }
+    .leader { stroke: var(--mat-sys-on-surface-variant); stroke-width: 0.8; }
   `,
 })
 export class DistanceHistogram {
@@ -52,6 +58,7 @@ export class DistanceHistogram {
   readonly heading = input('Sample among the library’s own spread');
 
   protected readonly titleId = `ohm-histogram-${nextId++}`;
+  protected readonly baseline = LABEL_BASELINE;
   protected readonly layout = computed(() => distanceHistogramLayout(this.data(), 640, 260));
   protected readonly summary = computed(() => {
     const d = this.data();

@@ -60,3 +60,27 @@ describe('distanceHistogramLayout', () => {
     expect(layout.lines.find((l) => l.kind === 'sample')!.x).toBeLessThanOrEqual(layout.area.left + layout.area.width);
   });
 });
+
+describe('distanceHistogramLayout labels', () => {
+  const overlap = (a: { x: number; y: number; width: number; height: number }, b: typeof a) =>
+    a.x < b.x + b.width && b.x < a.x + a.width && a.y < b.y + b.height && b.y < a.y + a.height;
+
+  it('keeps the T95, T99 and sample labels apart when the three lines stand close together', () => {
+    const layout = distanceHistogramLayout({ calibrationDistances: distances, t95: 0.066, t99: 0.0665, sampleDistance: 0.067 }, 640, 260);
+    const boxes = layout.lines.map((l) => l.labelBox);
+    expect(boxes.every((b) => b.placed)).toBe(true);
+    for (let i = 0; i < boxes.length; i++) for (let j = i + 1; j < boxes.length; j++) expect(overlap(boxes[i], boxes[j])).toBe(false);
+  });
+
+  it('keeps T95’s label inside the chart when a far-out sample pushes it to the left edge', () => {
+    const layout = distanceHistogramLayout({ calibrationDistances: distances, t95: 0.066, t99: 0.071, sampleDistance: 4.2 }, 640, 260);
+    for (const l of layout.lines) {
+      expect(l.labelBox.placed).toBe(true);
+      expect(l.labelBox.x).toBeGreaterThanOrEqual(0);
+      expect(l.labelBox.x + l.labelBox.width).toBeLessThanOrEqual(640);
+    }
+    const t95 = layout.lines.find((l) => l.kind === 't95')!;
+    // Its line is near the left axis, so the label flips to the line's right.
+    expect(t95.labelBox.x).toBeGreaterThan(t95.x);
+  });
+});

@@ -1,4 +1,5 @@
 import { scaleLinear } from 'd3-scale';
+import { estimateTextWidth, placeLabels, type LabelSide, type PlacedLabel } from '@ohmprint/contracts';
 import { linearTicks } from './axis-ticks';
 import type { AxisTick, PlotArea } from './chart-types';
 import { formatNumber } from './si-format';
@@ -55,8 +56,22 @@ export interface DistanceHistogramLayout {
   readonly bars: readonly (HistogramBin & { readonly x: number; readonly y: number; readonly w: number; readonly h: number })[];
   readonly xTicks: readonly AxisTick[];
   readonly yTicks: readonly AxisTick[];
-  readonly lines: readonly { readonly kind: 't95' | 't99' | 'sample'; readonly x: number; readonly label: string }[];
+  readonly lines: readonly HistogramLine[];
 }
+
+export interface HistogramLine {
+  readonly kind: 't95' | 't99' | 'sample';
+  readonly x: number;
+  readonly label: string;
+  /** Where its label goes: never over another line's label, never outside the chart. */
+  readonly labelBox: PlacedLabel;
+}
+
+/** Chart text is 11 px (chart-svg.css); a label box is one line of it with a little air. */
+export const CHART_FONT_PX = 11;
+export const LABEL_BOX_HEIGHT = 14;
+/** The SVG baseline of text drawn in a label box, from the box's top. */
+export const LABEL_BASELINE = 10.5;
 
 const MARGIN = { left: 48, right: 16, top: 28, bottom: 40 };
 
@@ -87,12 +102,29 @@ export function distanceHistogramLayout(input: DistanceHistogramInput, width: nu
   }
   const maxCount = Math.max(1, ...bins.map((b) => b.count));
   const y = scaleLinear().domain([0, maxCount]).range([area.top + area.height, area.top]).nice();
-  const lines: { kind: 't95' | 't99' | 'sample'; x: number; label: string }[] = [];
-  if (input.t95 !== null) lines.push({ kind: 't95', x: x(input.t95), label: `T95 ${formatNumber(input.t95, 3)}` });
-  if (input.t99 !== null) lines.push({ kind: 't99', x: x(input.t99), label: `T99 ${formatNumber(input.t99, 3)}` });
+  const raw: { kind: 't95' | 't99' | 'sample'; x: number; label: string }[] = [];
+  if (input.t95 !== null) raw.push({ kind: 't95', x: x(input.t95), label: `T95 ${formatNumber(input.t95, 3)}` });
+  if (input.t99 !== null) raw.push({ kind: 't99', x: x(input.t99), label: `T99 ${formatNumber(input.t99, 3)}` });
   if (input.sampleDistance !== null) {
-    lines.push({ kind: 'sample', x: x(input.sampleDistance), label: `Sample ${formatNumber(input.sampleDistance, 3)}` });
+    raw.push({ kind: 'sample', x: x(input.sampleDistance), label: `Sample ${formatNumber(input.sampleDistance, 3)}` });
   }
+  // Labels sit in the band above the plot, T95 to the left of its line and the others to the right;
+  // at an edge they flip, and when lines stand close together they stack down beside their lines.
+  // The sample's label is placed first: it is the one a reader looks for.
+  const order = [...raw].sort((a, b) => (a.kind === 'sample' ? -1 : b.kind === 'sample' ? 1 : 0));
+  const sidesOf = (kind: string): LabelSide[] => (kind === 't95' ? ['left', 'right'] : ['right', 'left']);
+  const boxes = placeLabels(
+    order.map((l) => ({
+      id: l.kind,
+      anchor: { x: l.x, y: area.top - 4 - LABEL_BOX_HEIGHT / 2 },
+      width: estimateTextWidth(l.label, CHART_FONT_PX, l.kind === 'sample'),
+      height: LABEL_BOX_HEIGHT,
+      sides: sidesOf(l.kind),
+    })),
+    { x: 0, y: 0, width, height: area.top + area.height },
+    { gap: 3 },
+  );
+  const lines: HistogramLine[] = raw.map((l) => ({ ...l, labelBox: boxes.find((b) => b.id === l.kind)! }));
   return {
     width,
     height,

@@ -30,3 +30,26 @@ describe('libraryMapLayout', () => {
     expect(libraryMapLayout(points, null, 480, 360).link).toBeNull();
   });
 });
+
+describe('libraryMapLayout labels', () => {
+  it('names the sample, the nearest lot and nearby lots without two labels colliding, even when lots crowd together', () => {
+    const crowd: MapPoint[] = [
+      { id: 'sample', label: 'OP-2026-0042', x: 0.001, y: 0.0005, kind: 'sample' },
+      ...Array.from({ length: 14 }, (_, i): MapPoint => ({ id: `l${i}`, label: `RID-L00${10 + i}`, x: (i % 4) * 0.002, y: Math.floor(i / 4) * 0.001, kind: 'reference' })),
+      { id: 'far', label: 'RID-L0099', x: 0.4, y: 0.3, kind: 'reference' },
+    ];
+    const layout = libraryMapLayout(crowd, 'l1', 560, 380);
+    const shown = layout.labels.filter((l) => l.placed);
+    expect(shown.map((l) => l.kind).slice(0, 2)).toEqual(['sample', 'nearest']);
+    expect(shown.length).toBeGreaterThanOrEqual(5);
+    for (let i = 0; i < shown.length; i++) {
+      const a = shown[i];
+      expect(a.x).toBeGreaterThanOrEqual(layout.area.left);
+      expect(a.x + a.width).toBeLessThanOrEqual(layout.area.left + layout.area.width + 1e-9);
+      for (let j = i + 1; j < shown.length; j++) {
+        const b = shown[j];
+        expect(a.x < b.x + b.width && b.x < a.x + a.width && a.y < b.y + b.height && b.y < a.y + a.height).toBe(false);
+      }
+    }
+  });
+});

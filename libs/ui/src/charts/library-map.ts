@@ -20,19 +20,23 @@ let nextId = 0;
     <ohm-chart-frame [heading]="heading()" [table]="table()">
       <svg role="img" [attr.viewBox]="'0 0 ' + layout().width + ' ' + layout().height" [attr.aria-labelledby]="titleId">
         <title [id]="titleId">{{ summary() }}</title>
-        <svg:g ohmChartAxes [area]="layout().area" [xTicks]="layout().xTicks" [yTicks]="layout().yTicks" xLabel="Map axis 1" yLabel="Map axis 2" [yLabelOffset]="40" />
+        <svg:g ohmChartAxes [area]="layout().area" [xTicks]="layout().xTicks" [yTicks]="layout().yTicks" [xLabel]="axisLabel(0)" [yLabel]="axisLabel(1)" [yLabelOffset]="40" />
         @if (layout().link; as k) {
           <svg:line class="link" [attr.x1]="k.x1" [attr.y1]="k.y1" [attr.x2]="k.x2" [attr.y2]="k.y2" />
         }
         @for (p of layout().points; track p.id) {
           @if (p.kind === 'sample') {
             <svg:path class="sample" [attr.d]="'M' + p.px + ',' + (p.py - 8) + 'l8,8l-8,8l-8,-8z'" />
-            <svg:text class="label strong" dy="-10" [attr.dx]="onRight(p.px) ? -11 : 11" [attr.text-anchor]="onRight(p.px) ? 'end' : 'start'" [attr.x]="p.px" [attr.y]="p.py">{{ p.label }}</svg:text>
           } @else {
             <svg:circle class="lot" [class.nearest]="p.nearest" [attr.r]="p.nearest ? 6 : 4.5" [attr.cx]="p.px" [attr.cy]="p.py" />
-            @if (p.nearest) {
-              <svg:text class="label" dy="-8" [attr.dx]="onRight(p.px) ? -9 : 9" [attr.text-anchor]="onRight(p.px) ? 'end' : 'start'" [attr.x]="p.px" [attr.y]="p.py">{{ p.label }} (nearest)</svg:text>
+          }
+        }
+        @for (l of layout().labels; track l.id) {
+          @if (l.placed) {
+            @if (l.leader; as k) {
+              <svg:line class="leader" [attr.x1]="k.x1" [attr.y1]="k.y1" [attr.x2]="k.x2" [attr.y2]="k.y2" />
             }
+            <svg:text class="label" [class.strong]="l.kind !== 'lot'" [attr.data-label]="l.kind" [attr.x]="l.x" [attr.y]="l.y + 10.5">{{ l.text }}</svg:text>
           }
         }
       </svg>
@@ -47,7 +51,8 @@ let nextId = 0;
     .lot.nearest { fill: var(--mat-sys-tertiary); fill-opacity: 1; stroke: var(--mat-sys-on-surface); }
     .sample { fill: var(--ohm-sample-mark, var(--mat-sys-primary)); stroke: var(--mat-sys-on-surface); stroke-width: 1.2; }
     .link { stroke: var(--mat-sys-on-surface-variant); stroke-dasharray: 4 3; }
-    .label { fill: var(--mat-sys-on-surface); }
+    .label { fill: var(--mat-sys-on-surface); paint-order: stroke; stroke: var(--mat-sys-surface); stroke-width: 3px; stroke-linejoin: round; }
+    .leader { stroke: var(--mat-sys-on-surface-variant); stroke-width: 0.8; }
     .label.strong { font-weight: 600; }
     .key { display: flex; gap: 16px; margin: 4px 0 0; padding: 0; list-style: none; font: var(--mat-sys-body-small);
       color: var(--mat-sys-on-surface-variant); }
@@ -59,13 +64,14 @@ export class LibraryMap {
   readonly nearestId = input<string | null>(null);
   readonly verdict = input<Verdict | null>(null);
   readonly heading = input('Map of the sample among the reference lots');
+  /** Each axis's share of the spread (0–1), from the map's eigenvalues; absent on older analyses. */
+  readonly axisShares = input<readonly [number, number] | null>(null);
 
   protected readonly titleId = `ohm-map-${nextId++}`;
   protected readonly layout = computed(() => libraryMapLayout(this.points(), this.nearestId(), 560, 380));
-  /** Labels of points in the right half go to their left, so they stay inside the plot. */
-  protected onRight(px: number): boolean {
-    const a = this.layout().area;
-    return px > a.left + a.width / 2;
+  protected axisLabel(k: 0 | 1): string {
+    const share = this.axisShares()?.[k];
+    return share === undefined || !Number.isFinite(share) ? `Map axis ${k + 1}` : `Map axis ${k + 1} (${Math.round(share * 100)} % of spread)`;
   }
 
   protected readonly summary = computed(() => {

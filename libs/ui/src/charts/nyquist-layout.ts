@@ -3,7 +3,7 @@ import type { PlotArea, ReferenceBand, SpectrumSeries } from './chart-types';
 import { convexHull } from './convex-hull';
 import { equalAspectScales, finiteExtent } from './equal-aspect';
 import { markerIndices, type PanelLayout } from './panel-layout';
-import { markerPath, seriesStyle } from './series-style';
+import { markerPath, styleFor } from './series-style';
 import { formatHz, formatSi } from './si-format';
 import { polylinePath } from './svg-path';
 
@@ -54,7 +54,7 @@ export function nyquistLayout(
   const drawn = series.map((s, k) => {
     const xs = Array.from(s.re, (v) => x(v));
     const ys = Array.from(negIm[k], (v) => y(v));
-    const style = seriesStyle(k);
+    const style = styleFor(series, k);
     return {
       label: s.label,
       d: polylinePath(xs, ys),

@@ -8,6 +8,8 @@ export { formatHz, formatOhm, formatNumber, formatSi } from './si-format';
 export { BodeChart } from './bode-chart';
 export { NyquistChart } from './nyquist-chart';
 export { KkResidualChart } from './kk-residual-chart';
+export { FitResidualChart } from './fit-residual-chart';
+export { fitResiduals, type FittedCurve } from './fit-residuals';
 export { DistanceHistogram } from './distance-histogram';
 export { LibraryMap } from './library-map';
 export { VerdictChip, VERDICT_LOOK, VERDICT_SHORT } from './verdict-chip';

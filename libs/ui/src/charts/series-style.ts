@@ -5,7 +5,16 @@
 export interface SeriesStyle {
   readonly stroke: string;
   readonly dash: string;
-  readonly marker: 'circle' | 'square' | 'triangle' | 'diamond';
+  readonly marker: 'circle' | 'square' | 'triangle' | 'diamond' | 'none';
+}
+
+/** A fitted model's curve: a plain line in the text colour, drawn over the measured points. */
+export const FIT_STYLE: SeriesStyle = { stroke: 'var(--mat-sys-on-surface)', dash: '', marker: 'none' };
+
+/** The style of series `index` of `series`: a fit gets FIT_STYLE, data the n-th data style. */
+export function styleFor(series: readonly { readonly role?: 'data' | 'fit' }[], index: number): SeriesStyle {
+  if (series[index].role === 'fit') return FIT_STYLE;
+  return seriesStyle(series.slice(0, index).filter((s) => s.role !== 'fit').length);
 }
 
 const STYLES: readonly SeriesStyle[] = [
@@ -22,6 +31,8 @@ export function seriesStyle(index: number): SeriesStyle {
 /** A marker shape centred on (x, y) as an SVG path, `r` its half-size. */
 export function markerPath(shape: SeriesStyle['marker'], x: number, y: number, r = 3): string {
   switch (shape) {
+    case 'none':
+      return '';
     case 'circle':
       return `M${x - r},${y}a${r},${r} 0 1,0 ${2 * r},0a${r},${r} 0 1,0 ${-2 * r},0Z`;
     case 'square':

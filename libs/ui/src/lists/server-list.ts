@@ -4,6 +4,7 @@ import type { PageEvent } from '@angular/material/paginator';
 import type { Sort } from '@angular/material/sort';
 import { ActivatedRoute, Router } from '@angular/router';
 import type { ListQuery, Page } from '@ohmprint/contracts';
+import { paginatorLength } from './capped-paginator-intl';
 import { Subject, catchError, combineLatest, distinctUntilChanged, map, merge, of, switchMap, tap, type Observable } from 'rxjs';
 import { listQueryOf, listStateParams, pageSizesOf, readListState, sameListState, type ListSpec, type ListState } from './list-state';
 
@@ -85,7 +86,7 @@ export class ServerList<T, F extends object = Record<never, never>> implements L
         const { state, page } = answer;
         this.failed.set(false);
         this.rows.set(page.items);
-        this.total.set(page.total);
+        this.total.set(paginatorLength(page));
         const last = Math.max(1, Math.ceil(page.total / state.pageSize));
         // A link to a page that no longer exists (rows were removed since) opens the last one.
         if (page.items.length === 0 && state.page > last) this.show({ page: last }, true);

@@ -1,4 +1,4 @@
-import { averageReplicates, fitModel, judge, MODEL_CATALOG, replicateAgreement, sampleMap, type Calibration, type FitSuccess, type Spectrum } from '@ohmprint/spectral-engine';
+import { averageReplicates, fitModel, impedance, judge, MODEL_CATALOG, replicateAgreement, sampleMap, type Calibration, type FitSuccess, type Spectrum } from '@ohmprint/spectral-engine';
 import type { AnalysisResult, FittedParameter, QualityFlag, SpectrumPoints, ThresholdStatement } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
 import type { PublishedLibrary } from '../libraries/published-library';
@@ -36,6 +36,12 @@ function fittedParameters(model: string, fit: FitSuccess): FittedParameter[] {
     standardError: Number.isFinite(fit.standardErrors[name]) ? fit.standardErrors[name] : null,
     unit: (catalog.get(name)?.unit ?? '').replace('Ω', 'Ω·cm'),
   }));
+}
+
+/** The fitted model at the sample's own frequencies: one curve, as small as the spectrum itself. */
+function fittedCurve(model: string, fit: FitSuccess, sample: Spectrum): { re: number[]; im: number[] } {
+  const z = impedance(model, fit.parameters, sample.frequencyHz);
+  return { re: Array.from(z.re), im: Array.from(z.im) };
 }
 
 /** What the version states about its thresholds, repeated on the analysis and its report. */
@@ -97,6 +103,7 @@ export function computeAnalysis(replicates: readonly Replicate[], library: Publi
     map = {
       sample: [s.x, s.y],
       lots: m.points.slice(0, -1).map((p) => ({ lotId: library.lots[mapIndices[p.index]].id, lotCode: library.lots[mapIndices[p.index]].lotCode, x: p.x, y: p.y })),
+      ...(m.axisShares ? { axisShares: [m.axisShares[0], m.axisShares[1]] as [number, number] } : {}),
     };
   }
 
@@ -119,7 +126,16 @@ export function computeAnalysis(replicates: readonly Replicate[], library: Publi
       map,
       histogram: distanceHistogram(library.calibration.nearestDistances, nearest?.distance ?? null),
       // A fit that did not converge offers no numbers at all; the quality flag says why.
-      fit: fit.converged ? { model: method.model, parameters: fittedParameters(method.model, fit), chiSquare: fit.chiSquare, converged: true } : null,
+      fit: fit.converged
+        ? {
+            model: method.model,
+            parameters: fittedParameters(method.model, fit),
+            chiSquare: fit.chiSquare,
+            converged: true,
+            weighting: fit.weighting,
+            curve: fittedCurve(method.model, fit, sample),
+          }
+        : null,
       qualityFlags: flags,
       replicateIds: usable.map((p) => p.id),
       thresholds: thresholdStatement(library.calibration),

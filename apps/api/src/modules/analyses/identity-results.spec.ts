@@ -81,8 +81,8 @@ describe('temperature on the analysis and the report', () => {
     expect(a.method).toMatchObject({ referenceTemperatureC: 20, temperatureCoefficientPerC: 0.02 });
     const report = await submitAndApprove(id);
     const text = await pdfText(report.id);
-    expect(text).toContain('Measurement temperature 18 °C for all 3 replicates (stated in the export)');
-    expect(text).toContain('referred to 20 °C with a linear coefficient α of 2 %/°C: Z · (1 + α (T − T_ref)) / K');
+    expect(text).toContain('Measurement temperature 18.0 °C for all 3 replicates (stated in the export)');
+    expect(text).toContain('referred to 20.0 °C with a linear coefficient α of 2 %/°C: Z · (1 + α (T − T₀)) / K');
   });
 });
 

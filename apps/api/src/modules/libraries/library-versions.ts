@@ -21,6 +21,8 @@ export interface NewLot {
   /** Normalised, on the version's grid. */
   spectrum: Spectrum;
   sampleId?: string | null;
+  /** The producer's own code for the lot, from its reference-lot declaration. */
+  producerLotCode?: string | null;
   chemistry?: Chemistry;
   included?: boolean;
   exclusionReason?: string | null;
@@ -59,6 +61,7 @@ export async function createDraftVersion(
         note: l.note ?? '',
         spectrum: encodeLotSpectrum(l.spectrum),
         sampleId: l.sampleId ?? null,
+        producerLotCode: l.producerLotCode ?? null,
         chemistry: l.chemistry ?? {},
         included: l.included ?? true,
         exclusionReason: l.exclusionReason ?? null,

@@ -12,6 +12,8 @@ export class ReferenceLot {
   @Column({ type: 'text', default: '' }) note!: string;
   /** The received reference-lot sample it was measured from (null for lots that came before enrolment). */
   @Column({ name: 'sample_id', type: 'uuid', nullable: true }) sampleId!: string | null;
+  /** The producer's own code for the lot (its reference-lot declaration), beside our `lotCode`. */
+  @Column({ name: 'producer_lot_code', type: 'text', nullable: true }) producerLotCode!: string | null;
   /** Chemistry known for the lot, in the units of CHEMISTRY_FIELDS. */
   @Column({ type: 'jsonb', default: {} }) chemistry!: Chemistry;
   /** Excluded lots stay in the draft (and in the frozen version) with the reason, but take no part in calibration or analyses. */

@@ -17,4 +17,14 @@ describe('reference envelope for the report plots', () => {
     expect(e.phaseMaxDeg[1]).toBeCloseTo(53.130102354, 8);
     expect(e.phaseMinDeg[1]).toBeCloseTo(-53.130102354, 8);
   });
+
+  it('spans the lots’ real and imaginary parts for the Nyquist band', () => {
+    const grid = Float64Array.of(100, 1000);
+    const lots = [
+      { frequencyHz: grid, re: Float64Array.of(1, 3), im: Float64Array.of(-1, 4) },
+      { frequencyHz: grid, re: Float64Array.of(2, 3), im: Float64Array.of(0, -4) },
+    ];
+    const e = referenceEnvelope(lots, grid);
+    expect([e.reMin, e.reMax, e.imMin, e.imMax]).toEqual([[1, 3], [2, 3], [-1, -4], [0, 4]]);
+  });
 });

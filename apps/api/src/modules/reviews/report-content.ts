@@ -1,5 +1,7 @@
 import type { EntityManager } from 'typeorm';
 import { modelLabel, THRESHOLD_ESTIMATOR_NAMES } from '@ohmprint/spectral-engine';
+import { weightingText } from '@ohmprint/contracts';
+import { claimedLotMatch, producerLotCodesOf } from '../analyses/analysis-views';
 import type { MeasurementTemperature, ReportContent } from '../reports/pdf/report-data';
 import { revokedReportOf } from '../analyses/revoked-report';
 import type { Analysis } from '../analyses/analysis.entity';
@@ -65,6 +67,15 @@ export async function reportContentFor(manager: EntityManager, analysis: Analysi
   const follows = await revokedReportOf(manager, analysis.labId, analysis.sampleId);
   const r = analysis.result;
   const m = analysis.method;
+  const [methodVersion]: { name: string; version: number }[] = await manager.query(
+    `SELECT m.name, mv.version FROM library_version lv
+     JOIN method_version mv ON mv.id = lv.method_version_id AND mv.lab_id = lv.lab_id
+     JOIN method m ON m.id = mv.method_id AND m.lab_id = mv.lab_id
+     WHERE lv.id = $1 AND lv.lab_id = $2`,
+    [analysis.libraryVersionId, analysis.labId],
+  );
+  const producerCodes = r.nearest ? await producerLotCodesOf(manager, analysis.labId, [r.nearest.lotId]) : {};
+  const nearestProducerCode = r.nearest ? (producerCodes[r.nearest.lotId] ?? null) : null;
   const condition = c.container_condition
     ? `Seal ${c.seal_intact ? 'intact' : 'broken'}; container ${c.container_condition}; ${c.volume_ml} ml; ${c.temperature_c} °C on arrival${c.carrier ? ` (${c.carrier})` : ''}`
     : 'Not recorded';
@@ -89,6 +100,7 @@ export async function reportContentFor(manager: EntityManager, analysis: Analysi
     },
     method: {
       name: 'Impedance fingerprint screening against a reference library (Canberra distance)',
+      methodVersion: methodVersion ? { name: methodVersion.name, version: Number(methodVersion.version) } : null,
       bandHz: { min: m.bandMinHz, max: m.bandMaxHz },
       gridPoints: m.gridPoints,
       referenceTemperatureC: m.referenceTemperatureC,
@@ -115,11 +127,14 @@ export async function reportContentFor(manager: EntityManager, analysis: Analysi
       verdict: r.verdict,
       nearestDistance: r.nearest?.distance ?? null,
       nearestLot: r.nearest?.lotCode ?? null,
+      nearestLotProducerCode: nearestProducerCode,
+      claimedLotCheck: claimedLotMatch(c.claimed_lot, nearestProducerCode),
       t95: r.t95,
       t99: r.t99,
       typicality: r.typicality,
       fittedParameters: r.fit?.parameters ?? [],
       goodnessOfFit: r.fit?.converged ? r.fit.chiSquare : null,
+      fitWeighting: r.fit?.weighting ? weightingText(r.fit.weighting) : null,
       qualityFlags: r.qualityFlags.map((f) => ({ severity: 'warning' as const, message: f.reportMessage ?? f.message })),
     },
     plots: {

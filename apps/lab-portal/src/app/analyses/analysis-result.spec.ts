@@ -72,3 +72,62 @@ describe('AnalysisResult', () => {
     expect(el.querySelector('ohm-nyquist-chart')?.textContent).toContain('Sample OP-TEST-01 (replicate mean)');
   });
 });
+
+describe('AnalysisResult with a fit and producer lot codes', () => {
+  function render(a: Analysis): HTMLElement {
+    TestBed.resetTestingModule();
+    TestBed.configureTestingModule({ providers: provideTestPortal() });
+    TestBed.inject(Session).adopt({ accessToken: 'tok', user: testUser({ roles: ['analyst'] }) });
+    const fixture = TestBed.createComponent(AnalysisResult);
+    fixture.componentRef.setInput('analysis', a);
+    fixture.detectChanges();
+    return fixture.nativeElement;
+  }
+  const fitted: Analysis = {
+    ...analysis,
+    result: {
+      ...analysis.result,
+      typicality: 0.17,
+      map: { sample: [0, 0], lots: [{ lotId: LOT_A, lotCode: 'LOT-A', x: 1, y: 0 }, { lotId: LOT_B, lotCode: 'LOT-B', x: -1, y: 0.2 }], axisShares: [0.62, 0.21] },
+      fit: {
+        model: 'cole-cole', chiSquare: 0.0012, converged: true, weighting: 'modulus',
+        parameters: [{ name: 'rInf', value: 90, standardError: 1, unit: 'Ω·cm' }],
+        curve: { re: [104, 102.5, 100.5], im: [-20.5, -9.5, -2.1] },
+      },
+    },
+    producerLotCodes: { [LOT_A]: 'L24-118' },
+    claimedLot: { lotCode: 'L24-118', nearestIsClaimed: true },
+  };
+
+  it('draws the fitted curve over the data with its residuals, and states the weighting beside χ²', () => {
+    const el = render(fitted);
+    expect(el.querySelectorAll('ohm-bode-chart path.series')).toHaveLength(4); // sample and fit, in |Z| and phase
+    expect(el.querySelector('ohm-nyquist-chart')?.textContent).toContain('Fitted Cole–Cole relaxation model');
+    expect(el.querySelectorAll('ohm-fit-residual-chart path.residual')).toHaveLength(2);
+    expect(el.querySelector('[data-testid="fit-summary"]')?.textContent).toMatch(/χ² 0\.0012\s*\(modulus weighting\)/);
+  });
+
+  it('explains typicality, gives the map axes their share of spread, and keeps the engine version in the details', () => {
+    const el = render(fitted);
+    expect(el.querySelector('[data-testid="typicality-text"]')?.textContent).toContain("17 % of the library's calibration distances are larger than the sample's");
+    expect(el.querySelector('ohm-library-map')?.textContent).toContain('Map axis 1 (62 % of spread)');
+    expect(el.querySelector('ohm-library-map')?.textContent).toContain('Map axis 2 (21 % of spread)');
+    expect(el.querySelector('.headline')?.textContent).not.toContain('1.0.0');
+    expect(el.querySelector('[data-testid="engine-version"]')?.textContent).toBe('1.0.0');
+  });
+
+  it('shows the producer’s code of the nearest lot and whether it is the claimed lot', () => {
+    const el = render(fitted);
+    expect(el.querySelector('[data-testid="nearest-lot"]')?.textContent).toMatch(/LOT-A\s+producer's lot L24-118/);
+    expect(el.querySelector('[data-testid="claimed-lot"]')?.textContent).toContain('the nearest lot LOT-A is that lot');
+    const other = render({ ...fitted, claimedLot: { lotCode: 'L24-131', nearestIsClaimed: false } });
+    expect(other.querySelector('[data-testid="claimed-lot"]')?.textContent).toContain('is not that lot');
+  });
+
+  it('says nothing of a claimed lot when none was claimed, and draws no fit on an older analysis', () => {
+    const el = render(analysis);
+    expect(el.querySelector('[data-testid="claimed-lot"]')).toBeNull();
+    expect(el.querySelector('ohm-fit-residual-chart')).toBeNull();
+    expect(el.querySelector('ohm-library-map')?.textContent).toContain('Map axis 1');
+  });
+});

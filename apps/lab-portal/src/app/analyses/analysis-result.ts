@@ -1,8 +1,9 @@
-import { DecimalPipe, PercentPipe } from '@angular/common';
+import { DatePipe, DecimalPipe, PercentPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
-import type { Analysis } from '@ohmprint/contracts';
-import { BodeChart, DistanceHistogram, LibraryMap, NyquistChart, ScreeningCaution, VerdictChip, formatNumber, type DistanceHistogramInput, type MapPoint, type ReferenceBand, type SpectrumSeries } from '@ohmprint/ui';
+import { MatTooltipModule } from '@angular/material/tooltip';
+import { typicalityText, weightingExplained, weightingText, type Analysis } from '@ohmprint/contracts';
+import { BodeChart, DistanceHistogram, FitResidualChart, LibraryMap, NyquistChart, fitResiduals, ScreeningCaution, VerdictChip, formatNumber, type DistanceHistogramInput, type MapPoint, type ReferenceBand, type SpectrumSeries } from '@ohmprint/ui';
 import { modelLabel } from '@ohmprint/spectral-engine';
 import { AnalysesData } from './analyses-data';
 import { referenceBandOf } from './reference-band';
@@ -12,7 +13,7 @@ import { temperatureText } from './temperature-text';
 @Component({
   selector: 'ohm-analysis-result',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [DecimalPipe, PercentPipe, MatIconModule, VerdictChip, BodeChart, NyquistChart, DistanceHistogram, LibraryMap, ScreeningCaution],
+  imports: [DatePipe, DecimalPipe, PercentPipe, MatIconModule, MatTooltipModule, VerdictChip, BodeChart, NyquistChart, DistanceHistogram, LibraryMap, FitResidualChart, ScreeningCaution],
   templateUrl: './analysis-result.html',
   styleUrl: './analysis-result.scss',
 })
@@ -48,6 +49,41 @@ export class AnalysisResult {
       ...m.lots.map((l): MapPoint => ({ id: l.lotId, label: l.lotCode, x: l.x, y: l.y, kind: 'reference' })),
       { id: 'sample', label: this.analysis().sample.code, x: m.sample[0], y: m.sample[1], kind: 'sample' },
     ];
+  });
+  /** The sample, with the fitted model's curve over it when the analysis has one. */
+  protected readonly plottedSeries = computed<SpectrumSeries[]>(() => {
+    const fit = this.result().fit;
+    const sample = this.sampleSeries();
+    if (!fit?.curve || fit.curve.re.length !== this.analysis().sampleSpectrum.frequencyHz.length) return sample;
+    const curve: SpectrumSeries = { label: `Fitted ${modelLabel(fit.model)} model`, frequencyHz: this.analysis().sampleSpectrum.frequencyHz, re: fit.curve.re, im: fit.curve.im, role: 'fit' };
+    return [...sample, curve];
+  });
+  protected readonly fitNote = computed(() => (this.plottedSeries().some((s) => s.role === 'fit') ? ', with the fitted model' : ''));
+  protected readonly residuals = computed(() => {
+    const curve = this.result().fit?.curve;
+    return curve ? fitResiduals(this.analysis().sampleSpectrum, curve) : null;
+  });
+  protected readonly typicalityText = computed(() => typicalityText(this.result().typicality));
+  protected readonly weightingText = weightingText;
+  protected readonly weightingExplained = weightingExplained;
+  protected producerCode(lotId: string): string | null {
+    return this.analysis().producerLotCodes?.[lotId] ?? null;
+  }
+  protected readonly nearestProducerCode = computed(() => {
+    const n = this.result().nearest;
+    return n ? this.producerCode(n.lotId) : null;
+  });
+  protected readonly claimedLotText = computed(() => {
+    const claim = this.analysis().claimedLot;
+    const nearest = this.result().nearest;
+    if (!claim) return null;
+    const said = `The client claimed the producer's lot ${claim.lotCode}`;
+    if (!nearest) return `${said}; there is no nearest lot to compare it with.`;
+    const producer = this.nearestProducerCode();
+    if (claim.nearestIsClaimed === null || !producer) return `${said}; the nearest lot ${nearest.lotCode} has no producer's lot code, so they cannot be compared.`;
+    return claim.nearestIsClaimed
+      ? `${said}; the nearest lot ${nearest.lotCode} is that lot (producer's ${producer}).`
+      : `${said}; the nearest lot ${nearest.lotCode} is not that lot (it is the producer's ${producer}).`;
   });
   protected readonly sortedDistances = computed(() => [...this.result().distances].sort((a, b) => a.distance - b.distance));
   protected readonly ruleText = computed(() => {

@@ -46,6 +46,7 @@ export function demoReportContent(overrides: Partial<ReportContent> = {}): Repor
     },
     method: {
       name: 'Wine fingerprint, 10 Hz to 100 kHz',
+      methodVersion: { name: 'Red wine screening', version: 2 },
       bandHz: { min: 10, max: 1e5 },
       gridPoints: 41,
       referenceTemperatureC: 20,
@@ -61,7 +62,9 @@ export function demoReportContent(overrides: Partial<ReportContent> = {}): Repor
     results: {
       verdict: 'consistent',
       nearestDistance: 0.0123,
-      nearestLot: 'L2025-117',
+      nearestLot: 'CAL-L0117',
+      nearestLotProducerCode: 'L2025-117',
+      claimedLotCheck: { lotCode: 'L2025-117', nearestIsClaimed: true },
       t95: 0.0188,
       t99: 0.0246,
       typicality: 0.58,
@@ -72,6 +75,7 @@ export function demoReportContent(overrides: Partial<ReportContent> = {}): Repor
         { name: 'n', description: 'CPE exponent n', value: 0.8203, standardError: 0.0009, unit: '1' },
       ],
       goodnessOfFit: 3.1e-4,
+      fitWeighting: 'modulus weighting',
       qualityFlags: [{ severity: 'info', message: 'Kramers–Kronig residuals within 0.4 % of |Z| across the band.' }],
     },
     plots: {
@@ -83,6 +87,10 @@ export function demoReportContent(overrides: Partial<ReportContent> = {}): Repor
         modulusMax: high.map(mod),
         phaseMinDeg: frequencyHz.map((_, i) => Math.min(ph(low[i]), ph(high[i])) - 0.6),
         phaseMaxDeg: frequencyHz.map((_, i) => Math.max(ph(low[i]), ph(high[i])) + 0.6),
+        reMin: frequencyHz.map((_, i) => Math.min(low[i].re, high[i].re) - 3),
+        reMax: frequencyHz.map((_, i) => Math.max(low[i].re, high[i].re) + 3),
+        imMin: frequencyHz.map((_, i) => Math.min(low[i].im, high[i].im) - 3),
+        imMax: frequencyHz.map((_, i) => Math.max(low[i].im, high[i].im) + 3),
       },
       calibrationDistances: [0.0061, 0.0083, 0.0094, 0.0102, 0.0111, 0.0119, 0.0128, 0.0137, 0.0149, 0.0163, 0.0181, 0.0232],
       map: {

@@ -1,4 +1,4 @@
-import { splitIntoRuns } from './inter-fonts';
+import { FALLBACK_SUBSET, splitIntoRuns } from './inter-fonts';
 
 const drawn = (text: string): string => splitIntoRuns(text).map((r) => r.text).join('');
 const subsetOf = (text: string, ch: string): string | undefined => splitIntoRuns(text).find((r) => r.text.includes(ch))?.subset;
@@ -10,11 +10,13 @@ describe('text drawn with the shipped Inter subsets', () => {
     expect(drawn('Relaxation time τ')).toBe('Relaxation time τ');
   });
 
-  it('writes glyphs no subset carries so a reader still understands them', () => {
-    expect(drawn('High-frequency resistance R∞')).toBe('High-frequency resistance R_inf');
-    expect(drawn('bounds [0, ∞)')).toBe('bounds [0, infinity)');
-    expect(drawn('S·sⁿ·cm⁻¹')).toBe('S·s^n·cm^-1');
-    expect(drawn('T ≤ 25 °C')).toBe('T <= 25 °C');
+  it('draws what no Inter subset carries (∞, superscripts, ≤) with the DejaVu fallback, unchanged', () => {
+    expect(drawn('High-frequency resistance R∞')).toBe('High-frequency resistance R∞');
+    expect(subsetOf('R∞', '∞')).toBe(FALLBACK_SUBSET);
+    expect(subsetOf('R∞', 'R')).toBe('latin');
+    expect(drawn('(6.103 ± 0.012) × 10⁻⁶ S·sⁿ')).toBe('(6.103 ± 0.012) × 10⁻⁶ S·sⁿ');
+    expect(subsetOf('× 10⁻⁶', '⁻⁶')).toBe(FALLBACK_SUBSET);
+    expect(drawn('T ≤ 25 °C')).toBe('T ≤ 25 °C');
   });
 
   it('keeps accented letters of names, from latin-ext where latin lacks them', () => {

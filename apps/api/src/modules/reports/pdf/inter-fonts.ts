@@ -6,18 +6,27 @@ import { woffToSfnt } from './woff-to-sfnt';
  * Inter as @fontsource ships it: one file per Unicode subset. Latin lacks Ω, τ and χ (greek has
  * them) and latin-ext holds the accented letters of names and addresses, so text is split into
  * runs by the first subset whose published Unicode range (the package's unicode.json) holds each
- * character. The .woff files (pdfkit cannot read .woff2) are unpacked once per process.
+ * character. What no Inter subset holds — superscripts (10⁻⁶, cm⁻¹), subscripts, ∞, ≤, √ — is drawn
+ * with DejaVu Sans (@fontsource/dejavu-sans, whose one file carries them), so R∞ and 10⁻⁶ print as
+ * such and copy out of the PDF as the same characters. The .woff files (pdfkit cannot read .woff2)
+ * are unpacked once per process.
  */
 export type InterWeight = 400 | 600 | 700;
 
 const SUBSETS = ['latin', 'greek', 'latin-ext'] as const;
 const WEIGHTS: InterWeight[] = [400, 600, 700];
 
-/** Glyphs Inter's subsets do not carry, written the way a reader would still understand. */
-const STAND_INS: Record<string, string> = { '≤': '<=', '≥': '>=', '∥': '||', '√': 'sqrt ', '∞': 'infinity' };
+/** The subset name under which DejaVu Sans draws what Inter's subsets lack. */
+export const FALLBACK_SUBSET = 'symbols';
 
 function packageDir(): string {
   return dirname(require.resolve('@fontsource/inter/package.json'));
+}
+
+function fallbackFile(weight: InterWeight): string {
+  // DejaVu Sans ships 400 and 700; a semibold run takes the bold symbols.
+  const file = `dejavu-sans-latin-${weight === 400 ? 400 : 700}-normal.woff`;
+  return join(dirname(require.resolve('@fontsource/dejavu-sans/package.json')), 'files', file);
 }
 
 function filesDir(): string {
@@ -60,7 +69,8 @@ function fontFile(subset: string, weight: InterWeight): Buffer {
   const name = fontName(subset, weight);
   let font = unpacked.get(name);
   if (!font) {
-    font = woffToSfnt(readFileSync(join(filesDir(), `inter-${subset}-${weight}-normal.woff`)));
+    const path = subset === FALLBACK_SUBSET ? fallbackFile(weight) : join(filesDir(), `inter-${subset}-${weight}-normal.woff`);
+    font = woffToSfnt(readFileSync(path));
     unpacked.set(name, font);
   }
   return font;
@@ -68,20 +78,9 @@ function fontFile(subset: string, weight: InterWeight): Buffer {
 
 /** Registers every subset and weight on a document under the names `fontName()` returns. */
 export function registerInter(doc: PDFKit.PDFDocument): void {
-  for (const { subset } of subsets()) {
+  for (const subset of [...subsets().map((s) => s.subset), FALLBACK_SUBSET]) {
     for (const weight of WEIGHTS) doc.registerFont(fontName(subset, weight), fontFile(subset, weight));
   }
-}
-
-const SUPERSCRIPTS = '⁰¹²³⁴⁵⁶⁷⁸⁹⁺⁻ⁿ';
-const SUPERSCRIPT_PLAIN = '0123456789+-n';
-
-/** Superscripts outside Latin-1 (ⁿ, ⁻, ⁴…) have no glyph, so units such as cm⁻¹ read as cm^-1. */
-function writeSuperscriptsPlainly(text: string): string {
-  // A symbol's ∞ subscript (R∞) reads as R_inf, the way plain-text engineering notation writes it.
-  return text.replace(/(\p{L})∞/gu, '$1_inf').replace(/[⁰¹²³⁴⁵⁶⁷⁸⁹⁺⁻ⁿ]+/g, (run) =>
-    /^[¹²³]$/.test(run) ? run : `^${[...run].map((c) => SUPERSCRIPT_PLAIN[SUPERSCRIPTS.indexOf(c)]).join('')}`,
-  );
 }
 
 export interface TextRun {
@@ -93,16 +92,13 @@ export interface TextRun {
 export function splitIntoRuns(text: string): TextRun[] {
   const all = subsets();
   const runs: TextRun[] = [];
-  for (const raw of writeSuperscriptsPlainly(text)) {
-    const chars = STAND_INS[raw] ?? raw;
-    for (const ch of chars) {
-      const cp = ch.codePointAt(0) ?? 0;
-      const isSpace = /\s/.test(ch);
-      const previous = runs[runs.length - 1];
-      const subset = isSpace && previous ? previous.subset : (all.find((s) => s.covers(cp)) ?? all[0]).subset;
-      if (previous && previous.subset === subset) previous.text += ch;
-      else runs.push({ subset, text: ch });
-    }
+  for (const ch of text) {
+    const cp = ch.codePointAt(0) ?? 0;
+    const isSpace = /\s/.test(ch);
+    const previous = runs[runs.length - 1];
+    const subset = isSpace && previous ? previous.subset : (all.find((s) => s.covers(cp))?.subset ?? FALLBACK_SUBSET);
+    if (previous && previous.subset === subset) previous.text += ch;
+    else runs.push({ subset, text: ch });
   }
   return runs;
 }

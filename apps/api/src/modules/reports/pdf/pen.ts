@@ -1,3 +1,4 @@
+import { superscriptText, type QuantityPart } from '@ohmprint/contracts';
 import { fontName, InterWeight, splitIntoRuns } from './inter-fonts';
 
 /** Colours of the report, kept together so every page reads as one document. */
@@ -49,4 +50,37 @@ export function widthOf(doc: PDFKit.PDFDocument, text: string, weight: InterWeig
 export function heightOf(doc: PDFKit.PDFDocument, text: string, weight: InterWeight, size: number, width: number): number {
   doc.font(fontName('latin', weight)).fontSize(size);
   return doc.heightOfString(text, { width });
+}
+
+/** Subscripts are set this much smaller than the text and dropped below its baseline. */
+const SUB_SCALE = 0.72;
+
+/**
+ * Writes the shared number format's runs on one line (no wrapping): superscripts as their Unicode
+ * characters (drawn by the DejaVu fallback, so they copy out as 10⁻⁶), subscripts smaller and
+ * lowered (Rct, Cdl, R∞). Returns the width written.
+ */
+export function writeParts(doc: PDFKit.PDFDocument, parts: readonly QuantityPart[], style: TextStyle, x: number, y: number): number {
+  const { weight = 400, size = 9 } = style;
+  let cx = x;
+  for (const part of parts) {
+    if (part.role === 'sub') {
+      const small = size * SUB_SCALE;
+      write(doc, part.text, { ...style, size: small, lineBreak: false }, cx, y + size * 0.42);
+      cx += widthOf(doc, part.text, weight, small);
+    } else {
+      const text = part.role === 'sup' ? superscriptText(part.text) : part.text;
+      write(doc, text, { ...style, lineBreak: false }, cx, y);
+      cx += widthOf(doc, text, weight, size);
+    }
+  }
+  return cx - x;
+}
+
+/** Width `writeParts` would take. */
+export function partsWidth(doc: PDFKit.PDFDocument, parts: readonly QuantityPart[], weight: InterWeight, size: number): number {
+  return parts.reduce(
+    (sum, p) => sum + (p.role === 'sub' ? widthOf(doc, p.text, weight, size * SUB_SCALE) : widthOf(doc, p.role === 'sup' ? superscriptText(p.text) : p.text, weight, size)),
+    0,
+  );
 }

@@ -73,6 +73,9 @@ function trim(v: number, digits = 2): string {
   return Number(v.toFixed(digits)).toString();
 }
 
+/** Tick labels read with a true minus sign (U+2212), as NIST SP 811 §10.5.3 writes numbers. */
+const trueMinus = (label: string): string => label.replace(/^-(?=\d)/, '\u2212');
+
 /** Frame, grid, ticks and axis labels; the caller draws the data clipped to the box. */
 export function drawFrame(doc: PDFKit.PDFDocument, box: Box, x: Axis, y: Axis, title: string): void {
   doc.save();
@@ -88,12 +91,12 @@ export function drawFrame(doc: PDFKit.PDFDocument, box: Box, x: Axis, y: Axis, t
   doc.lineWidth(0.8).strokeColor(INK.muted).rect(box.x, box.y, box.w, box.h).stroke();
   doc.restore();
   for (const t of x.ticks) {
-    const label = x.format(t);
+    const label = trueMinus(x.format(t));
     const w = widthOf(doc, label, 400, 6.5);
     write(doc, label, { size: 6.5, color: INK.muted, lineBreak: false }, px(box, x, t) - w / 2, box.y + box.h + 2);
   }
   for (const t of y.ticks) {
-    const label = y.format(t);
+    const label = trueMinus(y.format(t));
     const w = widthOf(doc, label, 400, 6.5);
     write(doc, label, { size: 6.5, color: INK.muted, lineBreak: false }, box.x - w - 3, py(box, y, t) - 3.5);
   }

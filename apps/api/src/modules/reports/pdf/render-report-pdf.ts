@@ -2,14 +2,15 @@ import PDFDocument from 'pdfkit';
 import { followsText, measurementTemperatureText, referralText } from './temperature-wording';
 import { ReportData } from './report-data';
 import { registerInter } from './inter-fonts';
-import { INK, widthOf, write } from './pen';
+import { formatQuantity, formatSymbol, sameLotCode } from '@ohmprint/contracts';
+import { INK, widthOf, write, writeParts } from './pen';
 import { CONTENT_WIDTH, Flow, PAGE } from './report-layout';
 import { drawBode, drawNyquist } from './spectrum-plots';
-import { drawDistanceHistogram, drawLotMap } from './library-plots';
+import { MAP_LABELLED_LOTS, drawDistanceHistogram, drawLotMap } from './library-plots';
 import { drawVerdict } from './verdict-badge';
 import { drawQr } from './qr-vector';
 import { DEMO_MARK, ITEMS_TESTED, REPRODUCTION, SAFETY_NOTE, SCREENING_CAUTION, decisionRule, thresholdStatement } from './report-wording';
-import { formatDate, formatDateTime, formatNumber, formatPercent } from './report-formats';
+import { formatDate, formatDateTime, formatHz, formatNumber, formatPercent } from './report-formats';
 
 /**
  * Renders a test report as an unsigned PDF (signing is a separate step, so the bytes signed are
@@ -114,7 +115,6 @@ function writeParties(flow: Flow, data: ReportData): void {
 
 function writeSample(flow: Flow, data: ReportData): void {
   const s = data.sample;
-  flow.heading('Item tested');
   const rows: Array<[string, string]> = [
     ['Sample code', s.code],
     ['Product', `${s.productName} (${s.matrix})`],
@@ -126,13 +126,13 @@ function writeSample(flow: Flow, data: ReportData): void {
     ['Tested', data.testedFrom === data.testedTo ? formatDate(data.testedFrom) : `${formatDate(data.testedFrom)} to ${formatDate(data.testedTo)}`],
     ['Report issued', formatDate(data.issuedAt)],
   ];
-  flow.ensure(flow.rows(rows, undefined, undefined, 130, false));
+  flow.heading('Item tested', flow.rows(rows, undefined, undefined, 130, false));
   flow.y += flow.rows(rows);
 }
 
 function writeResult(flow: Flow, data: ReportData): void {
   const r = data.results;
-  flow.heading('Result');
+  flow.heading('Result', 150);
   flow.ensure(150);
   const { doc } = flow;
   const top = flow.y;
@@ -140,9 +140,10 @@ function writeResult(flow: Flow, data: ReportData): void {
   drawVerdict(doc, r.verdict, PAGE.left + 10, top + 8, 18);
   flow.y = top + 42;
   const rows: Array<[string, string]> = [
-    ['Nearest distance', r.nearestDistance === null ? 'not available' : `${formatNumber(r.nearestDistance, 4)} (normalised Canberra distance, 0 to 1)`],
-    ['Nearest reference lot', r.nearestLot ?? 'not available'],
-    ['Thresholds', `T95 = ${r.t95 === null ? 'not available' : formatNumber(r.t95, 4)}   ·   T99 = ${r.t99 === null ? 'not available' : formatNumber(r.t99, 4)}`],
+    ['Nearest distance', r.nearestDistance === null ? 'not available' : `${formatNumber(r.nearestDistance, 3)} (normalised Canberra distance, 0 to 1)`],
+    ['Nearest reference lot', r.nearestLot === null ? 'not available' : nearestLotText(r.nearestLot, r.nearestLotProducerCode ?? null)],
+    ...(r.claimedLotCheck ? ([['Claimed lot', claimedLotSentence(r.claimedLotCheck, r.nearestLotProducerCode ?? null)]] as Array<[string, string]>) : []),
+    ['Thresholds', `T95 = ${r.t95 === null ? 'not available' : formatNumber(r.t95, 3)}   ·   T99 = ${r.t99 === null ? 'not available' : formatNumber(r.t99, 3)}`],
     ['Typicality', r.typicality === null ? 'not available' : `${formatPercent(r.typicality)} of the library's calibration distances are larger than the sample's`],
   ];
   flow.y += flow.rows(rows);
@@ -152,12 +153,29 @@ function writeResult(flow: Flow, data: ReportData): void {
   if (thresholds) flow.paragraph(thresholds, 8.5, INK.text, 600);
 }
 
+/** Our lot code, with the producer's own code beside it when it differs. */
+export function nearestLotText(lotCode: string, producerCode: string | null): string {
+  if (!producerCode) return `${lotCode} (no producer's lot code on record)`;
+  return sameLotCode(lotCode, producerCode) ? `${lotCode} (the producer's lot code)` : `${lotCode}, the producer's lot ${producerCode}`;
+}
+
+/** Whether the nearest lot is the lot claimed for the item, in one sentence. */
+export function claimedLotSentence(check: { lotCode: string; nearestIsClaimed: boolean | null }, producerCode: string | null): string {
+  if (check.nearestIsClaimed === true) return `The nearest lot is the lot claimed for the item (${check.lotCode}).`;
+  if (check.nearestIsClaimed === false) {
+    return (
+      `The nearest lot is not the lot claimed for the item: the item claims ${check.lotCode}, the nearest lot is the producer's ${producerCode ?? 'another lot'}. ` +
+      'Lots of one product can lie close together; this does not change the verdict above.'
+    );
+  }
+  return `The item claims lot ${check.lotCode}; whether the nearest lot is that lot cannot be said, as the nearest lot has no producer's lot code on record.`;
+}
+
 function writeMethod(flow: Flow, data: ReportData): void {
   const m = data.method;
-  flow.heading('Method');
   const rows: Array<[string, string]> = [
-    ['Method', m.name],
-    ['Frequency band', `${formatNumber(m.bandHz.min, 3)} Hz to ${formatNumber(m.bandHz.max, 3)} Hz, ${m.gridPoints} log-spaced points`],
+    ['Method', m.methodVersion ? `${m.methodVersion.name}, version ${m.methodVersion.version}: ${m.name}` : m.name],
+    ['Frequency band', `${formatHz(m.bandHz.min)} to ${formatHz(m.bandHz.max)}, ${m.gridPoints} log-spaced points`],
     ...(measurementTemperatureText(data) ? ([['Measurement temperature', measurementTemperatureText(data)]] as Array<[string, string]>) : []),
     ['Temperature referral', referralText(data)],
     ['Model fitted', m.modelName],
@@ -167,7 +185,7 @@ function writeMethod(flow: Flow, data: ReportData): void {
     ['Software', `Ohmprint spectral engine ${m.engineVersion}`],
     ['Deviations', m.deviations.length ? m.deviations.join('; ') : 'none from the documented method'],
   ];
-  flow.ensure(flow.rows(rows, undefined, undefined, 130, false));
+  flow.heading('Method', flow.rows(rows, undefined, undefined, 130, false));
   flow.y += flow.rows(rows);
 }
 
@@ -184,7 +202,7 @@ function writePlots(flow: Flow, data: ReportData): void {
   drawBode(flow.doc, { x: bodeX, y: top, w: bodeW, h: halfH }, { x: bodeX, y: top + halfH + 34, w: bodeW, h: halfH }, data.plots, data.method.bandHz);
   flow.y = top + plotH + 26;
   flow.paragraph(
-    'Sample: teal line. Shaded in the Bode plots: the method band (grey) and the spread of the reference lots (light teal). ' +
+    'Sample: teal line. Shaded light teal: the spread of the reference lots (in the Nyquist plot, the region their Z′ and −Z″ span at each frequency); grey in the Bode plots: the method band. ' +
       'Both plots show the averaged, normalised spectrum of the replicates.',
     7.5,
     INK.muted,
@@ -198,29 +216,45 @@ function writePlots(flow: Flow, data: ReportData): void {
   flow.paragraph(
     "Left: how far each reference lot lies from its nearest other lot, with the thresholds and this sample's nearest distance. " +
       (data.plots.map
-        ? 'Right: classical multidimensional scaling of the distances between the lots and the sample; closeness on the map mirrors closeness of the spectra.'
+        ? 'Right: classical multidimensional scaling of the distances between the lots and the sample; closeness on the map mirrors closeness of the spectra.' +
+          (data.plots.map.lots.length > MAP_LABELLED_LOTS ? ` Named: up to ${MAP_LABELLED_LOTS} lots nearest the sample, where room allows.` : '')
         : 'No map is drawn: the library holds too few lots for one.'),
     7.5,
     INK.muted,
   );
 }
 
+/** "Series resistance Rs" → "Series resistance" when the last word is the symbol drawn beside it. */
+function withoutTrailingSymbol(description: string, symbolText: string): string {
+  const words = description.split(' ');
+  const last = words[words.length - 1];
+  const plain = (t: string) => t.normalize('NFKD').replace(/[^\p{L}\p{N}∞]/gu, '').toLowerCase();
+  return words.length > 1 && plain(last) === plain(symbolText) ? words.slice(0, -1).join(' ') : description;
+}
+
 function writeParameters(flow: Flow, data: ReportData): void {
   const r = data.results;
-  flow.heading('Fitted model parameters and data quality');
+  const rowH = 14;
+  flow.heading('Fitted model parameters and data quality', rowH * (r.fittedParameters.length + 1) + 60);
   const { doc } = flow;
-  const cols = [PAGE.left, PAGE.left + 210, PAGE.left + 310, PAGE.left + 420];
-  flow.ensure(16 + 13 * (r.fittedParameters.length + 1));
-  ['Parameter', 'Value', 'Standard error', 'Unit'].forEach((h, i) => write(doc, h, { size: 8, weight: 600, color: INK.muted, lineBreak: false }, cols[i], flow.y));
-  flow.y += 13;
+  const cols = [PAGE.left, PAGE.left + 200, PAGE.left + 250, PAGE.left + 400];
+  ['Parameter', 'Symbol', 'Value ± standard error', 'Unit'].forEach((h, i) => write(doc, h, { size: 8, weight: 600, color: INK.muted, lineBreak: false }, cols[i], flow.y));
+  flow.y += rowH;
   for (const p of r.fittedParameters) {
-    flow.ensure(13);
-    const cells = [p.description ?? p.name, formatNumber(p.value, 4), p.standardError === null ? 'not estimated' : formatNumber(p.standardError, 2), p.unit || 'none'];
-    cells.forEach((c, i) => write(doc, c, { size: 8.5, lineBreak: false }, cols[i], flow.y));
-    flow.y += 13;
+    flow.ensure(rowH);
+    const symbol = formatSymbol(p.name);
+    const value = formatQuantity(p.value, { standardError: p.standardError, significant: 4 });
+    write(doc, withoutTrailingSymbol(p.description ?? p.name, symbol.text), { size: 8.5, lineBreak: false }, cols[0], flow.y);
+    writeParts(doc, symbol.parts, { size: 8.5 }, cols[1], flow.y);
+    const valueParts = p.standardError === null ? [...value.parts, { text: ' (SE not estimated)', role: 'normal' as const }] : value.parts;
+    writeParts(doc, valueParts, { size: 8.5 }, cols[2], flow.y);
+    write(doc, p.unit && p.unit !== '1' ? p.unit : 'none (dimensionless)', { size: 8.5, lineBreak: false }, cols[3], flow.y);
+    flow.y += rowH;
   }
-  if (!r.fittedParameters.length) flow.paragraph('No model was fitted.');
-  if (r.goodnessOfFit !== null) flow.paragraph(`Goodness of fit (weighted χ²): ${formatNumber(r.goodnessOfFit, 3)}`);
+  if (r.fittedParameters.length) {
+    flow.paragraph('Each value is rounded to the last decimal place of its standard error, which keeps one or two significant digits.', 7.5, INK.muted);
+  } else flow.paragraph('No model was fitted.');
+  if (r.goodnessOfFit !== null) flow.paragraph(`Goodness of fit (weighted χ²${r.fitWeighting ? `, ${r.fitWeighting}` : ''}): ${formatNumber(r.goodnessOfFit, 3)}`);
   flow.gap(2);
   if (r.qualityFlags.length === 0) flow.paragraph('Data quality: no flags raised.');
   else for (const q of r.qualityFlags) flow.paragraph(`${q.severity === 'warning' ? 'Warning' : 'Note'}: ${q.message}`);

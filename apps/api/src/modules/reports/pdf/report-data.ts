@@ -39,6 +39,8 @@ export interface ReportSample {
 
 export interface ReportMethod {
   name: string;
+  /** The lab's method and its version number the library was built under (absent on older reports or libraries built before methods had versions). */
+  methodVersion?: { name: string; version: number } | null;
   bandHz: { min: number; max: number };
   gridPoints: number;
   referenceTemperatureC: number;
@@ -103,12 +105,21 @@ export interface ReportResults {
   /** Normalised Canberra distance (0–1) from the sample to its nearest reference lot. */
   nearestDistance: number | null;
   nearestLot: string | null;
+  /** The producer's own code of the nearest lot, from its reference-lot declaration (absent on older reports or when none was declared). */
+  nearestLotProducerCode?: string | null;
+  /**
+   * The lot claimed for the item and whether the nearest lot is that lot (by the producer's code;
+   * null when the nearest lot has none). Null or absent when no lot was claimed.
+   */
+  claimedLotCheck?: { lotCode: string; nearestIsClaimed: boolean | null } | null;
   t95: number | null;
   t99: number | null;
   /** Share (0–1) of calibration distances above the sample's nearest distance. */
   typicality: number | null;
   fittedParameters: FittedParameter[];
   goodnessOfFit: number | null;
+  /** How χ² weighed the residuals, in words ("modulus weighting"); absent on older reports. */
+  fitWeighting?: string | null;
   qualityFlags: QualityFlag[];
 }
 
@@ -130,6 +141,11 @@ export interface ReportPlots {
     modulusMax: number[];
     phaseMinDeg: number[];
     phaseMaxDeg: number[];
+    /** Spread of Z′ and Z″ per frequency, for the Nyquist band (absent on reports issued before it was stored). */
+    reMin?: number[];
+    reMax?: number[];
+    imMin?: number[];
+    imMax?: number[];
   } | null;
   /** Each reference lot's leave-one-out distance to its nearest other lot. */
   calibrationDistances: number[];

@@ -27,8 +27,9 @@ export class Flow {
     this.y += points;
   }
 
-  heading(text: string): void {
-    this.ensure(40);
+  /** A section heading, on a new page unless it and `keepWith` points of what follows fit here. */
+  heading(text: string, keepWith = 13): void {
+    this.ensure(Math.min(27 + keepWith, this.bottomLimit - PAGE.top));
     this.gap(6);
     write(this.doc, text, { size: 10.5, weight: 700, color: INK.teal, lineBreak: false }, PAGE.left, this.y);
     this.y += 15;

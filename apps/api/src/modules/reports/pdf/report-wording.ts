@@ -1,4 +1,5 @@
 import { ReportData } from './report-data';
+import { formatNumber } from './report-formats';
 
 /** Fixed statements every report carries; kept in one place so reports and screens agree. */
 export const SCREENING_CAUTION =
@@ -28,7 +29,7 @@ const pct = (q: number): string => `${Number((q * 100).toFixed(1))} %`;
 export function decisionRule(data: ReportData): string {
   const { t95, t99 } = data.results;
   const { lower, upper } = data.method.quantiles;
-  const at = (t: number | null) => (t === null ? 'not available' : t.toFixed(4));
+  const at = (t: number | null) => (t === null ? 'not available' : formatNumber(t, 3));
   return (
     `Decision rule: T95 (${at(t95)}) and T99 (${at(t99)}) are the ${pct(lower)} and ${pct(upper)} quantiles of ` +
     "the library's own spread (each reference lot's leave-one-out distance to its nearest other lot). " +
@@ -41,7 +42,7 @@ export function decisionRule(data: ReportData): string {
 export function thresholdStatement(data: ReportData): string | null {
   const t = data.method.thresholds;
   if (!t) return null;
-  const range = (i: [number, number] | null) => (i ? `${i[0].toFixed(4)} to ${i[1].toFixed(4)}` : 'not available');
+  const range = (i: [number, number] | null) => (i ? `${formatNumber(i[0], 2)} to ${formatNumber(i[1], 2)}` : 'not available');
   const level = t.confidenceLevel === null ? '' : `${Math.round(t.confidenceLevel * 100)} % `;
   const intervals =
     t.t95Interval || t.t99Interval

@@ -1,5 +1,6 @@
 import { ReportPlots } from './report-data';
 import { INK } from './pen';
+import { nyquistBandPolygons } from './nyquist-band';
 import { Axis, Box, clipped, compact, drawFrame, linearAxis, logAxis, niceStep, polyline, px, py } from './plot-frame';
 
 const finite = (values: number[]): number[] => values.filter((v) => Number.isFinite(v));
@@ -11,8 +12,9 @@ const finite = (values: number[]): number[] => values.filter((v) => Number.isFin
 export function drawNyquist(doc: PDFKit.PDFDocument, box: Box, plots: ReportPlots): void {
   const { re, im } = plots.sample;
   const minusIm = im.map((v) => -v);
-  const xs = finite(re);
-  const ys = finite(minusIm);
+  const band = plots.referenceEnvelope ? nyquistBandPolygons(plots.referenceEnvelope) : [];
+  const xs = finite([...re, ...band.flat().map((p) => p[0])]);
+  const ys = finite([...minusIm, ...band.flat().map((p) => p[1])]);
   // Z′ of a liquid sits far from zero: centre the data rather than start the axis at 0, which
   // would shrink the arc to a corner of the plot.
   const xLo = Math.min(...xs);
@@ -29,6 +31,14 @@ export function drawNyquist(doc: PDFKit.PDFDocument, box: Box, plots: ReportPlot
   const y = equalAxis(yMin, yMax, step, `−Z″ / ${plots.impedanceUnit}`);
   drawFrame(doc, box, x, y, 'Nyquist plot of the sample (equal axes)');
   clipped(doc, box, () => {
+    if (band.length) {
+      doc.save().fillColor(INK.tealLight);
+      for (const hull of band) {
+        polyline(doc, hull.map(([re0, negIm]) => [px(box, x, re0), py(box, y, negIm)]));
+        doc.closePath();
+      }
+      doc.fill('nonzero').restore();
+    }
     doc.save().lineWidth(1.1).strokeColor(INK.teal);
     polyline(doc, re.map((v, i) => [px(box, x, v), py(box, y, minusIm[i])]));
     doc.stroke().restore();

@@ -1,5 +1,5 @@
 import type { ReportData } from './report-data';
-import { formatDate, formatNumber } from './report-formats';
+import { formatCelsius, formatDate } from './report-formats';
 
 const SOURCE_WORDS = { file: 'stated in the export', entered: 'entered by the analyst', 'entered-over-file': 'entered by the analyst over the export’s value' } as const;
 
@@ -9,17 +9,17 @@ export function measurementTemperatureText(data: ReportData): string | null {
   if (!temps?.length) return null;
   const first = temps[0];
   if (temps.every((t) => t.temperatureC === first.temperatureC && t.source === first.source)) {
-    return `${formatNumber(first.temperatureC, 3)} °C for ${temps.length === 1 ? 'the replicate' : `all ${temps.length} replicates`} (${SOURCE_WORDS[first.source]})`;
+    return `${formatCelsius(first.temperatureC)} for ${temps.length === 1 ? 'the replicate' : `all ${temps.length} replicates`} (${SOURCE_WORDS[first.source]})`;
   }
-  return temps.map((t) => `replicate ${t.replicateNumber}: ${formatNumber(t.temperatureC, 3)} °C (${SOURCE_WORDS[t.source]})`).join('; ');
+  return temps.map((t) => `replicate ${t.replicateNumber}: ${formatCelsius(t.temperatureC)} (${SOURCE_WORDS[t.source]})`).join('; ');
 }
 
 /** The referral applied: from the measurement temperature to the method's reference temperature. */
 export function referralText(data: ReportData): string {
   const m = data.method;
   return (
-    `each spectrum divided by the cell constant and referred to ${formatNumber(m.referenceTemperatureC, 3)} °C ` +
-    `with a linear coefficient α of ${formatNumber(m.temperatureCoefficientPerC * 100, 3)} %/°C: Z · (1 + α (T − T_ref)) / K`
+    `each spectrum divided by the cell constant and referred to ${formatCelsius(m.referenceTemperatureC)} ` +
+    `with a linear coefficient α of ${Number((m.temperatureCoefficientPerC * 100).toPrecision(3))} %/°C: Z · (1 + α (T − T₀)) / K, T₀ being the reference temperature`
   );
 }
 
