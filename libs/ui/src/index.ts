@@ -21,6 +21,7 @@ export * from './shell/app-shell';
 export * from './shell/nav-item';
 export * from './shell/theme-mode';
 export * from './lists/server-list';
+export * from './lists/list-state';
 export * from './lists/search-field';
 export * from './feedback/empty-state';
 export * from './feedback/notice';

@@ -1,6 +1,6 @@
 import type { EntityManager } from 'typeorm';
 import type { Spectrum } from '@ohmprint/spectral-engine';
-import type { KramersKronigSummary, MeasurementUploadFields, MeasurementUploadResult, RejectedFile, SampleState } from '@ohmprint/contracts';
+import { fieldInWords, type KramersKronigSummary, type MeasurementUploadFields, type MeasurementUploadResult, type RejectedFile, type SampleState } from '@ohmprint/contracts';
 import { runCpuTask } from '../../core/cpu-pool/cpu-pool';
 import type { SpectrumLiterals } from '../../core/cpu-pool/cpu-tasks';
 import { ApiError } from '../../core/api-error';
@@ -105,7 +105,7 @@ export async function uploadMeasurements(
     ...(instrument ? [] : [{ field: 'instrumentId', message: 'is not an instrument of this lab' }]),
     ...(cell ? [] : [{ field: 'cellId', message: 'is not a cell of this lab' }]),
   ];
-  if (missing.length) throw ApiError.badRequest(missing.map((m) => `${m.field} ${m.message}`).join('; ') + '.', missing);
+  if (missing.length) throw ApiError.badRequest(missing.map((m) => `${fieldInWords(m.field)} ${m.message}`).join('; ') + '.', missing);
   await requireCellInControl(manager, labId, fields.cellId, sample.code);
   const { k, calibrationId } = await cellConstantFor(manager, labId, fields);
   const method = await labMethod(manager, labId);
