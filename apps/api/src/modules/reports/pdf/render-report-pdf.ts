@@ -190,8 +190,7 @@ function writeMethod(flow: Flow, data: ReportData): void {
 }
 
 function writePlots(flow: Flow, data: ReportData): void {
-  flow.newPage();
-  flow.heading('Spectra');
+  flow.heading('Spectra', 16 + 215 + 26 + 24);
   const top = flow.y + 16;
   const plotH = 215;
   const nyW = 220;
@@ -207,7 +206,7 @@ function writePlots(flow: Flow, data: ReportData): void {
     7.5,
     INK.muted,
   );
-  flow.heading('The sample and the library');
+  flow.heading('The sample and the library', 16 + 170 + 26 + 24);
   const top2 = flow.y + 16;
   const w2 = (CONTENT_WIDTH - 38 - 50 - 14) / 2;
   drawDistanceHistogram(flow.doc, { x: PAGE.left + 38, y: top2, w: w2, h: 170 }, data.plots, data.results);
@@ -270,10 +269,9 @@ function writeStatements(flow: Flow, data: ReportData): void {
 }
 
 function writeAuthorisation(flow: Flow, data: ReportData): void {
-  flow.heading('Authorisation and verification');
-  const { doc } = flow;
   const qr = 84;
-  flow.ensure(qr + 40);
+  flow.heading('Authorisation and verification', qr + 40);
+  const { doc } = flow;
   const top = flow.y;
   const textW = CONTENT_WIDTH - qr - 16;
   const rows: Array<[string, string]> = [
