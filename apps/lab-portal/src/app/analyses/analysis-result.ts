@@ -1,9 +1,9 @@
-import { DatePipe, DecimalPipe, PercentPipe } from '@angular/common';
+import { DatePipe, PercentPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import { typicalityText, weightingExplained, weightingText, type Analysis } from '@ohmprint/contracts';
-import { BodeChart, DistanceHistogram, FitResidualChart, LibraryMap, NyquistChart, fitResiduals, ScreeningCaution, VerdictChip, formatNumber, type DistanceHistogramInput, type MapPoint, type ReferenceBand, type SpectrumSeries } from '@ohmprint/ui';
+import { ParameterSymbol, Quantity, BodeChart, DistanceHistogram, FitResidualChart, LibraryMap, NyquistChart, fitResiduals, ScreeningCaution, VerdictChip, type DistanceHistogramInput, type MapPoint, type ReferenceBand, type SpectrumSeries } from '@ohmprint/ui';
 import { modelLabel } from '@ohmprint/spectral-engine';
 import { AnalysesData } from './analyses-data';
 import { referenceBandOf } from './reference-band';
@@ -13,7 +13,7 @@ import { temperatureText } from './temperature-text';
 @Component({
   selector: 'ohm-analysis-result',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [DatePipe, DecimalPipe, PercentPipe, MatIconModule, MatTooltipModule, VerdictChip, BodeChart, NyquistChart, DistanceHistogram, LibraryMap, FitResidualChart, ScreeningCaution],
+  imports: [DatePipe, PercentPipe, MatIconModule, MatTooltipModule, VerdictChip, BodeChart, NyquistChart, DistanceHistogram, LibraryMap, FitResidualChart, ScreeningCaution, Quantity, ParameterSymbol],
   templateUrl: './analysis-result.html',
   styleUrl: './analysis-result.scss',
 })
@@ -35,7 +35,6 @@ export class AnalysisResult {
   }
 
   /** Significant digits, not decimals: fitted time constants run to microseconds. */
-  protected readonly fmt = formatNumber;
   protected readonly modelLabel = modelLabel;
   protected readonly result = computed(() => this.analysis().result);
   protected readonly temperature = computed(() => temperatureText(this.analysis()));

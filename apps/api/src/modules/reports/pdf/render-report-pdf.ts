@@ -253,7 +253,7 @@ function writeParameters(flow: Flow, data: ReportData): void {
   if (r.fittedParameters.length) {
     flow.paragraph('Each value is rounded to the last decimal place of its standard error, which keeps one or two significant digits.', 7.5, INK.muted);
   } else flow.paragraph('No model was fitted.');
-  if (r.goodnessOfFit !== null) flow.paragraph(`Goodness of fit (weighted χ²${r.fitWeighting ? `, ${r.fitWeighting}` : ''}): ${formatNumber(r.goodnessOfFit, 3)}`);
+  if (r.goodnessOfFit !== null) flow.paragraph(`Goodness of fit (weighted χ²${r.fitWeighting ? `, ${r.fitWeighting}` : ''}): ${formatNumber(r.goodnessOfFit, 2)}`);
   flow.gap(2);
   if (r.qualityFlags.length === 0) flow.paragraph('Data quality: no flags raised.');
   else for (const q of r.qualityFlags) flow.paragraph(`${q.severity === 'warning' ? 'Warning' : 'Note'}: ${q.message}`);
