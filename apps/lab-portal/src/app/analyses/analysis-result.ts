@@ -2,7 +2,7 @@ import { DatePipe, PercentPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
 import { MatTooltipModule } from '@angular/material/tooltip';
-import { typicalityText, weightingExplained, weightingText, type Analysis } from '@ohmprint/contracts';
+import { describeWithoutSymbol, typicalityText, weightingExplained, weightingText, type Analysis } from '@ohmprint/contracts';
 import { ParameterSymbol, Quantity, BodeChart, DistanceHistogram, FitResidualChart, LibraryMap, NyquistChart, fitResiduals, ScreeningCaution, VerdictChip, type DistanceHistogramInput, type MapPoint, type ReferenceBand, type SpectrumSeries } from '@ohmprint/ui';
 import { modelLabel } from '@ohmprint/spectral-engine';
 import { AnalysesData } from './analyses-data';
@@ -35,6 +35,7 @@ export class AnalysisResult {
   }
 
   /** Significant digits, not decimals: fitted time constants run to microseconds. */
+  protected readonly describeWithoutSymbol = describeWithoutSymbol;
   protected readonly modelLabel = modelLabel;
   protected readonly result = computed(() => this.analysis().result);
   protected readonly temperature = computed(() => temperatureText(this.analysis()));

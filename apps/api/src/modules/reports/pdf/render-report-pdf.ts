@@ -2,7 +2,7 @@ import PDFDocument from 'pdfkit';
 import { followsText, measurementTemperatureText, referralText } from './temperature-wording';
 import { ReportData } from './report-data';
 import { registerInter } from './inter-fonts';
-import { formatQuantity, formatSymbol, sameLotCode } from '@ohmprint/contracts';
+import { describeWithoutSymbol, formatQuantity, formatSymbol, sameLotCode } from '@ohmprint/contracts';
 import { INK, widthOf, write, writeParts } from './pen';
 import { CONTENT_WIDTH, Flow, PAGE } from './report-layout';
 import { drawBode, drawNyquist } from './spectrum-plots';
@@ -223,14 +223,6 @@ function writePlots(flow: Flow, data: ReportData): void {
   );
 }
 
-/** "Series resistance Rs" → "Series resistance" when the last word is the symbol drawn beside it. */
-function withoutTrailingSymbol(description: string, symbolText: string): string {
-  const words = description.split(' ');
-  const last = words[words.length - 1];
-  const plain = (t: string) => t.normalize('NFKD').replace(/[^\p{L}\p{N}∞]/gu, '').toLowerCase();
-  return words.length > 1 && plain(last) === plain(symbolText) ? words.slice(0, -1).join(' ') : description;
-}
-
 function writeParameters(flow: Flow, data: ReportData): void {
   const r = data.results;
   const rowH = 14;
@@ -243,7 +235,7 @@ function writeParameters(flow: Flow, data: ReportData): void {
     flow.ensure(rowH);
     const symbol = formatSymbol(p.name);
     const value = formatQuantity(p.value, { standardError: p.standardError, significant: 4 });
-    write(doc, withoutTrailingSymbol(p.description ?? p.name, symbol.text), { size: 8.5, lineBreak: false }, cols[0], flow.y);
+    write(doc, describeWithoutSymbol(p.description ?? p.name, p.name), { size: 8.5, lineBreak: false }, cols[0], flow.y);
     writeParts(doc, symbol.parts, { size: 8.5 }, cols[1], flow.y);
     const valueParts = p.standardError === null ? [...value.parts, { text: ' (SE not estimated)', role: 'normal' as const }] : value.parts;
     writeParts(doc, valueParts, { size: 8.5 }, cols[2], flow.y);
