@@ -218,6 +218,13 @@ describe('a producer orders checks and the credits follow the samples', () => {
     await api(REVIEWER, `/api/lab/analyses/${analysis.id}/approve`, {
       method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ comments: 'Agreed (browser journey).' }),
     });
+    // the approval is answered at once; the worker issues the report (and spends the credit) a moment later
+    for (let i = 0; ; i++) {
+      const issuance = await api<{ state: string }>(REVIEWER, `/api/lab/analyses/${analysis.id}/issuance`);
+      if (issuance.state === 'issued') break;
+      if (issuance.state === 'failed' || i > 300) throw new Error(`the report was not issued: ${JSON.stringify(issuance)}`);
+      await new Promise((r) => setTimeout(r, 100));
+    }
     const before = needs('before');
     expect(await credits()).toEqual({ available: before.available - 2, reserved: before.reserved + 1 });
 

@@ -57,6 +57,8 @@ const EnvSchema = z.object({
   STRIPE_SECRET_KEY: z.string().min(1).default('sk_test_ohmprint_local'),
   PAYMENT_WEBHOOK_SECRET: z.string().optional(),
   CPU_WORKERS: z.coerce.number().int().min(1).max(64).optional(),
+  /** Decoded published libraries kept in memory, in megabytes (estimated), least recently used out first. */
+  LIBRARY_CACHE_MAX_MB: z.coerce.number().int().min(1).max(65536).default(192),
   SHUTDOWN_TIMEOUT_MS: z.coerce.number().int().min(100).default(10000),
   OHMPRINT_DATA_DIR: z.string().default('.data'),
   PORTALS_DIR: z.string().default('dist'),
@@ -132,6 +134,7 @@ export function buildConfig(env: Env) {
       webhookSecret: env.PAYMENT_WEBHOOK_SECRET,
     },
     cpuWorkers: env.CPU_WORKERS,
+    libraryCacheMaxBytes: env.LIBRARY_CACHE_MAX_MB * 1024 * 1024,
     shutdownTimeoutMs: env.SHUTDOWN_TIMEOUT_MS,
     dataDir: env.OHMPRINT_DATA_DIR,
     portalsDir: env.PORTALS_DIR,

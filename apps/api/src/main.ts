@@ -3,16 +3,16 @@ import { createApp } from './app';
 import { config } from './config';
 import { closeCpuPool } from './core/cpu-pool/cpu-pool';
 import { logger } from './core/logger';
+import { startJobs, stopJobs } from './core/jobs/jobs';
 import { dataSource } from './db/data-source';
-import { createMailTransport } from './modules/mail/mail-transport';
-import { startOutboxWorker } from './modules/mail/outbox-worker';
 
 async function main(): Promise<void> {
   await dataSource.initialize();
   const pending = await dataSource.showMigrations();
   if (pending) logger.warn('the database has pending migrations: run npm run db:migrate');
 
-  const worker = config.mail.workerEnabled ? startOutboxWorker(dataSource, createMailTransport()) : undefined;
+  // The API only enqueues jobs; worker processes (worker.ts) run them.
+  await startJobs({ maxConnections: 2 });
   const app = createApp();
   const server: Server = app.listen(config.port, config.host, () => {
     logger.info({ url: `http://${config.host}:${config.port}` }, 'Ohmprint API listening');
@@ -29,7 +29,7 @@ async function main(): Promise<void> {
     }, config.shutdownTimeoutMs);
     hardStop.unref();
     server.close(async () => {
-      await worker?.stop();
+      await stopJobs();
       await closeCpuPool();
       await dataSource.destroy();
       logger.info('stopped');

@@ -16,5 +16,6 @@ export * from './lab';
 export * from './lab/reports';
 export * from './billing';
 export * from './notifications';
+export * from './field-words';
 export * from './format';
 export * from './layout';

@@ -3,6 +3,12 @@ import { z } from 'zod';
 export const MAX_PAGE_SIZE = 100;
 
 /**
+ * Lists count matching rows only up to this many: past it `total` is this number and
+ * `totalIsLowerBound` is true ("10,000+"), so a long list never costs a count of every row.
+ */
+export const TOTAL_CAP = 10_000;
+
+/**
  * The query every list accepts: `?q=&sort=&dir=&page=&pageSize=`.
  * `sortFields` names the columns a list may be sorted by; the first is the default.
  */
@@ -16,13 +22,17 @@ export function listQuery<const S extends readonly [string, ...string[]]>(sortFi
   });
 }
 
-/** A page of a list: `{ items, total, page, pageSize }`. */
+/**
+ * A page of a list: `{ items, total, page, pageSize, totalIsLowerBound? }`. When
+ * `totalIsLowerBound` is true there are more than `total` matching rows (see `TOTAL_CAP`).
+ */
 export function pageOf<T extends z.ZodType>(item: T) {
   return z.object({
     items: z.array(item),
     total: z.number().int().min(0),
     page: z.number().int().min(1),
     pageSize: z.number().int().min(1),
+    totalIsLowerBound: z.boolean().optional(),
   });
 }
 
@@ -31,6 +41,13 @@ export interface Page<T> {
   total: number;
   page: number;
   pageSize: number;
+  /** true when there are more than `total` rows (the count stopped at `TOTAL_CAP`) */
+  totalIsLowerBound?: boolean;
+}
+
+/** "1,234" or "10,000+" for a page's total. */
+export function totalLabel(page: Pick<Page<unknown>, 'total' | 'totalIsLowerBound'>): string {
+  return `${page.total.toLocaleString('en-GB')}${page.totalIsLowerBound ? '+' : ''}`;
 }
 
 export interface ListQuery<S extends string = string> {

@@ -13,3 +13,20 @@ export const ClientRoleSchema = z.enum(CLIENT_ROLES);
 export type Role = z.infer<typeof RoleSchema>;
 export type LabRole = z.infer<typeof LabRoleSchema>;
 export type ClientRole = z.infer<typeof ClientRoleSchema>;
+
+/** How roles read to people (screens, e-mails, messages); the codes above are for machines. */
+export const ROLE_LABELS: Readonly<Record<Role, string>> = {
+  'platform-operator': 'Platform operator',
+  'lab-admin': 'Lab admin',
+  'intake-technician': 'Intake technician',
+  analyst: 'Analyst',
+  reviewer: 'Reviewer',
+  'client-admin': 'Client admin',
+  'client-member': 'Client member',
+};
+
+/** Roles as a sentence reads them: "lab admin and reviewer". */
+export function rolesInWords(roles: readonly Role[]): string {
+  const words = roles.map((r) => ROLE_LABELS[r].toLowerCase());
+  return words.length <= 1 ? (words[0] ?? '') : `${words.slice(0, -1).join(', ')} and ${words.at(-1)}`;
+}

@@ -12,6 +12,7 @@ export const ARTIFACTS = join(ROOT, 'test', 'artifacts', 'browser');
 const DATABASE = 'ohmprint_browser';
 const PID_FILE = join(ROOT, '.data', 'run', 'api-browser-test.pid');
 const PAYMENT_PID_FILE = join(ROOT, '.data', 'run', 'payment-browser-test.pid');
+const WORKER_PID_FILE = join(ROOT, '.data', 'run', 'worker-browser-test.pid');
 
 /** The stack's own local payment service on a free port, posting webhooks to the stack's API. */
 async function startPaymentService(env: NodeJS.ProcessEnv): Promise<string> {
@@ -115,6 +116,11 @@ export async function startStack(): Promise<void> {
   child.unref();
   mkdirSync(join(ROOT, '.data', 'run'), { recursive: true });
   writeFileSync(PID_FILE, String(child.pid));
+  // the worker runs queued jobs (report issuance, e-mail) as `npm start`'s does
+  const workerOut = openSync(join(ROOT, '.data', 'logs', 'worker-browser-test.log'), 'w');
+  const worker = spawn('node', [join(ROOT, 'dist', 'api', 'apps', 'api', 'src', 'worker.js')], { env, stdio: ['ignore', workerOut, workerOut], detached: true });
+  worker.unref();
+  writeFileSync(WORKER_PID_FILE, String(worker.pid));
   await waitForHealth(30000);
 }
 
@@ -122,6 +128,13 @@ export function stopStack(): void {
   if (existsSync(PAYMENT_PID_FILE)) {
     try {
       process.kill(Number(readFileSync(PAYMENT_PID_FILE, 'utf8')), 'SIGTERM');
+    } catch {
+      // already gone
+    }
+  }
+  if (existsSync(WORKER_PID_FILE)) {
+    try {
+      process.kill(Number(readFileSync(WORKER_PID_FILE, 'utf8')), 'SIGTERM');
     } catch {
       // already gone
     }

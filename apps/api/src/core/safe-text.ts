@@ -1,5 +1,5 @@
 import type { NextFunction, Request, Response } from 'express';
-import type { FieldError } from '@ohmprint/contracts';
+import { fieldInWords, type FieldError } from '@ohmprint/contracts';
 import { ApiError } from './api-error';
 
 /** A UTF-16 surrogate without its partner: no character at all, and PostgreSQL cannot store it. */
@@ -36,7 +36,7 @@ export function unsafeTextFields(value: unknown, prefix = '', depth = 0, found: 
 
 /** The 400 for text that cannot be stored, naming each field and where it was sent. */
 export function refuseUnsafeText(where: string, errors: FieldError[]): ApiError {
-  const list = errors.map((e) => `${e.field} ${e.message}`).join('; ');
+  const list = errors.map((e) => `${fieldInWords(e.field)} ${e.message}`).join('; ');
   return new ApiError(400, 'Invalid text', `The ${where} has text that cannot be stored: ${list}.`, { type: 'invalid-text', errors });
 }
 

@@ -1,6 +1,6 @@
 import type { NextFunction, Request, Response } from 'express';
 import type { z } from 'zod';
-import type { FieldError } from '@ohmprint/contracts';
+import { fieldInWords, type FieldError } from '@ohmprint/contracts';
 import { ApiError } from './api-error';
 import { refuseUnsafeText, unsafeTextFields } from './safe-text';
 
@@ -44,7 +44,7 @@ export function validate(schemas: RequestSchemas) {
       }
     }
     if (errors.length) {
-      const list = errors.map((e) => `${e.field} ${e.message}`).join('; ');
+      const list = errors.map((e) => `${fieldInWords(e.field)} ${e.message}`).join('; ');
       next(ApiError.badRequest(`The ${where.join(' and ')} has ${errors.length === 1 ? 'an invalid field' : `${errors.length} invalid fields`}: ${list}.`, errors));
       return;
     }

@@ -23,7 +23,9 @@ import { librariesRouter } from './libraries/router';
 import { methodsRouter } from './libraries/methods.router';
 import { libraryBuildRouter } from './libraries/library-build.router';
 import { analysesRouter } from './analyses/router';
+import { slimResultsRouter } from './analyses/slim-results.router';
 import { reviewsRouter } from './reviews/router';
+import { reportIssuanceRouter } from './reviews/report-issuance.router';
 import { clientOrdersRouter } from './orders/router';
 import { clientOrderingRouter } from './orders/client-ordering.router';
 import { clientBillingRouter } from './billing/client-billing.router';
@@ -36,6 +38,7 @@ import { validationRouter } from './validation/router';
 export function apiRoutes(): Router {
   const api = Router();
   api.use(healthRouter());
+  api.use(reportIssuanceRouter());
   api.use('/auth', authRouter());
   api.use('/invitations', invitationsRouter());
   api.use('/me', meRouter());
@@ -59,6 +62,7 @@ export function apiRoutes(): Router {
   api.use(methodsRouter());
   api.use(libraryBuildRouter());
   api.use('/lab', analysesRouter());
+  api.use(slimResultsRouter());
   api.use('/lab', reviewsRouter());
   api.use(clientOrdersRouter());
   api.use(clientOrderingRouter());

@@ -37,6 +37,9 @@ export default async function globalSetup(): Promise<void> {
   await dataSource.initialize();
   try {
     await dataSource.runMigrations({ transaction: 'each' });
+    // pg-boss's schema and queues, as `npm run db:migrate` installs them: every clone has them.
+    const { installJobSchema } = await import('../core/jobs/jobs');
+    await installJobSchema();
     const hash = await hashPassword(DEMO_PASSWORD);
     await dataSource.transaction((manager) => seedAccounts(manager, hash));
   } finally {

@@ -6,3 +6,4 @@ export { latestEmailTo, linkToken } from './outbox';
 export { analyseDemoSample, measureDemoSample, type MeasuredDemoSample } from './demo-workflow';
 export { startLocalPaymentService, eventually, type LocalPaymentService } from './payment-service';
 export { enrolReferenceLots, type EnrolledLots } from './reference-lots';
+export { approveAndIssue, issuedReport } from './report-issuance';

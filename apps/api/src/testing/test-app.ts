@@ -3,6 +3,9 @@ import request from 'supertest';
 import type { Role, SessionResponse } from '@ohmprint/contracts';
 import { createApp } from '../app';
 import { closeCpuPool } from '../core/cpu-pool/cpu-pool';
+import { QUEUES, startJobs, stopJobs, unfinishedJobs, type JobName } from '../core/jobs/jobs';
+import { config } from '../config';
+import { jobHandlers } from '../job-handlers';
 import { dataSource } from '../db/data-source';
 import { signAccessToken } from '../modules/auth/access-token';
 import { User } from '../modules/accounts/user.entity';
@@ -21,6 +24,11 @@ export interface TestApp {
   authFor(role: Role, lab?: DemoLabKey): Promise<Record<string, string>>;
   /** The user id of the demo account holding `role`. */
   userIdFor(role: Role, lab?: DemoLabKey): Promise<string>;
+  /**
+   * Waits until this file's queued jobs (report issuance, publications, analyses; e-mail only
+   * when the outbox worker is on) have run: the file's own in-process worker runs them.
+   */
+  jobsIdle(timeoutMs?: number): Promise<void>;
   /** A real sign-in through the API: the JSON answer and the refresh cookie. */
   signIn(email: string, password?: string): Promise<{ body: SessionResponse; cookie: string }>;
 }
@@ -40,9 +48,12 @@ export function useTestApp(): TestApp {
     dataSource.setOptions({ database: databaseName, poolSize: 4, logging: [] });
     await dataSource.initialize();
     app = createApp();
+    // Each file runs its own worker in-process, on its own database, for the queues it may fill.
+    await startJobs({ handlers: jobHandlers({ email: config.mail.workerEnabled }), pollingIntervalSeconds: 1, maxConnections: 2 });
   });
 
   afterAll(async () => {
+    await stopJobs(5);
     await closeCpuPool();
     if (dataSource.isInitialized) await dataSource.destroy();
     if (databaseName) await dropTestDatabase(databaseName);
@@ -73,6 +84,14 @@ export function useTestApp(): TestApp {
     },
     async authFor(role, lab) {
       return { Authorization: `Bearer ${signAccessToken(await userIdFor(role, lab))}` };
+    },
+    async jobsIdle(timeoutMs = 20000) {
+      const names = (Object.keys(QUEUES) as JobName[]).filter((n) => n !== 'email-send' || config.mail.workerEnabled);
+      const until = Date.now() + timeoutMs;
+      while ((await unfinishedJobs(dataSource.manager, names)) > 0) {
+        if (Date.now() > until) throw new Error(`jobs still unfinished after ${timeoutMs} ms`);
+        await new Promise((r) => setTimeout(r, 50));
+      }
     },
     async signIn(email, password = DEMO_PASSWORD) {
       const res = await request(this.app).post('/api/auth/sign-in').send({ email, password });

@@ -3,6 +3,7 @@ import { listQuery, pageOf } from '../paging';
 import { UserRefSchema } from './refs';
 import { MethodSettingsSchema, ThresholdEstimatorSchema } from './libraries';
 import { SpectrumPointsSchema } from './measurements';
+import { ReferenceBandPointsSchema } from './reference-band';
 
 export const VERDICTS = ['consistent', 'inconclusive', 'not-consistent', 'no-verdict'] as const;
 export const VerdictSchema = z.enum(VERDICTS);
@@ -25,6 +26,9 @@ export const ThresholdStatementSchema = z.object({
   resamples: z.number().int().nullable(),
 });
 export type ThresholdStatement = z.infer<typeof ThresholdStatementSchema>;
+
+/** Nearest lots an analysis keeps and returns: the map draws them, the list shows the first ten. */
+export const NEAREST_LOTS = 59;
 
 export const LotDistanceSchema = z.object({ lotId: z.uuid(), lotCode: z.string(), distance: z.number() });
 export type LotDistance = z.infer<typeof LotDistanceSchema>;
@@ -72,7 +76,13 @@ export const AnalysisResultSchema = z.object({
   t99: z.number().nullable(),
   /** Share of the library's calibration distances above the sample's nearest distance, 0–1. */
   typicality: z.number().nullable(),
+  /**
+   * The nearest lots, nearest first (at most `NEAREST_LOTS`; older analyses hold every lot). Every
+   * lot's distance pages through `GET /lab/analyses/:id/lot-distances`.
+   */
   distances: z.array(LotDistanceSchema),
+  /** How many lots the sample was scored against (absent on older analyses: `distances.length`). */
+  lotCount: z.number().int().min(0).optional(),
   /** Classical MDS of lots plus sample; axes are arbitrary in sign. */
   map: z.object({
     sample: z.tuple([z.number(), z.number()]),
@@ -81,7 +91,15 @@ export const AnalysisResultSchema = z.object({
     axisShares: z.tuple([z.number(), z.number()]).optional(),
   }),
   /** Histogram of the calibration distances, for plotting with T95/T99 and the sample's distance. */
-  histogram: z.object({ binEdges: z.array(z.number()), counts: z.array(z.number().int()) }),
+  histogram: z.object({
+    binEdges: z.array(z.number()),
+    counts: z.array(z.number().int()),
+    /** The thresholds and the sample's nearest distance drawn over the bars, and the bin it falls in (absent on older analyses). */
+    t95: z.number().nullable().optional(),
+    t99: z.number().nullable().optional(),
+    sampleDistance: z.number().nullable().optional(),
+    sampleBin: z.number().int().nullable().optional(),
+  }),
   fit: z
     .object({
       model: z.string(),
@@ -139,6 +157,8 @@ export const AnalysisSchema = z.object({
   claimedLot: z.object({ lotCode: z.string(), nearestIsClaimed: z.boolean().nullable() }).nullable().optional(),
   /** The revoked report of this sample that a report from this analysis would follow, if any. */
   followsRevokedReport: z.string().nullable().optional(),
+  /** The version's reference band (stored when it was published), drawn behind the sample. */
+  referenceBand: ReferenceBandPointsSchema.nullable().optional(),
   reviews: z.array(
     z.object({
       id: z.uuid(),

@@ -20,6 +20,24 @@ export const SAMPLE_STATES = [
 export const SampleStateSchema = z.enum(SAMPLE_STATES);
 export type SampleState = z.infer<typeof SampleStateSchema>;
 
+/** How each state reads to people, on screens (with an icon) and in the API's messages. */
+export const SAMPLE_STATE_LABELS: Readonly<Record<SampleState, string>> = {
+  'awaiting-arrival': 'Awaiting arrival',
+  received: 'Received',
+  accepted: 'Accepted',
+  rejected: 'Rejected at intake',
+  measuring: 'Being measured',
+  analysed: 'Analysed',
+  'in-review': 'In review',
+  'returned-for-rework': 'Returned for rework',
+  reported: 'Reported',
+};
+
+/** A state inside a sentence: "in review". */
+export function sampleStateInWords(state: SampleState): string {
+  return SAMPLE_STATE_LABELS[state].toLowerCase();
+}
+
 /** Which state may follow which; the API refuses any other move with a 409 problem. */
 export const SAMPLE_TRANSITIONS: Readonly<Record<SampleState, readonly SampleState[]>> = {
   'awaiting-arrival': ['received'],

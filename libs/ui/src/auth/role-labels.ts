@@ -1,15 +1,7 @@
-import type { Role } from '@ohmprint/contracts';
+import { ROLE_LABELS, type Role } from '@ohmprint/contracts';
 
-/** How roles read on screen. */
-export const ROLE_LABELS: Readonly<Record<Role, string>> = {
-  'platform-operator': 'Platform operator',
-  'lab-admin': 'Lab admin',
-  'intake-technician': 'Intake technician',
-  analyst: 'Analyst',
-  reviewer: 'Reviewer',
-  'client-admin': 'Client admin',
-  'client-member': 'Client member',
-};
+/** How roles read on screen: one vocabulary, kept in the contracts so e-mails read the same. */
+export { ROLE_LABELS };
 
 export function roleList(roles: readonly Role[]): string {
   return roles.map((r) => ROLE_LABELS[r]).join(', ');

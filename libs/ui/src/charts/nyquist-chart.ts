@@ -33,8 +33,8 @@ let nextId = 0;
           }
           @for (m of layout().frequencyMarks; track $index) {
             <svg:circle class="annotation" r="2" [attr.cx]="m.x" [attr.cy]="m.y" />
-            @if (m.label) {
-              <svg:text class="tick-label" dx="5" dy="-5" [attr.x]="m.x" [attr.y]="m.y">{{ m.label }}</svg:text>
+            @if (m.label && m.box?.placed) {
+              <svg:text class="tick-label" data-label="frequency" [attr.x]="m.box!.x" [attr.y]="m.box!.y + 10.5">{{ m.label }}</svg:text>
             }
           }
         </svg:g>

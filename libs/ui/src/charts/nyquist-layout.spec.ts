@@ -67,3 +67,19 @@ describe('decade marks where the arc bunches up', () => {
     }
   });
 });
+
+describe('nyquistLayout frequency labels', () => {
+  it('keeps every decade label inside the plot, even at the arc’s right end', () => {
+    const f = Array.from({ length: 41 }, (_, i) => 10 ** (2 + i / 10));
+    const re = f.map((x) => 380 + 160 / (1 + (x / 2e4) ** 2));
+    const im = f.map((x) => (-160 * (x / 2e4)) / (1 + (x / 2e4) ** 2));
+    const layout = nyquistLayout([{ label: 's', frequencyHz: f, re, im }], null, 640, 400);
+    const shown = layout.frequencyMarks.filter((m) => m.label && m.box?.placed).map((m) => m.box!);
+    expect(shown.length).toBeGreaterThanOrEqual(3);
+    for (const b of shown) {
+      expect(b.x).toBeGreaterThanOrEqual(layout.area.left);
+      expect(b.x + b.width).toBeLessThanOrEqual(layout.area.left + layout.area.width + 1e-9);
+      expect(b.y).toBeGreaterThanOrEqual(layout.area.top);
+    }
+  });
+});

@@ -1,3 +1,4 @@
+import { estimateTextWidth, placeLabels, type PlacedLabel } from '@ohmprint/contracts';
 import { linearTicks } from './axis-ticks';
 import type { PlotArea, ReferenceBand, SpectrumSeries } from './chart-types';
 import { convexHull } from './convex-hull';
@@ -11,6 +12,8 @@ export interface FrequencyMark {
   readonly x: number;
   readonly y: number;
   readonly label: string;
+  /** Where the label goes, inside the plot and clear of the other marks' labels (absent for an unlabelled dot). */
+  readonly box?: PlacedLabel;
 }
 
 export interface NyquistLayout extends PanelLayout {
@@ -88,7 +91,7 @@ export function nyquistLayout(
     yLabel: `−Z″ (${unit})`,
     series: drawn,
     band: bandD,
-    frequencyMarks: first ? decadeMarks(first, (v) => x(v), (v) => y(-v)) : [],
+    frequencyMarks: placeMarkLabels(first ? decadeMarks(first, (v) => x(v), (v) => y(-v)) : [], area),
   };
 }
 
@@ -122,4 +125,17 @@ export function decadeMarks(
     last = m;
     return m;
   });
+}
+
+/** Decade labels laid out inside the plot without overprinting each other or their dots. */
+function placeMarkLabels(marks: readonly FrequencyMark[], area: PlotArea): FrequencyMark[] {
+  const labelled = marks.filter((m) => m.label);
+  const boxes = placeLabels(
+    labelled.map((m, i) => ({ id: String(i), anchor: { x: m.x, y: m.y }, width: estimateTextWidth(m.label, 11), height: 14, offset: 4,
+      sides: ['above-right', 'above-left', 'below-right', 'below-left', 'right', 'left'] as const })),
+    { x: area.left, y: area.top, width: area.width, height: area.height },
+    { gap: 2, obstacles: marks.map((m) => ({ x: m.x - 3, y: m.y - 3, width: 6, height: 6 })) },
+  );
+  let k = 0;
+  return marks.map((m) => (m.label ? { ...m, box: boxes[k++] } : m));
 }

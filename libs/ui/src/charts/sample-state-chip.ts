@@ -1,18 +1,18 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
-import type { SampleState } from '@ohmprint/contracts';
+import { SAMPLE_STATE_LABELS, type SampleState } from '@ohmprint/contracts';
 
 /** Plain words and an icon for each state of a sample, the same in both portals. */
 export const SAMPLE_STATE_LOOK: Readonly<Record<SampleState, { readonly icon: string; readonly label: string }>> = {
-  'awaiting-arrival': { icon: 'local_shipping', label: 'Awaiting arrival' },
-  received: { icon: 'inventory_2', label: 'Received' },
-  accepted: { icon: 'task_alt', label: 'Accepted' },
-  rejected: { icon: 'block', label: 'Rejected at intake' },
-  measuring: { icon: 'electric_meter', label: 'Being measured' },
-  analysed: { icon: 'query_stats', label: 'Analysed' },
-  'in-review': { icon: 'rate_review', label: 'In review' },
-  'returned-for-rework': { icon: 'undo', label: 'Returned for rework' },
-  reported: { icon: 'description', label: 'Reported' },
+  'awaiting-arrival': { icon: 'local_shipping', label: SAMPLE_STATE_LABELS['awaiting-arrival'] },
+  received: { icon: 'inventory_2', label: SAMPLE_STATE_LABELS.received },
+  accepted: { icon: 'task_alt', label: SAMPLE_STATE_LABELS.accepted },
+  rejected: { icon: 'block', label: SAMPLE_STATE_LABELS.rejected },
+  measuring: { icon: 'electric_meter', label: SAMPLE_STATE_LABELS.measuring },
+  analysed: { icon: 'query_stats', label: SAMPLE_STATE_LABELS.analysed },
+  'in-review': { icon: 'rate_review', label: SAMPLE_STATE_LABELS['in-review'] },
+  'returned-for-rework': { icon: 'undo', label: SAMPLE_STATE_LABELS['returned-for-rework'] },
+  reported: { icon: 'description', label: SAMPLE_STATE_LABELS.reported },
 };
 
 @Component({

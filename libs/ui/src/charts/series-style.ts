@@ -8,8 +8,8 @@ export interface SeriesStyle {
   readonly marker: 'circle' | 'square' | 'triangle' | 'diamond' | 'none';
 }
 
-/** A fitted model's curve: a plain line in the text colour, drawn over the measured points. */
-export const FIT_STYLE: SeriesStyle = { stroke: 'var(--mat-sys-on-surface)', dash: '', marker: 'none' };
+/** A fitted model's curve: a dashed line in the error colour, apart from the measured points it runs through. */
+export const FIT_STYLE: SeriesStyle = { stroke: 'var(--mat-sys-error)', dash: '5 3', marker: 'none' };
 
 /** The style of series `index` of `series`: a fit gets FIT_STYLE, data the n-th data style. */
 export function styleFor(series: readonly { readonly role?: 'data' | 'fit' }[], index: number): SeriesStyle {

@@ -1,7 +1,7 @@
 import { ChangeDetectionStrategy, Component, input } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { EmptyState } from '../feedback/empty-state';
-import type { ServerList } from './server-list';
+import type { ListView } from './server-list';
 
 /**
  * What a server-side list says when it has no rows: it could not be loaded (with a retry), the
@@ -29,7 +29,7 @@ import type { ServerList } from './server-list';
   `,
 })
 export class ListStatus {
-  readonly list = input.required<ServerList<unknown>>();
+  readonly list = input.required<ListView>();
   readonly failedHeading = input.required<string>();
   /** The start of the no-match heading, before the quoted search text: "No one matches". */
   readonly noMatch = input.required<string>();

@@ -1,11 +1,11 @@
-import { ChangeDetectionStrategy, Component, input, output, type OnInit } from '@angular/core';
+import { ChangeDetectionStrategy, Component, effect, input, output } from '@angular/core';
 import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import { FormControl, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { debounceTime, distinctUntilChanged } from 'rxjs';
+import { debounceTime, filter, map } from 'rxjs';
 
 /** The search box above every list; emits the text once typing pauses. */
 @Component({
@@ -33,20 +33,35 @@ import { debounceTime, distinctUntilChanged } from 'rxjs';
     }
   `,
 })
-export class SearchField implements OnInit {
+export class SearchField {
   readonly label = input('Search');
-  /** Text to start with (a search restored from the URL); shown without emitting. */
+  /**
+   * The search the list holds (restored from the URL, or changed by Back): shown without emitting.
+   * Text the field itself emitted is not written back, so typing on while the list catches up
+   * loses nothing.
+   */
   readonly initial = input('');
   readonly queryChange = output<string>();
   protected readonly text = new FormControl('', { nonNullable: true });
+  private last = '';
 
   constructor() {
     this.text.valueChanges
-      .pipe(debounceTime(300), distinctUntilChanged(), takeUntilDestroyed())
-      .subscribe((value) => this.queryChange.emit(value));
-  }
-
-  ngOnInit(): void {
-    if (this.initial()) this.text.setValue(this.initial(), { emitEvent: false });
+      .pipe(
+        debounceTime(300),
+        map((value) => value.trim()),
+        filter((value) => value !== this.last),
+        takeUntilDestroyed(),
+      )
+      .subscribe((value) => {
+        this.last = value;
+        this.queryChange.emit(value);
+      });
+    effect(() => {
+      const held = this.initial().trim();
+      if (held === this.last) return;
+      this.last = held;
+      this.text.setValue(held, { emitEvent: false });
+    });
   }
 }

@@ -1,74 +1,126 @@
-import { DestroyRef, signal } from '@angular/core';
-import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
-import type { MatPaginator } from '@angular/material/paginator';
-import type { MatSort } from '@angular/material/sort';
+import { DestroyRef, computed, inject, signal, type Signal, type WritableSignal } from '@angular/core';
+import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
+import type { PageEvent } from '@angular/material/paginator';
+import type { Sort } from '@angular/material/sort';
+import { ActivatedRoute, Router } from '@angular/router';
 import type { ListQuery, Page } from '@ohmprint/contracts';
-import { Subject, catchError, map, merge, of, startWith, switchMap, tap, type Observable } from 'rxjs';
+import { paginatorLength } from './capped-paginator-intl';
+import { Subject, catchError, combineLatest, distinctUntilChanged, map, merge, of, switchMap, tap, type Observable } from 'rxjs';
+import { listQueryOf, listStateParams, pageSizesOf, readListState, sameListState, type ListSpec, type ListState } from './list-state';
 
-export interface ServerListSources<T> {
-  readonly sort: MatSort;
-  readonly paginator: MatPaginator;
-  /** Search text as typed (already debounced by SearchField). */
-  readonly search: Observable<string>;
-  readonly fetch: (query: ListQuery) => Observable<Page<T>>;
-  readonly destroyRef: DestroyRef;
+export interface ServerListOptions<T, F extends object> extends ListSpec<F> {
+  readonly fetch: (query: ListQuery, filters: F) => Observable<Page<T>>;
+  /**
+   * What the rows belong to, when that is an input (a library version's lots): read as a signal,
+   * so the first request waits until inputs are set, and a new value fetches again.
+   */
+  readonly scope?: () => unknown;
+}
+
+/** What a list's status message reads (`ListStatus`); any server list fits. */
+export interface ListView {
+  readonly rows: Signal<readonly unknown[]>;
+  readonly loading: Signal<boolean>;
+  readonly failed: Signal<boolean>;
+  readonly searchText: Signal<string>;
+  reload(): void;
 }
 
 /**
- * A server-side table's state: sort, page and search changes become one query each, and only the
- * latest answer counts (switchMap). Errors were already reported by the problem interceptor;
- * the table keeps its rows and says the list could not be loaded.
+ * A server-side table whose search, filters, sort and page live in the URL query: a reload or a
+ * shared link opens the same list, Back and Forward step through what the user chose, and an
+ * unreadable value reads as its default. The URL is the one source of truth: the table's controls
+ * ask for a new URL, and every URL (or `reload()`) becomes one request; only the latest answer
+ * counts (switchMap). Errors were already reported by the problem interceptor; the table keeps its
+ * rows and says the list could not be loaded.
+ *
+ * Create it in a field initializer (it injects the router). The template binds the state:
+ * `matSort [matSortActive]="list.state().sort" [matSortDirection]="list.state().dir"
+ * (matSortChange)="list.sortBy($event)"`, `<mat-paginator [pageIndex]="list.state().page - 1"
+ * [pageSize]="list.state().pageSize" [pageSizeOptions]="list.pageSizes" (page)="list.turn($event)">`
+ * and `<ohm-search-field [initial]="list.state().q" (queryChange)="list.search($event)">`.
  */
-export class ServerList<T> {
+export class ServerList<T, F extends object = Record<never, never>> implements ListView {
   readonly rows = signal<readonly T[]>([]);
   readonly total = signal(0);
   readonly loading = signal(true);
   readonly failed = signal(false);
-  readonly searchText = signal('');
+  readonly pageSizes: readonly number[];
+  private readonly current: WritableSignal<ListState<F>>;
+  readonly state: Signal<ListState<F>>;
+  readonly filters: Signal<F>;
+  readonly searchText: Signal<string>;
+  private readonly router = inject(Router);
   private readonly reloads = new Subject<void>();
 
-  connect({ sort, paginator, search, fetch, destroyRef }: ServerListSources<T>): void {
-    const sortChanges = sort.sortChange.pipe(tap(() => (paginator.pageIndex = 0)));
-    const searchChanges = search.pipe(
-      tap((text) => {
-        this.searchText.set(text.trim());
-        paginator.pageIndex = 0;
-      }),
+  constructor(private readonly options: ServerListOptions<T, F>) {
+    const route = inject(ActivatedRoute);
+    this.pageSizes = pageSizesOf(options);
+    this.current = signal(readListState(options, route.snapshot?.queryParamMap ?? { get: () => null }));
+    this.state = this.current.asReadonly();
+    this.filters = computed(() => this.current().filters);
+    this.searchText = computed(() => this.current().q);
+    const fromUrl = route.queryParamMap.pipe(
+      map((params) => readListState(options, params)),
+      distinctUntilChanged((a: ListState<F>, b: ListState<F>) => sameListState(a, b)),
+      tap((state) => this.current.set(state)),
     );
-    merge(sortChanges, paginator.page, searchChanges, this.reloads)
+    const scope = options.scope ? toObservable(computed(options.scope)) : of(null);
+    merge(combineLatest([fromUrl, scope]).pipe(map(([state]) => state)), this.reloads.pipe(map(() => this.current())))
       .pipe(
-        startWith(null),
-        map(
-          (): ListQuery => ({
-            q: this.searchText() || undefined,
-            sort: sort.active,
-            dir: sort.direction || 'asc',
-            page: paginator.pageIndex + 1,
-            pageSize: paginator.pageSize,
-          }),
-        ),
         tap(() => this.loading.set(true)),
-        switchMap((query) =>
-          fetch(query).pipe(
+        switchMap((state) =>
+          options.fetch(listQueryOf(state), state.filters).pipe(
+            map((page) => ({ state, page })),
             catchError(() => {
               this.failed.set(true);
               return of(null);
             }),
           ),
         ),
-        takeUntilDestroyed(destroyRef),
+        takeUntilDestroyed(inject(DestroyRef)),
       )
-      .subscribe((page) => {
+      .subscribe((answer) => {
         this.loading.set(false);
-        if (!page) return;
+        if (!answer) return;
+        const { state, page } = answer;
         this.failed.set(false);
         this.rows.set(page.items);
-        this.total.set(page.total);
+        this.total.set(paginatorLength(page));
+        const last = Math.max(1, Math.ceil(page.total / state.pageSize));
+        // A link to a page that no longer exists (rows were removed since) opens the last one.
+        if (page.items.length === 0 && state.page > last) this.show({ page: last }, true);
       });
+  }
+
+  /** New search text: back to the first page. Refining a search replaces its history entry. */
+  search(text: string): void {
+    const q = text.trim();
+    if (q === this.current().q) return;
+    this.show({ q, page: 1 }, this.current().q !== '' && q !== '');
+  }
+
+  sortBy(sort: Sort): void {
+    this.show({ sort: sort.active, dir: sort.direction || this.options.dir, page: 1 });
+  }
+
+  turn(event: PageEvent): void {
+    this.show({ page: event.pageIndex + 1, pageSize: event.pageSize });
+  }
+
+  /** Change some filters: back to the first page. */
+  filter(patch: Partial<F>): void {
+    this.show({ filters: { ...this.current().filters, ...patch }, page: 1 });
   }
 
   /** Fetch the current page again (after an invite, a role change...). */
   reload(): void {
     this.reloads.next();
+  }
+
+  private show(patch: Partial<ListState<F>>, replaceUrl = false): void {
+    const next = { ...this.current(), ...patch };
+    if (sameListState(next, this.current())) return;
+    void this.router.navigate([], { queryParams: listStateParams(this.options, next), queryParamsHandling: 'merge', replaceUrl });
   }
 }

@@ -1,3 +1,5 @@
+import { MatPaginatorIntl } from '@angular/material/paginator';
+import { CappedPaginatorIntl } from '../lists/capped-paginator-intl';
 import { provideHttpClient, withFetch, withInterceptors } from '@angular/common/http';
 import {
   ErrorHandler,
@@ -31,6 +33,7 @@ export function providePortal(config: PortalConfig, routes: Routes, nav: readonl
     { provide: PORTAL, useValue: config },
     { provide: NAV_ITEMS, useValue: nav },
     { provide: ErrorHandler, useClass: PortalErrorHandler },
+    { provide: MatPaginatorIntl, useClass: CappedPaginatorIntl },
     { provide: MAT_FORM_FIELD_DEFAULT_OPTIONS, useValue: { appearance: 'outline', subscriptSizing: 'dynamic' } },
     { provide: MAT_SNACK_BAR_DEFAULT_OPTIONS, useValue: { duration: 5000, horizontalPosition: 'center', verticalPosition: 'bottom' } },
     provideAppInitializer(() => {

@@ -33,8 +33,19 @@ describe('the CPU worker pool', () => {
     await expect(refusal).rejects.toMatchObject({ status: 409, type: 'urn:ohmprint:problem:conflict' });
   });
 
-  it('is sized for the machine: at most two threads unless CPU_WORKERS says otherwise', () => {
+  it('is sized for the machine: one thread fewer than the cores (one to two) unless CPU_WORKERS says otherwise', () => {
     expect(cpuWorkerCount()).toBeGreaterThanOrEqual(1);
     expect(cpuWorkerCount()).toBeLessThanOrEqual(Number(process.env.CPU_WORKERS) || 2);
+  });
+});
+
+describe('a bounded queue', () => {
+  it('refuses at once with 503 and Retry-After when too many tasks already wait, and runs the queued ones', async () => {
+    const hashes = Array.from({ length: 12 }, () => runCpuTask('hashPassword', { password: 'queued', cost: 6 }));
+    const refused = runCpuTask('verifyPassword', { password: 'x', hash: '$2a$04$abcdefghijklmnopqrstuu' }, { queueLimit: 4 });
+    await expect(refused).rejects.toMatchObject({ status: 503, headers: { 'Retry-After': '2' } });
+    expect(await Promise.all(hashes)).toHaveLength(12);
+    // With the queue drained, the same call runs.
+    expect(await runCpuTask('verifyPassword', { password: 'queued', hash: await hashes[0] }, { queueLimit: 4 })).toBe(true);
   });
 });

@@ -5,7 +5,7 @@ import { config } from '../../config';
 import { ApiError } from '../api-error';
 import type * as Tasks from './cpu-tasks';
 
-type TaskName = Exclude<keyof typeof Tasks, 'TaskRefusal' | 'ExportFile' | 'ParsedExport'>;
+type TaskName = Exclude<keyof typeof Tasks, 'TaskRefusal' | 'ExportFile' | 'ParsedExport' | 'SpectrumLiterals' | 'transferredBytes'>;
 type TaskInput<N extends TaskName> = Parameters<(typeof Tasks)[N]>[0];
 type TaskOutput<N extends TaskName> = Awaited<ReturnType<(typeof Tasks)[N]>>;
 
@@ -22,8 +22,13 @@ function workerFile(): string {
   return extname(__filename) === '.ts' ? join(__dirname, 'cpu-tasks-ts.cjs') : join(__dirname, 'cpu-tasks.js');
 }
 
+/**
+ * One thread fewer than the machine has cores (at most two, at least one), so the event loop
+ * always keeps a core to itself: on two cores a flood of sign-ins or uploads fills one worker
+ * while health checks, lists and every other tenant's requests are answered on the other.
+ */
 export function cpuWorkerCount(): number {
-  return config.cpuWorkers ?? Math.max(1, Math.min(2, availableParallelism()));
+  return config.cpuWorkers ?? Math.max(1, Math.min(2, availableParallelism() - 1));
 }
 
 function thePool(): Piscina {
@@ -38,8 +43,15 @@ function thePool(): Piscina {
   return pool;
 }
 
-/** Runs one task in a worker thread; a refusal the task returned becomes the same ApiError here. */
-export async function runCpuTask<N extends TaskName>(name: N, input: TaskInput<N>): Promise<Exclude<TaskOutput<N>, Tasks.TaskRefusal>> {
+/**
+ * Runs one task in a worker thread; a refusal the task returned becomes the same ApiError here.
+ * `queueLimit`: refuse at once (503 with Retry-After) when that many tasks already wait, rather
+ * than queue without bound (sign-ins use it, so a flood cannot build a backlog of hashes).
+ */
+export async function runCpuTask<N extends TaskName>(name: N, input: TaskInput<N>, options: { queueLimit?: number } = {}): Promise<Exclude<TaskOutput<N>, Tasks.TaskRefusal>> {
+  if (options.queueLimit !== undefined && thePool().queueSize >= options.queueLimit) {
+    throw new ApiError(503, 'Busy', 'The server is checking many passwords at the moment; try again in a few seconds.', { type: 'busy', headers: { 'Retry-After': '2' } });
+  }
   const result = (await thePool().run(input, { name })) as TaskOutput<N>;
   if (result && typeof result === 'object' && 'refused' in result) {
     const r = (result as Tasks.TaskRefusal).refused;

@@ -6,13 +6,17 @@
  * hashes passwords starts quickly.
  */
 import bcrypt from 'bcryptjs';
-import type { calibrate, Spectrum } from '@ohmprint/spectral-engine';
+import { move } from 'piscina';
+import type { calibrate, FitResult, ModelReference, Spectrum } from '@ohmprint/spectral-engine';
 import type { KramersKronigSummary } from '@ohmprint/contracts';
 import type { ComputedAnalysis } from '../../modules/analyses/compute-analysis';
 import type { OtherLibrary } from '../../modules/analyses/does-not-belong';
-import type { PublishedLibrary } from '../../modules/libraries/published-library';
+import type { PackedLibrary } from '../../modules/libraries/library-packing';
 import type { Replicate } from '../../modules/measurements/replicate.entity';
+import type { LabelPackData } from '../../modules/orders/label-pack-data';
 import type { ReportData } from '../../modules/reports/pdf/report-data';
+import type { CredentialDetails } from '../../modules/reports/signing/credential-details';
+import type { ValidationSummaryData } from '../../modules/validation/validation-pdf';
 import type { SignatureFields } from '../../modules/reports/signing/sign-pdf';
 import { ApiError } from '../api-error';
 
@@ -47,8 +51,20 @@ export interface ExportFile {
 }
 
 export type ParsedExport =
-  | { name: string; ok: true; spectrum: Spectrum; kramersKronig: KramersKronigSummary }
+  | { name: string; ok: true; spectrum: Spectrum; kramersKronig: KramersKronigSummary; literals: SpectrumLiterals }
   | { name: string; ok: false; line: number | null; column: number | null; message: string };
+
+/**
+ * The spectrum's three columns as PostgreSQL array literals, written here so the event loop does
+ * not turn 100,000 numbers into text while it stores an upload. `String(number)` is the shortest
+ * text that reads back as the same double, as the driver would write it.
+ */
+export interface SpectrumLiterals {
+  frequencyHz: string;
+  re: string;
+  im: string;
+}
+const arrayLiteral = (values: Float64Array): string => `{${Array.prototype.join.call(values, ',')}}`;
 
 /** Reads each instrument export and runs its Kramers–Kronig check; a bad file does not stop the others. */
 export async function parseExports(input: { files: ExportFile[]; maxPoints: number; kkLimitPercent: number }): Promise<ParsedExport[]> {
@@ -58,7 +74,8 @@ export async function parseExports(input: { files: ExportFile[]; maxPoints: numb
   return input.files.map((file): ParsedExport => {
     try {
       const spectrum = parseSpectrumFile(decoder.decode(file.bytes), { maxPoints: input.maxPoints });
-      return { name: file.name, ok: true, spectrum, kramersKronig: kramersKronigCheck(spectrum, input.kkLimitPercent) };
+      const literals = { frequencyHz: arrayLiteral(spectrum.frequencyHz), re: arrayLiteral(spectrum.re), im: arrayLiteral(spectrum.im) };
+      return { name: file.name, ok: true, spectrum, kramersKronig: kramersKronigCheck(spectrum, input.kkLimitPercent), literals };
     } catch (err) {
       if (!(err instanceof SpectrumImportError)) throw err;
       return { name: file.name, ok: false, line: err.line ?? null, column: err.column ?? null, message: err.message };
@@ -66,10 +83,16 @@ export async function parseExports(input: { files: ExportFile[]; maxPoints: numb
   });
 }
 
-export async function analyse(input: { replicates: Replicate[]; library: PublishedLibrary; others?: OtherLibrary[] }): Promise<ComputedAnalysis | TaskRefusal> {
+export async function analyse(input: { replicates: Replicate[]; library: PackedLibrary; others?: (Omit<OtherLibrary, 'library'> & { library: PackedLibrary })[] }): Promise<ComputedAnalysis | TaskRefusal> {
   const { computeAnalysis } = load<typeof import('../../modules/analyses/compute-analysis')>('../../modules/analyses/compute-analysis');
+  const { unpackLibrary } = load<typeof import('../../modules/libraries/library-packing')>('../../modules/libraries/library-packing');
   try {
-    return computeAnalysis(input.replicates, input.library, input.others ?? []);
+    const { encodeRanked } = load<typeof import('../../modules/analyses/lot-distances')>('../../modules/analyses/lot-distances');
+    const others = (input.others ?? []).map((o) => ({ ...o, library: unpackLibrary(o.library) }));
+    const computed = computeAnalysis(input.replicates, unpackLibrary(input.library), others);
+    // Every lot's distance packed for storage here too, so the request thread only hands the bytes on.
+    const ranked = encodeRanked(computed.ranking, computed.lotDistances);
+    return { ...computed, rankedBytes: new Uint8Array(ranked.buffer, ranked.byteOffset, ranked.byteLength) };
   } catch (err) {
     return refusalOf(err);
   }
@@ -93,4 +116,72 @@ export async function selfSignedCredential(input: { labName: string; passphrase:
   const { createSelfSignedCredential } = load<typeof import('../../modules/reports/signing/self-signed-credential')>('../../modules/reports/signing/self-signed-credential');
   const p12 = createSelfSignedCredential(input);
   return new Uint8Array(p12.buffer, p12.byteOffset, p12.byteLength);
+}
+
+/**
+ * Bytes made in a worker, handed back by transfer rather than by copy. A Buffer that shares
+ * Node's small-allocation pool is copied first, since transferring would detach the whole pool.
+ */
+export function transferredBytes(bytes: Buffer | Uint8Array): Uint8Array {
+  const own = bytes.byteOffset === 0 && bytes.byteLength === bytes.buffer.byteLength ? bytes : Uint8Array.prototype.slice.call(bytes);
+  return move(new Uint8Array(own.buffer, 0, own.byteLength)) as unknown as Uint8Array;
+}
+const pdfBytes = transferredBytes;
+
+/** The order's printable label pack (shipping sheet, labels with vector QR codes, custody form). */
+export async function labelPack(input: { data: LabelPackData }): Promise<Uint8Array> {
+  const { renderLabelPack } = load<typeof import('../../modules/orders/label-pack')>('../../modules/orders/label-pack');
+  return pdfBytes(await renderLabelPack(input.data));
+}
+
+/** The lab's method-validation summary PDF. */
+export async function validationSummary(input: { data: ValidationSummaryData }): Promise<Uint8Array> {
+  const { renderValidationSummary } = load<typeof import('../../modules/validation/validation-pdf')>('../../modules/validation/validation-pdf');
+  return pdfBytes(await renderValidationSummary(input.data));
+}
+
+/** Each lot's spectrum fitted under the method's model (one restart, as the correlation study caches them). */
+export async function fitLots(input: { spectra: Spectrum[]; model: ModelReference }): Promise<{ parameters: Record<string, number> | null; reason: string | null }[]> {
+  const { fitModel } = load<typeof import('./engine-entry')>('./engine-entry');
+  return input.spectra.map((s) => {
+    const fit = fitModel(s, input.model, { restarts: 1 });
+    return fit.converged ? { parameters: fit.parameters, reason: null } : { parameters: null, reason: fit.reason };
+  });
+}
+
+/** The method preview's fit of one prepared spectrum, with the fitted curve on its frequencies. */
+export async function previewFit(input: { spectrum: Spectrum; model: ModelReference; restarts: number }): Promise<{ fit: FitResult; fitted: { re: Float64Array; im: Float64Array } | null }> {
+  const { fitModel, impedance } = load<typeof import('./engine-entry')>('./engine-entry');
+  const fit = fitModel(input.spectrum, input.model, { restarts: input.restarts });
+  return { fit, fitted: fit.converged ? impedance(input.model, fit.parameters, input.spectrum.frequencyHz) : null };
+}
+
+/**
+ * Opens a PKCS#12 file (its key derivation can take seconds by design) and describes it; a file
+ * that cannot be used comes back as `{ credentialError }` with the reason for the uploader.
+ */
+export async function openCredential(input: { p12: Uint8Array; passphrase: string; now: Date }): Promise<CredentialDetails | { credentialError: string }> {
+  const { readCredential, CredentialError } = load<typeof import('../../modules/reports/signing/credential-details')>('../../modules/reports/signing/credential-details');
+  try {
+    return readCredential(Buffer.from(input.p12.buffer, input.p12.byteOffset, input.p12.byteLength), input.passphrase, input.now);
+  } catch (err) {
+    if (err instanceof CredentialError) return { credentialError: err.message };
+    throw err;
+  }
+}
+
+/** For every spectrum, the nearest other one (index and distance) through a packed search index; null when alone. */
+export async function nearestOthers(input: { spectra: Spectrum[] }): Promise<({ index: number; distance: number } | null)[]> {
+  const { createSpectrumIndex } = load<typeof import('./engine-entry')>('./engine-entry');
+  const index = createSpectrumIndex(input.spectra);
+  return input.spectra.map((s, i) => {
+    const hit = index.nearest(s, 2).find((h) => h.index !== i);
+    return hit ? { index: hit.index, distance: hit.distance } : null;
+  });
+}
+
+/** The repeatability study's distances: replicates within each sample, and between the version's lots. */
+export async function repeatabilityDistances(input: Parameters<typeof import('../../modules/validation/repeatability').repeatabilityDistances>[0]): Promise<ReturnType<typeof import('../../modules/validation/repeatability').repeatabilityDistances>> {
+  const { repeatabilityDistances: distances } = load<typeof import('../../modules/validation/repeatability')>('../../modules/validation/repeatability');
+  return distances(input);
 }

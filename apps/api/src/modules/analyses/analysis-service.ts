@@ -14,6 +14,7 @@ import { compareAnalyses } from './compare-analyses';
 import { analyseOffThread } from './analyse-off-thread';
 import { otherPublishedLibraries } from './does-not-belong';
 import { requireRevokedIfReported } from './revoked-report';
+import { storedLotDistances, storeLotDistances } from './lot-distances';
 
 /** Runs a new analysis of the sample's included replicates; an earlier draft is superseded. */
 export async function runAnalysis(manager: EntityManager, auth: AuthContext, labId: string, sampleId: string, libraryVersionId: string): Promise<string> {
@@ -52,6 +53,7 @@ export async function runAnalysis(manager: EntityManager, auth: AuthContext, lab
     createdAt: new Date(),
   });
   const id = inserted.identifiers[0].id as string;
+  await storeLotDistances(manager, labId, id, computed.ranking, computed.lotDistances, computed.rankedBytes);
   const wasReported = sample.state === 'reported';
   await moveSample(manager, sample, 'analysed');
   if (wasReported) await refreshOrderStatus(manager, labId, sample.orderId);
@@ -99,7 +101,11 @@ export async function reproduceAnalysis(manager: EntityManager, labId: string, a
   );
   const others = await otherPublishedLibraries(manager, labId, library.productId, order.client_organisation_id);
   const recomputed = await analyseOffThread(replicates, library, others);
-  const { differences, maxAbsoluteDifference } = compareAnalyses(a.result, recomputed.result);
+  const stored = await storedLotDistances(manager, labId, a.id);
+  const all = Array.from(recomputed.lotDistances, (distance, i) => ({ lotId: library.lots[i].id, lotCode: library.lots[i].lotCode, distance }));
+  // An analysis from before results were slimmed kept every lot's distance in its result, in lot order.
+  const againstResult = a.result.lotCount === undefined ? { ...recomputed.result, distances: all } : recomputed.result;
+  const { differences, maxAbsoluteDifference } = compareAnalyses(a.result, againstResult, stored && { stored, recomputed: recomputed.lotDistances });
   return {
     reproduced: differences.length === 0,
     storedEngineVersion: a.engineVersion,

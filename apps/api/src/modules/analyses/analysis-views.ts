@@ -1,8 +1,19 @@
 import type { EntityManager } from 'typeorm';
-import { sameLotCode, type Analysis as AnalysisView, type AnalysisListItem, type AnalysisListQuery, type Page } from '@ohmprint/contracts';
+import { NEAREST_LOTS, sameLotCode, type Analysis as AnalysisView, type AnalysisListItem, type AnalysisListQuery, type Page } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
-import { escapeLike, pageParams, toPage } from '../../core/paging';
+import { cappedCount, escapeLike, sparseSearchIds, pageParams, toCappedPage } from '../../core/paging';
+import { referenceBandOf } from '../libraries/reference-band';
 import { revokedReportOf } from './revoked-report';
+
+/**
+ * The result as a reader gets it: an analysis from before results were slimmed kept every lot's
+ * distance, so only its nearest are returned (the rest page through the lot-distances route).
+ */
+function slimResult(result: AnalysisView['result']): AnalysisView['result'] {
+  if (result.lotCount !== undefined) return result;
+  const nearest = [...result.distances].sort((a, b) => a.distance - b.distance || a.lotCode.localeCompare(b.lotCode)).slice(0, NEAREST_LOTS);
+  return { ...result, distances: nearest, lotCount: result.distances.length };
+}
 
 const iso = (d: Date | null) => d?.toISOString() ?? null;
 
@@ -35,6 +46,8 @@ export async function analysisView(manager: EntityManager, labId: string, analys
     [labId, a.result.replicateIds],
   );
   const follows = await revokedReportOf(manager, labId, a.sample_id);
+  const referenceBand = await referenceBandOf(manager, labId, a.version_id);
+  // The nearest lot and the mapped ones: the same lots as the result's nearest distances.
   const producerLotCodes = await producerLotCodesOf(manager, labId, [
     ...(a.result.nearest ? [a.result.nearest.lotId] : []),
     ...a.result.map.lots.map((l) => l.lotId),
@@ -44,7 +57,7 @@ export async function analysisView(manager: EntityManager, labId: string, analys
     sample: { id: a.sample_id, code: a.sample_code },
     libraryVersion: { id: a.version_id, version: a.version, productName: a.product_name, retired: a.version_status === 'retired' },
     status: a.status,
-    result: a.result,
+    result: slimResult(a.result),
     method: a.method,
     sampleSpectrum: a.sample_spectrum,
     engineVersion: a.engine_version,
@@ -57,6 +70,7 @@ export async function analysisView(manager: EntityManager, labId: string, analys
     measurementTemperatures: temperatures.map((t) => ({ replicateNumber: t.replicate_number, fileName: t.file_name, temperatureC: t.temperature_c, source: t.temperature_source })),
     // only an analysis run after the revocation is the new one; the revoked report's own analysis is not
     followsRevokedReport: follows && a.created_at.toISOString() > follows.revokedAt ? follows.number : null,
+    referenceBand,
     reviews: reviews.map((r) => ({ id: r.id, decision: r.decision, comments: r.comments, reviewer: { id: r.reviewer_id, displayName: r.reviewer_name }, decidedAt: r.decided_at.toISOString() })),
   };
 }
@@ -95,25 +109,42 @@ export async function listAnalyses(manager: EntityManager, labId: string, query:
     where.push(`a.sample_id = $${params.length}`);
   }
   if (query.q) {
+    // each alternative on its own table's index (trigram for the code), not one OR across a join
     params.push(escapeLike(query.q));
-    where.push(`(s.code ILIKE $${params.length} OR p.name ILIKE $${params.length} OR u.display_name ILIKE $${params.length})`);
+    const p = `$${params.length}`;
+    const products = `SELECT p2.id FROM product p2 WHERE p2.lab_id = $1 AND p2.name ILIKE ${p}`;
+    const analysts = `SELECT u2.id FROM app_user u2 WHERE u2.lab_id = $1 AND u2.display_name ILIKE ${p}`;
+    const arms = `SELECT x.id FROM analysis x JOIN sample s2 ON s2.id = x.sample_id WHERE x.lab_id = $1 AND s2.lab_id = $1 AND s2.code ILIKE ${p}
+      UNION ALL SELECT x.id FROM analysis x JOIN sample s2 ON s2.id = x.sample_id JOIN test_order o2 ON o2.id = s2.order_id
+                WHERE x.lab_id = $1 AND o2.lab_id = $1 AND o2.product_id IN (${products})
+      UNION ALL SELECT x.id FROM analysis x WHERE x.lab_id = $1 AND x.analyst_user_id IN (${analysts})`;
+    const ids = await sparseSearchIds(manager, arms, params);
+    if (ids) params[params.length - 1] = ids;
+    where.push(ids
+      ? `a.id = ANY(${p}::uuid[])`
+      : `(a.analyst_user_id IN (${analysts}) OR EXISTS (SELECT 1 FROM sample s2 JOIN test_order o2 ON o2.id = s2.order_id
+           WHERE s2.id = a.sample_id AND (s2.code ILIKE ${p} OR o2.product_id IN (${products}))))`);
   }
   const { skip, take } = pageParams(query);
-  params.push(take, skip);
-  const rows: { id: string; sample_id: string; sample_code: string; product_name: string; status: AnalysisListItem['status']; verdict: AnalysisListItem['verdict']; analyst_id: string; analyst_name: string; created_at: Date; submitted_at: Date | null; total: string }[] =
-    await manager.query(
+  // the sample's code orders through a join; the other sorts walk an index of analysis alone
+  const bySample = query.sort === 'sample';
+  // the tie-breaker runs the same way as the sort, so an index of (lab, column, id) serves either
+  // direction; only the submission time can be empty, and empty ones come last
+  const dir = query.dir === 'asc' ? 'ASC' : 'DESC';
+  const order = `${SORT[query.sort]} ${dir}${query.sort === 'submittedAt' ? ' NULLS LAST' : ''}, a.id ${dir}`;
+  const [rows, counted]: [{ id: string; sample_id: string; sample_code: string; product_name: string; status: AnalysisListItem['status']; verdict: AnalysisListItem['verdict']; analyst_id: string; analyst_name: string; created_at: Date; submitted_at: Date | null }[], number] =
+    await Promise.all([manager.query(
       `SELECT a.id, s.id AS sample_id, s.code AS sample_code, p.name AS product_name, a.status, a.verdict,
-              u.id AS analyst_id, u.display_name AS analyst_name, a.created_at, a.submitted_at, count(*) OVER () AS total
-       FROM analysis a
+              u.id AS analyst_id, u.display_name AS analyst_name, a.created_at, a.submitted_at
+       FROM (SELECT a.* FROM analysis a JOIN (SELECT a.id FROM analysis a ${bySample ? 'JOIN sample s ON s.id = a.sample_id' : ''} WHERE ${where.join(' AND ')}
+             ORDER BY ${order} LIMIT $${params.length + 1} OFFSET $${params.length + 2}) page USING (id)) a
        JOIN sample s ON s.id = a.sample_id
        JOIN test_order o ON o.id = s.order_id JOIN product p ON p.id = o.product_id
        JOIN app_user u ON u.id = a.analyst_user_id
-       WHERE ${where.join(' AND ')}
-       ORDER BY ${SORT[query.sort]} ${query.dir === 'asc' ? 'ASC' : 'DESC'} NULLS LAST, a.id
-       LIMIT $${params.length - 1} OFFSET $${params.length}`,
-      params,
-    );
-  return toPage(
+       ORDER BY ${order}`,
+      [...params, take, skip],
+    ), cappedCount(manager, `FROM analysis a WHERE ${where.join(' AND ')}`, params)]);
+  return toCappedPage(
     rows.map((r) => ({
       id: r.id,
       sampleId: r.sample_id,
@@ -125,7 +156,7 @@ export async function listAnalyses(manager: EntityManager, labId: string, query:
       createdAt: r.created_at.toISOString(),
       submittedAt: iso(r.submitted_at),
     })),
-    rows.length ? Number(rows[0].total) : 0,
+    counted,
     query,
   );
 }

@@ -13,7 +13,11 @@ interface Difference {
 }
 
 /** Compares the numbers behind two results field by field. */
-export function compareAnalyses(stored: AnalysisResult, recomputed: AnalysisResult): { differences: Difference[]; maxAbsoluteDifference: number } {
+export function compareAnalyses(
+  stored: AnalysisResult,
+  recomputed: AnalysisResult,
+  everyLot: { stored: ArrayLike<number>; recomputed: ArrayLike<number> } | null = null,
+): { differences: Difference[]; maxAbsoluteDifference: number } {
   const differences: Difference[] = [];
   let maxAbsoluteDifference = 0;
   const number = (field: string, a: number | null, b: number | null) => {
@@ -35,6 +39,14 @@ export function compareAnalyses(stored: AnalysisResult, recomputed: AnalysisResu
     differences.push({ field: 'distances.length', stored: stored.distances.length, recomputed: recomputed.distances.length });
   } else {
     stored.distances.forEach((d, i) => number(`distances[${i}]`, d.distance, recomputed.distances[i].distance));
+  }
+  if (everyLot) {
+    // Every lot's distance, stored apart from the result, in the version's lot order.
+    if (everyLot.stored.length !== everyLot.recomputed.length) {
+      differences.push({ field: 'lotDistances.length', stored: everyLot.stored.length, recomputed: everyLot.recomputed.length });
+    } else {
+      for (let i = 0; i < everyLot.stored.length; i++) number(`lotDistances[${i}]`, everyLot.stored[i], everyLot.recomputed[i]);
+    }
   }
   number('map.sample.x', stored.map.sample[0], recomputed.map.sample[0]);
   number('map.sample.y', stored.map.sample[1], recomputed.map.sample[1]);

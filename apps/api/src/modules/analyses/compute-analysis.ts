@@ -1,5 +1,5 @@
 import { averageReplicates, fitModel, impedance, judge, MODEL_CATALOG, replicateAgreement, sampleMap, type Calibration, type FitSuccess, type Spectrum } from '@ohmprint/spectral-engine';
-import type { AnalysisResult, FittedParameter, QualityFlag, SpectrumPoints, ThresholdStatement } from '@ohmprint/contracts';
+import { NEAREST_LOTS, type AnalysisResult, type FittedParameter, type QualityFlag, type SpectrumPoints, type ThresholdStatement } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
 import type { PublishedLibrary } from '../libraries/published-library';
 import { prepareReplicates } from '../measurements/prepared-replicates';
@@ -12,7 +12,7 @@ import { closestOtherLibrary, resemblanceFlag, type OtherLibrary } from './does-
  * exact eigen-decomposition quick (15–35 ms against 200–700 ms for 150 points, measured on the
  * two-core development machine), whatever the size of the library.
  */
-export const MAP_LOTS = 59;
+export const MAP_LOTS = NEAREST_LOTS;
 
 /**
  * One extra start beyond the engine's guess: the guess from the spectrum's shape already lands
@@ -23,6 +23,19 @@ const FIT_RESTARTS = 1;
 export interface ComputedAnalysis {
   result: AnalysisResult;
   sampleSpectrum: SpectrumPoints;
+  /** Every lot's distance, in the library's lot order; stored apart from the result and paged on demand. */
+  lotDistances: Float64Array;
+  /** Lot indices nearest first (see `rankLots`). */
+  ranking: Uint32Array;
+  /** `encodeRanked(ranking, lotDistances)`, when the worker thread packed it already. */
+  rankedBytes?: Uint8Array;
+}
+
+/** Lot indices nearest first, ties by lot order (lot code, then id). */
+export function rankLots(distances: ArrayLike<number>): Uint32Array {
+  const order = new Uint32Array(distances.length);
+  for (let i = 0; i < order.length; i++) order[i] = i;
+  return order.sort((a, b) => distances[a] - distances[b] || a - b);
 }
 
 const points = (s: Spectrum): SpectrumPoints => ({ frequencyHz: Array.from(s.frequencyHz), re: Array.from(s.re), im: Array.from(s.im) });
@@ -94,8 +107,9 @@ export function computeAnalysis(replicates: readonly Replicate[], library: Publi
   if (judgement.reason) flags.push({ code: 'too-few-lots', severity: 'warning', message: `No verdict: ${judgement.reason}.` });
   const lotDistance = (i: number) => ({ lotId: library.lots[i].id, lotCode: library.lots[i].lotCode, distance: judgement.distances[i] });
 
-  const byDistance = judgement.distances.map((d, i) => [d, i] as const).sort((a, b) => a[0] - b[0] || a[1] - b[1]);
-  const mapIndices = byDistance.slice(0, MAP_LOTS).map(([, i]) => i);
+  const ranking = rankLots(judgement.distances);
+  const nearestLots = Array.from(ranking.subarray(0, NEAREST_LOTS));
+  const mapIndices = nearestLots.slice(0, MAP_LOTS);
   let map: AnalysisResult['map'] = { sample: [0, 0], lots: [] };
   if (mapIndices.length >= 2) {
     const m = sampleMap(mapIndices.map((i) => library.spectra[i]), sample);
@@ -122,9 +136,10 @@ export function computeAnalysis(replicates: readonly Replicate[], library: Publi
       t95: library.calibration.lowerThreshold,
       t99: library.calibration.upperThreshold,
       typicality: judgement.typicality,
-      distances: judgement.distances.map((_, i) => lotDistance(i)),
+      distances: nearestLots.map(lotDistance),
+      lotCount: library.lots.length,
       map,
-      histogram: distanceHistogram(library.calibration.nearestDistances, nearest?.distance ?? null),
+      histogram: distanceHistogram(library.calibration.nearestDistances, nearest?.distance ?? null, library.calibration.lowerThreshold, library.calibration.upperThreshold),
       // A fit that did not converge offers no numbers at all; the quality flag says why.
       fit: fit.converged
         ? {
@@ -141,5 +156,7 @@ export function computeAnalysis(replicates: readonly Replicate[], library: Publi
       thresholds: thresholdStatement(library.calibration),
     },
     sampleSpectrum: points(sample),
+    lotDistances: Float64Array.from(judgement.distances),
+    ranking,
   };
 }

@@ -69,16 +69,24 @@ export interface Resemblance {
 }
 
 /**
- * A packed index per published version, built once and dropped with the version itself: the
- * library cache hands out one object per version, so a WeakMap follows its evictions.
+ * A packed index per published version, built once per thread and kept for the next analyses.
+ * This runs in the CPU pool's worker threads, where every task receives a fresh copy of the
+ * library, so the index is keyed by the (frozen) version rather than by the object: building it
+ * takes seconds for a 100,000-lot library and must not be repeated for every sample. Bounded so a
+ * thread keeps only the few versions in use.
  */
-const indexes = new WeakMap<PublishedLibrary, SpectrumIndex>();
+const indexes = new Map<string, { lots: number; index: SpectrumIndex }>();
+const INDEXES_KEPT = 4;
 function indexOf(library: PublishedLibrary): SpectrumIndex {
-  let index = indexes.get(library);
-  if (!index) {
-    index = createSpectrumIndex(library.spectra);
-    indexes.set(library, index);
+  const kept = indexes.get(library.versionId);
+  if (kept && kept.lots === library.spectra.length) {
+    indexes.delete(library.versionId);
+    indexes.set(library.versionId, kept);
+    return kept.index;
   }
+  const index = createSpectrumIndex(library.spectra);
+  if (indexes.size >= INDEXES_KEPT) indexes.delete(indexes.keys().next().value as string);
+  indexes.set(library.versionId, { lots: library.spectra.length, index });
   return index;
 }
 

@@ -5,7 +5,7 @@ import { join } from 'node:path';
 import request from 'supertest';
 import { seedLabDemo } from '../../../../../docker-free-scripts/seed/lab-demo';
 import { demoFiles } from '../../../../../docker-free-scripts/seed/lab-demo-files';
-import { analyseDemoSample, useTestApp } from '../../testing';
+import { analyseDemoSample, approveAndIssue, useTestApp } from '../../testing';
 
 // Seeding, and issuing the first report (which creates the lab's signing credential), take seconds.
 jest.setTimeout(90_000);
@@ -28,9 +28,7 @@ async function pdfText(reportId: string): Promise<string> {
 async function submitAndApprove(analysisId: string): Promise<{ id: string; number: string }> {
   const analyst = await t.authFor('analyst');
   expect((await request(t.app).post(`/api/lab/analyses/${analysisId}/submit`).set(analyst)).status).toBe(200);
-  const approved = await request(t.app).post(`/api/lab/analyses/${analysisId}/approve`).set(await t.authFor('reviewer')).send({ comments: 'Agreed.' });
-  expect(approved.status).toBe(200);
-  return approved.body.report;
+  return approveAndIssue(t, analysisId);
 }
 
 describe('a sample that does not belong to its library', () => {

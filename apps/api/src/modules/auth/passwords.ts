@@ -7,8 +7,14 @@ export function hashPassword(password: string): Promise<string> {
   return runCpuTask('hashPassword', { password, cost: config.auth.bcryptCost });
 }
 
+/**
+ * Password checks waiting for a worker beyond which a sign-in is refused at once (503, Retry-After)
+ * instead of queueing: a flood then costs the pool a bounded backlog, never minutes of hashing.
+ */
+export const PASSWORD_QUEUE_LIMIT = 64;
+
 export function verifyPassword(password: string, hash: string): Promise<boolean> {
-  return runCpuTask('verifyPassword', { password, hash });
+  return runCpuTask('verifyPassword', { password, hash }, { queueLimit: PASSWORD_QUEUE_LIMIT });
 }
 
 /** Compared against when the e-mail is unknown, so a miss costs as long as a wrong password. */

@@ -1,5 +1,5 @@
 import type { NextFunction, Request, Response } from 'express';
-import type { Role } from '@ohmprint/contracts';
+import { ROLE_LABELS, type Role } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
 import { dataSource } from '../../db/data-source';
 import { verifyAccessToken } from './access-token';
@@ -33,7 +33,7 @@ export function requireRole(...roles: Role[]) {
   return async (req: Request, res: Response, next: NextFunction): Promise<void> => {
     if (!res.locals.auth) await authenticate(req, res);
     if (!res.locals.auth.roles.some((r) => roles.includes(r))) {
-      throw ApiError.forbidden(`This needs one of these roles: ${roles.join(', ')}.`);
+      throw ApiError.forbidden(`Only these roles may do this: ${roles.map((r) => ROLE_LABELS[r].toLowerCase()).join(', ')}.`);
     }
     next();
   };

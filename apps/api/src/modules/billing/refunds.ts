@@ -1,5 +1,5 @@
 import type { EntityManager } from 'typeorm';
-import type { Payment } from '@ohmprint/contracts';
+import { PAYMENT_STATE_WORDS, type Payment, type PaymentState } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
 import { recordAudit } from '../audit/record-audit';
 import { creditBalance, removeCredits } from '../credits/credit-ledger';
@@ -18,7 +18,7 @@ export async function refundPayment(manager: EntityManager, labId: string, actor
   if (!payment) throw ApiError.notFound('Payment');
   if (payment.status === 'refunded') throw new ApiError(409, 'Already refunded', 'This payment was refunded already.', { type: 'already-refunded' });
   if (payment.status !== 'paid') {
-    throw new ApiError(409, 'Nothing to refund', `This payment is “${payment.status}”: no money was taken, so there is nothing to refund.`, { type: 'not-paid' });
+    throw new ApiError(409, 'Nothing to refund', `This payment was not completed (${PAYMENT_STATE_WORDS[payment.status as PaymentState].toLowerCase()}), so no money was taken and there is nothing to refund.`, { type: 'not-paid' });
   }
   if (payment.isDemo || !payment.paymentIntentId) {
     throw new ApiError(409, 'Not refundable here', 'This payment has no record at the payment service (invented demo data); adjust the credits instead.', { type: 'not-at-payment-service' });

@@ -1,7 +1,7 @@
 import type { EntityManager } from 'typeorm';
 import type { CheckoutStatus, CreditAccountListQuery, CreditAccountView, LedgerEntry, LedgerListQuery, Page, Payment, PaymentListQuery } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
-import { escapeLike, pageParams, toPage } from '../../core/paging';
+import { cappedCount, escapeLike, sparseSearchIds, pageParams, toCappedPage } from '../../core/paging';
 import { creditBalance, type CreditScope } from '../credits/credit-ledger';
 import { receiptNumber } from './receipt-email';
 
@@ -9,13 +9,12 @@ interface PaymentRowView {
   id: string; receipt_no: string; client_id: string; client_name: string; pack_name: string; credits: number; amount_minor: string; currency: string;
   status: Payment['status']; failure_message: string | null; started_by_id: string | null; started_by_name: string | null; created_at: Date;
   paid_at: Date | null; refunded_at: Date | null; refunded_by_id: string | null; refunded_by_name: string | null; checkout_session_id: string; is_demo: boolean;
-  total: string;
 }
 
 const PAYMENT_SQL = `
   SELECT p.id, p.receipt_no, co.id AS client_id, co.name AS client_name, p.pack_name, p.credits, p.amount_minor, p.currency, p.status,
          p.failure_message, su.id AS started_by_id, su.display_name AS started_by_name, p.created_at, p.paid_at, p.refunded_at,
-         ru.id AS refunded_by_id, ru.display_name AS refunded_by_name, p.checkout_session_id, p.is_demo, count(*) OVER () AS total
+         ru.id AS refunded_by_id, ru.display_name AS refunded_by_name, p.checkout_session_id, p.is_demo
   FROM payment p
   JOIN client_organisation co ON co.id = p.client_organisation_id AND co.lab_id = p.lab_id
   LEFT JOIN app_user su ON su.id = p.started_by_user_id
@@ -49,17 +48,20 @@ export async function payments(manager: EntityManager, labId: string, clientOrga
   if (query.q) {
     params.push(escapeLike(query.q));
     const p = `$${params.length}`;
-    where.push(`(co.name ILIKE ${p} OR p.pack_name ILIKE ${p} OR p.checkout_session_id ILIKE ${p} OR 'R-' || lpad(p.receipt_no::text, 6, '0') ILIKE ${p})`);
+    where.push(`(p.client_organisation_id IN (SELECT c2.id FROM client_organisation c2 WHERE c2.lab_id = $1 AND c2.name ILIKE ${p})
+                 OR p.pack_name ILIKE ${p} OR p.checkout_session_id ILIKE ${p} OR 'R-' || lpad(p.receipt_no::text, 6, '0') ILIKE ${p})`);
   }
   const { skip, take } = pageParams(query);
-  params.push(take, skip);
-  const rows: PaymentRowView[] = await manager.query(
-    `${PAYMENT_SQL} WHERE ${where.join(' AND ')}
-     ORDER BY ${PAYMENT_SORT[query.sort]} ${query.dir === 'asc' ? 'ASC' : 'DESC'}, p.receipt_no ${query.dir === 'asc' ? 'ASC' : 'DESC'}
-     LIMIT $${params.length - 1} OFFSET $${params.length}`,
-    params,
-  );
-  return toPage(rows.map(paymentView), rows.length ? Number(rows[0].total) : 0, query);
+  const order = `${PAYMENT_SORT[query.sort]} ${query.dir === 'asc' ? 'ASC' : 'DESC'}, p.receipt_no ${query.dir === 'asc' ? 'ASC' : 'DESC'}`;
+  const [rows, counted] = await Promise.all([
+    manager.query(
+      `${PAYMENT_SQL.replace('FROM payment p', `FROM (SELECT p.* FROM payment p JOIN (SELECT p.id FROM payment p WHERE ${where.join(' AND ')} ORDER BY ${order} LIMIT $${params.length + 1} OFFSET $${params.length + 2}) page USING (id)) p`)}
+       ORDER BY ${order}`,
+      [...params, take, skip],
+    ) as Promise<PaymentRowView[]>,
+    cappedCount(manager, `FROM payment p WHERE ${where.join(' AND ')}`, params),
+  ]);
+  return toCappedPage(rows.map(paymentView), counted, query);
 }
 
 export async function labPayment(manager: EntityManager, labId: string, id: string): Promise<Payment> {
@@ -81,7 +83,7 @@ export async function checkoutStatus(manager: EntityManager, scope: CreditScope,
 interface LedgerRow {
   id: string; entry_no: string; kind: LedgerEntry['kind']; available_change: number; reserved_change: number; available_after: number; reserved_after: number;
   reason: string; order_id: string | null; sample_id: string | null; sample_code: string | null; payment_id: string | null; receipt_no: string | null;
-  actor_id: string | null; actor_name: string | null; created_at: Date; total: string;
+  actor_id: string | null; actor_name: string | null; created_at: Date;
 }
 
 function reference(r: LedgerRow): LedgerEntry['reference'] {
@@ -104,28 +106,38 @@ export async function ledger(manager: EntityManager, scope: CreditScope, query: 
   if (query.q) {
     params.push(escapeLike(query.q));
     const p = `$${params.length}`;
-    where.push(`(e.reason ILIKE ${p} OR s.code ILIKE ${p} OR u.display_name ILIKE ${p})`);
+    const samples = `SELECT s2.id FROM sample s2 WHERE s2.lab_id = $1 AND s2.code ILIKE ${p}`;
+    const actors = `SELECT u2.id FROM app_user u2 WHERE u2.lab_id = $1 AND u2.display_name ILIKE ${p}`;
+    const arms = `SELECT x.id FROM credit_ledger_entry x WHERE x.lab_id = $1 AND x.client_organisation_id = $2 AND x.reason ILIKE ${p}
+      UNION ALL SELECT x.id FROM credit_ledger_entry x WHERE x.lab_id = $1 AND x.client_organisation_id = $2 AND x.sample_id IN (${samples})
+      UNION ALL SELECT x.id FROM credit_ledger_entry x WHERE x.lab_id = $1 AND x.client_organisation_id = $2 AND x.actor_user_id IN (${actors})`;
+    const ids = await sparseSearchIds(manager, arms, params);
+    if (ids) params[params.length - 1] = ids;
+    where.push(ids
+      ? `e.id = ANY(${p}::uuid[])`
+      : `(e.reason ILIKE ${p} OR e.actor_user_id IN (${actors}) OR EXISTS (SELECT 1 FROM sample s2 WHERE s2.id = e.sample_id AND s2.code ILIKE ${p}))`);
   }
   const { skip, take } = pageParams(query);
-  params.push(take, skip);
-  const rows: LedgerRow[] = await manager.query(
-    `SELECT e.id, e.entry_no, e.kind, e.available_change, e.reserved_change, e.available_after, e.reserved_after, e.reason,
-            e.order_id, e.sample_id, s.code AS sample_code, e.payment_id, p.receipt_no, u.id AS actor_id, u.display_name AS actor_name,
-            e.created_at, count(*) OVER () AS total
-     FROM credit_ledger_entry e
-     LEFT JOIN sample s ON s.id = e.sample_id AND s.lab_id = e.lab_id
-     LEFT JOIN payment p ON p.id = e.payment_id AND p.lab_id = e.lab_id
-     LEFT JOIN app_user u ON u.id = e.actor_user_id
-     WHERE ${where.join(' AND ')}
-     ORDER BY ${LEDGER_SORT[query.sort]} ${query.dir === 'asc' ? 'ASC' : 'DESC'}, e.entry_no ${query.dir === 'asc' ? 'ASC' : 'DESC'}
-     LIMIT $${params.length - 1} OFFSET $${params.length}`,
-    params,
-  );
-  return toPage(rows.map((r) => ({
+  const order = `${LEDGER_SORT[query.sort]} ${query.dir === 'asc' ? 'ASC' : 'DESC'}, e.entry_no ${query.dir === 'asc' ? 'ASC' : 'DESC'}`;
+  const [rows, counted] = await Promise.all([
+    manager.query(
+      `SELECT e.id, e.entry_no, e.kind, e.available_change, e.reserved_change, e.available_after, e.reserved_after, e.reason,
+              e.order_id, e.sample_id, s.code AS sample_code, e.payment_id, p.receipt_no, u.id AS actor_id, u.display_name AS actor_name,
+              e.created_at
+       FROM (SELECT e.* FROM credit_ledger_entry e JOIN (SELECT e.id FROM credit_ledger_entry e WHERE ${where.join(' AND ')} ORDER BY ${order} LIMIT $${params.length + 1} OFFSET $${params.length + 2}) page USING (id)) e
+       LEFT JOIN sample s ON s.id = e.sample_id AND s.lab_id = e.lab_id
+       LEFT JOIN payment p ON p.id = e.payment_id AND p.lab_id = e.lab_id
+       LEFT JOIN app_user u ON u.id = e.actor_user_id
+       ORDER BY ${order}`,
+      [...params, take, skip],
+    ) as Promise<LedgerRow[]>,
+    cappedCount(manager, `FROM credit_ledger_entry e WHERE ${where.join(' AND ')}`, params),
+  ]);
+  return toCappedPage(rows.map((r) => ({
     id: r.id, entryNo: Number(r.entry_no), kind: r.kind, availableChange: r.available_change, reservedChange: r.reserved_change,
     availableAfter: r.available_after, reservedAfter: r.reserved_after, reason: r.reason, reference: reference(r),
     actor: r.actor_id ? { id: r.actor_id, displayName: r.actor_name ?? '' } : null, createdAt: r.created_at.toISOString(),
-  })), rows.length ? Number(rows[0].total) : 0, query);
+  })), counted, query);
 }
 
 const ACCOUNT_SORT: Record<CreditAccountListQuery['sort'], string> = { name: 'lower(co.name)', available: 'COALESCE(a.available, 0)' };
@@ -139,15 +151,17 @@ export async function creditAccounts(manager: EntityManager, labId: string, quer
     search = 'AND co.name ILIKE $2';
   }
   const { skip, take } = pageParams(query);
-  params.push(take, skip);
-  const rows: { id: string; name: string; available: number | null; reserved: number | null; updated_at: Date | null; total: string }[] = await manager.query(
-    `SELECT co.id, co.name, a.available, a.reserved, a.updated_at, count(*) OVER () AS total
-     FROM client_organisation co LEFT JOIN credit_account a ON a.client_organisation_id = co.id AND a.lab_id = co.lab_id
-     WHERE co.lab_id = $1 ${search}
-     ORDER BY ${ACCOUNT_SORT[query.sort]} ${query.dir === 'asc' ? 'ASC' : 'DESC'}, co.id
-     LIMIT $${params.length - 1} OFFSET $${params.length}`,
-    params,
-  );
-  return toPage(rows.map((r) => ({ clientOrganisation: { id: r.id, name: r.name }, available: r.available ?? 0, reserved: r.reserved ?? 0,
-    updatedAt: r.updated_at?.toISOString() ?? null })), rows.length ? Number(rows[0].total) : 0, query);
+  const [rows, counted] = await Promise.all([
+    manager.query(
+      `SELECT co.id, co.name, a.available, a.reserved, a.updated_at
+       FROM client_organisation co LEFT JOIN credit_account a ON a.client_organisation_id = co.id AND a.lab_id = co.lab_id
+       WHERE co.lab_id = $1 ${search}
+       ORDER BY ${ACCOUNT_SORT[query.sort]} ${query.dir === 'asc' ? 'ASC' : 'DESC'}, co.id
+       LIMIT $${params.length + 1} OFFSET $${params.length + 2}`,
+      [...params, take, skip],
+    ) as Promise<{ id: string; name: string; available: number | null; reserved: number | null; updated_at: Date | null }[]>,
+    cappedCount(manager, `FROM client_organisation co WHERE co.lab_id = $1 ${search}`, params),
+  ]);
+  return toCappedPage(rows.map((r) => ({ clientOrganisation: { id: r.id, name: r.name }, available: r.available ?? 0, reserved: r.reserved ?? 0,
+    updatedAt: r.updated_at?.toISOString() ?? null })), counted, query);
 }

@@ -67,6 +67,8 @@ export function clientOrganisationsRouter(): Router {
         roles: ['client-admin'],
         invitedByUserId: auth.userId,
         emailField: 'firstAdmin.email',
+        // The same answer whether or not the address has an account elsewhere on the platform.
+        quietWhenTaken: true,
       });
       return { organisation: await findOrganisation(manager, labId, organisation.id), invitation: toInvitationDto(invitation) };
     });

@@ -37,7 +37,7 @@ export async function recordMovement(manager: EntityManager, auth: AuthContext, 
   if (sample.state === 'awaiting-arrival') throw ApiError.conflict(`Sample ${sample.code} has not arrived yet; record its arrival first.`);
   const occurredAt = body.occurredAt ? new Date(body.occurredAt) : new Date();
   if (occurredAt.getTime() > Date.now() + 5 * 60_000) {
-    throw ApiError.badRequest('occurredAt is in the future.', [{ field: 'occurredAt', message: 'must not be in the future' }]);
+    throw ApiError.badRequest('The time of the event is in the future; enter when it actually happened.', [{ field: 'occurredAt', message: 'must not be in the future' }]);
   }
   await appendCustody(manager, { labId, sampleId, kind: body.kind, location: body.location, reason: body.reason, actorUserId: auth.userId, occurredAt });
   await recordAudit(manager, { labId, actorUserId: auth.userId, action: `custody.${body.kind}`, subjectType: 'sample', subjectId: sampleId, details: { code: sample.code, location: body.location } });

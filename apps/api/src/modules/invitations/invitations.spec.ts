@@ -36,10 +36,32 @@ describe('staff invitations', () => {
     expect(await t.db.manager.count(AuditEvent, { where: { action: 'invitation.accepted' } })).toBe(1);
   });
 
-  it('refuses to invite an address that already has an account, naming the field', async () => {
-    const res = await request(t.app).post('/api/lab/staff/invitations').set(await t.authFor('lab-admin')).send({ email: 'analyst@calder.test', roles: ['analyst'] });
-    expect(res.status).toBe(409);
-    expect(res.body.errors).toEqual([{ field: 'email', message: 'already has an Ohmprint account' }]);
+  it('answers a lab admin the same whether or not the address has an account anywhere, and tells its holder how to join', async () => {
+    const admin = await t.authFor('lab-admin');
+    const strip = (b: Record<string, unknown>) => ({ ...b, id: '<id>', email: '<email>', createdAt: '<time>', expiresAt: '<time>' });
+    const known = await request(t.app).post('/api/lab/staff/invitations').set(admin).send({ email: 'analyst@marlow.test', roles: ['analyst'] });
+    const unknown = await request(t.app).post('/api/lab/staff/invitations').set(admin).send({ email: 'nobody.yet@elsewhere.test', roles: ['analyst'] });
+    expect(known.status).toBe(201);
+    expect(unknown.status).toBe(201);
+    expect(Object.keys(known.body).sort()).toEqual(Object.keys(unknown.body).sort());
+    expect(strip(known.body)).toEqual(strip(unknown.body));
+    // The same in the lab's list of open invitations.
+    const open = await request(t.app).get('/api/lab/staff/invitations?pageSize=100').set(admin);
+    const listed = (e: string) => strip(open.body.items.find((i: { email: string }) => i.email === e));
+    expect(listed('analyst@marlow.test')).toEqual(listed('nobody.yet@elsewhere.test'));
+    // The holder of the existing account is told by e-mail how to join; the new address gets its link.
+    const toKnown = await latestEmailTo(t.db, 'analyst@marlow.test');
+    expect(toKnown.subject).toBe((await latestEmailTo(t.db, 'nobody.yet@elsewhere.test')).subject);
+    expect(toKnown.text).toMatch(/To join, ask the person who invited you to invite another address/);
+    expect(linkToken((await latestEmailTo(t.db, 'nobody.yet@elsewhere.test')).text).token).toBeTruthy();
+    // Both audited alike in the lab's log.
+    for (const b of [known.body, unknown.body]) {
+      const audit = await t.db.manager.findOneByOrFail(AuditEvent, { action: 'invitation.sent', subjectId: b.id });
+      expect(Object.keys(audit.details as object).sort()).toEqual(['clientOrganisationId', 'email', 'roles']);
+    }
+    // A new client organisation's first admin: the same uniform answer.
+    const org = await request(t.app).post('/api/lab/client-organisations').set(admin).send({ name: 'Quiet Cellars (test)', firstAdmin: { email: 'analyst@marlow.test' } });
+    expect(org.status).toBe(201);
   });
 
   it('refuses an empty or unknown role list', async () => {

@@ -1,5 +1,5 @@
 import { IsNull, type EntityManager } from 'typeorm';
-import type { Role } from '@ohmprint/contracts';
+import { rolesInWords, type Role } from '@ohmprint/contracts';
 import { config } from '../../config';
 import { ApiError } from '../../core/api-error';
 import { User } from '../accounts/user.entity';
@@ -28,11 +28,16 @@ export interface NewInvitation {
   quietWhenTaken?: boolean;
 }
 
+/** "an analyst", "a lab admin and reviewer". */
+function articled(words: string): string {
+  return `${/^[aeiou]/i.test(words) ? 'an' : 'a'} ${words}`;
+}
+
 function invitationText(inv: NewInvitation, link: string): string {
   const where = inv.clientOrganisationName ? `${inv.clientOrganisationName}, a client of ${inv.labName},` : inv.labName;
   return (
     `Hello${inv.displayName ? ` ${inv.displayName}` : ''},\n\n` +
-    `You are invited to join ${where} on Ohmprint as ${inv.roles.join(', ')}.\n` +
+    `You are invited to join ${where} on Ohmprint as ${articled(rolesInWords(inv.roles))}.\n` +
     `Open this link within ${config.auth.invitationTtlDays} days to choose your password; it works once:\n\n${link}\n\n` +
     `If you did not expect this invitation, ignore this message.\n`
   );
@@ -43,7 +48,7 @@ function alreadyRegisteredText(inv: NewInvitation): string {
   const where = inv.clientOrganisationName ? `${inv.clientOrganisationName}, a client of ${inv.labName},` : inv.labName;
   return (
     `Hello${inv.displayName ? ` ${inv.displayName}` : ''},\n\n` +
-    `You were invited to join ${where} on Ohmprint as ${inv.roles.join(', ')}.\n` +
+    `You were invited to join ${where} on Ohmprint as ${articled(rolesInWords(inv.roles))}.\n` +
     `This e-mail address already belongs to an Ohmprint account, and an address can hold only one account, ` +
     `so the invitation cannot be accepted with it. To join, ask the person who invited you to invite another ` +
     `address of yours. To use your existing account, sign in as usual; if you forgot its password, use ` +

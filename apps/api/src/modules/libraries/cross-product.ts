@@ -1,7 +1,8 @@
 import type { EntityManager } from 'typeorm';
-import { createSpectrumIndex, type Spectrum } from '@ohmprint/spectral-engine';
+import type { Spectrum } from '@ohmprint/spectral-engine';
 import type { CrossProductCheck, Matrix } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
+import { runCpuTask } from '../../core/cpu-pool/cpu-pool';
 import { decodeLotSpectrum } from './lot-spectrum-bytes';
 
 interface VersionRow {
@@ -56,9 +57,10 @@ export async function crossProductCheck(manager: EntityManager, labId: string, v
   const confusion = products.map(() => products.map(() => 0));
   const confused: CrossProductCheck['confused'] = [];
   if (products.length >= 2 && lots.length >= 2) {
-    const index = createSpectrumIndex(lots.map((l) => l.spectrum));
+    // The search index is built and searched in a worker thread (seconds for a large library).
+    const hits = await runCpuTask('nearestOthers', { spectra: lots.map((l) => l.spectrum) });
     lots.forEach((lot, i) => {
-      const hit = index.nearest(lot.spectrum, 2).find((h) => h.index !== i);
+      const hit = hits[i];
       if (!hit) return;
       const other = lots[hit.index];
       confusion[lot.product][other.product] += 1;

@@ -40,6 +40,13 @@ describe('building a library from reference lots', () => {
     expect(detail.body).toMatchObject({ status: 'draft', includedLotCount: 7, methodVersion: { id: methodVersionId, version: 1, name: 'Juice (test)' }, publishBlockers: [] });
     expect(detail.body.calibration).toMatchObject({ estimator: 'lognormal-ml', lotCount: 7, bootstrap: { resamples: 2000, confidenceLevel: 0.95, seed: 17025 } });
     expect(detail.body.calibration.t99Interval[0]).toBeLessThan(detail.body.calibration.t99Interval[1]);
+    // each lot keeps the producer's own code from its sample's reference-lot declaration
+    const codes: { lot_code: string; producer_lot_code: string | null; declared: string }[] = await t.db.query(
+      `SELECT r.lot_code, r.producer_lot_code, s.reference_lot->>'lotCode' AS declared FROM reference_lot r JOIN sample s ON s.id = r.sample_id WHERE r.library_version_id = $1`,
+      [versionId],
+    );
+    expect(codes).toHaveLength(7);
+    for (const c of codes) expect(c.producer_lot_code).toBe(c.declared);
     expect((await draftOf()).status).toBe(409);
   });
 

@@ -1,6 +1,6 @@
 import { IsNull, type EntityManager } from 'typeorm';
 import { averageReplicates, replicateAgreement, type Spectrum } from '@ohmprint/spectral-engine';
-import type { Chemistry, CreateLibraryDraft, LibraryDraftCreated, LotInclusion, LotQuality, MethodSettings, ReferenceLotDeclaration } from '@ohmprint/contracts';
+import { MATRIX_LABELS, type Chemistry, type CreateLibraryDraft, type LibraryDraftCreated, type LotInclusion, type LotQuality, type MethodSettings, type ReferenceLotDeclaration } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
 import { recordAudit } from '../audit/record-audit';
 import { methodGrid, prepareReplicates } from '../measurements/prepared-replicates';
@@ -50,7 +50,10 @@ export async function createLibraryDraft(manager: EntityManager, labId: string, 
   if (!product) throw ApiError.notFound('Product');
   const { version: methodVersion, method } = await methodVersionOf(manager, labId, input.methodVersionId);
   if (method.matrix !== product.matrix) {
-    throw ApiError.badRequest(`Method “${method.name}” is for ${method.matrix}; ${product.name} is ${product.matrix}.`, [{ field: 'methodVersionId', message: `is a method for ${method.matrix}` }]);
+    const words = (m: string) => MATRIX_LABELS[m as keyof typeof MATRIX_LABELS]?.toLowerCase() ?? m;
+    throw ApiError.badRequest(`Method “${method.name}” is for ${words(method.matrix)}; ${product.name} is ${words(product.matrix)}.`, [
+      { field: 'methodVersionId', message: `is a method for ${words(method.matrix)}` },
+    ]);
   }
   const library = await libraryOf(manager, labId, product.id);
   await manager.query(`SELECT id FROM reference_library WHERE id = $1 FOR UPDATE`, [library.id]);

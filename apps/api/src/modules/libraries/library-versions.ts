@@ -6,6 +6,7 @@ import { ApiError } from '../../core/api-error';
 import { recordAudit } from '../audit/record-audit';
 import { LibraryVersion } from './library-version.entity';
 import { decodeLotSpectrum, encodeLotSpectrum } from './lot-spectrum-bytes';
+import { storeReferenceBand } from './reference-band';
 import { ReferenceLibrary } from './reference-library.entity';
 import { ReferenceLot } from './reference-lot.entity';
 
@@ -138,6 +139,7 @@ export async function publishVersion(manager: EntityManager, labId: string, vers
     });
   }
   await manager.update(LibraryVersion, { id: versionId, labId }, { calibration, status: 'published', publishedAt: new Date(), publishedByUserId: userId, engineVersion: ENGINE_VERSION });
+  await storeReferenceBand(manager, labId, versionId);
   await recordAudit(manager, {
     labId,
     actorUserId: userId,

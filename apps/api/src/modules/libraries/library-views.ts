@@ -2,7 +2,7 @@ import type { EntityManager } from 'typeorm';
 import type { Calibration as EngineCalibration } from '@ohmprint/spectral-engine';
 import { methodDifferences, type Calibration, type LibraryItem, type LibraryListQuery, type LibraryVersionDetail, type LibraryVersionSummary, type MethodSettings, type Page } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
-import { escapeLike, pageParams, toPage } from '../../core/paging';
+import { cappedCount, escapeLike, pageParams, toCappedPage } from '../../core/paging';
 import { publishBlockers } from './library-versions';
 
 interface VersionRow {
@@ -62,6 +62,30 @@ export function calibrationView(c: EngineCalibration | null): Calibration | null
   };
 }
 
+/** The list's versions: counts and thresholds from `library_version_tally`, no calibration read. */
+const LIST_VERSION_SQL = `
+  SELECT v.id, v.library_id, v.version, v.status, v.published_at, v.engine_version, v.retired_at,
+         u.id AS published_by_id, u.display_name AS published_by_name, t.included_lots AS lot_count,
+         t.t95, t.t99, t.threshold_estimator,
+         CASE WHEN v.status = 'draft' THEN NULL ELSE
+           (SELECT min(n.version) FROM library_version n WHERE n.library_id = v.library_id AND n.version > v.version AND n.status = 'published') END AS superseded_by
+  FROM library_version v JOIN library_version_tally t ON t.library_version_id = v.id LEFT JOIN app_user u ON u.id = v.published_by_user_id`;
+
+interface ListVersionRow extends Omit<VersionRow, 'calibration'> {
+  t95: number | null;
+  t99: number | null;
+  threshold_estimator: LibraryVersionSummary['thresholdEstimator'];
+}
+
+function listSummary(v: ListVersionRow): LibraryVersionSummary {
+  return {
+    ...summary({ ...v, calibration: null }),
+    t95: v.t95,
+    t99: v.t99,
+    thresholdEstimator: v.threshold_estimator,
+  };
+}
+
 const LIBRARY_SORT: Record<LibraryListQuery['sort'], string> = { product: 'lower(p.name)', client: 'lower(co.name)' };
 
 export async function listLibraries(manager: EntityManager, labId: string, query: LibraryListQuery): Promise<Page<LibraryItem>> {
@@ -72,27 +96,29 @@ export async function listLibraries(manager: EntityManager, labId: string, query
     search = `AND (p.name ILIKE $2 OR co.name ILIKE $2)`;
   }
   const { skip, take } = pageParams(query);
-  params.push(take, skip);
-  const rows: { id: string; product_id: string; product_name: string; matrix: LibraryItem['product']['matrix']; client_id: string; client_name: string; total: string }[] = await manager.query(
-    `SELECT l.id, p.id AS product_id, p.name AS product_name, p.matrix, co.id AS client_id, co.name AS client_name, count(*) OVER () AS total
-     FROM reference_library l JOIN product p ON p.id = l.product_id JOIN client_organisation co ON co.id = p.client_organisation_id
-     WHERE l.lab_id = $1 ${search}
-     ORDER BY ${LIBRARY_SORT[query.sort]} ${query.dir === 'asc' ? 'ASC' : 'DESC'}, l.id
-     LIMIT $${params.length - 1} OFFSET $${params.length}`,
-    params,
-  );
-  const versions: VersionRow[] = rows.length
-    ? await manager.query(`${VERSION_SQL} WHERE v.lab_id = $1 AND v.library_id = ANY($2::uuid[]) ORDER BY v.version DESC`, [labId, rows.map((r) => r.id)])
+  const from = `FROM reference_library l JOIN product p ON p.id = l.product_id JOIN client_organisation co ON co.id = p.client_organisation_id
+     WHERE l.lab_id = $1 ${search}`;
+  const [rows, counted] = await Promise.all([
+    manager.query(
+      `SELECT l.id, p.id AS product_id, p.name AS product_name, p.matrix, co.id AS client_id, co.name AS client_name ${from}
+       ORDER BY ${LIBRARY_SORT[query.sort]} ${query.dir === 'asc' ? 'ASC' : 'DESC'}, l.id
+       LIMIT $${params.length + 1} OFFSET $${params.length + 2}`,
+      [...params, take, skip],
+    ) as Promise<{ id: string; product_id: string; product_name: string; matrix: LibraryItem['product']['matrix']; client_id: string; client_name: string }[]>,
+    cappedCount(manager, from, params),
+  ]);
+  const versions: ListVersionRow[] = rows.length
+    ? await manager.query(`${LIST_VERSION_SQL} WHERE v.lab_id = $1 AND v.library_id = ANY($2::uuid[]) ORDER BY v.version DESC`, [labId, rows.map((r) => r.id)])
     : [];
   const items = rows.map(
     (r): LibraryItem => ({
       id: r.id,
       product: { id: r.product_id, name: r.product_name, matrix: r.matrix },
       clientOrganisation: { id: r.client_id, name: r.client_name },
-      versions: versions.filter((v) => v.library_id === r.id).map(summary),
+      versions: versions.filter((v) => v.library_id === r.id).map(listSummary),
     }),
   );
-  return toPage(items, rows.length ? Number(rows[0].total) : 0, query);
+  return toCappedPage(items, counted, query);
 }
 
 interface DetailRow extends VersionRow {

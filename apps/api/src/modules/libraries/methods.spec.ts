@@ -1,6 +1,6 @@
 import request from 'supertest';
 import { DEFAULT_METHOD } from './default-method';
-import { analyseDemoSample, measureDemoSample, useTestApp } from '../../testing';
+import { analyseDemoSample, approveAndIssue, measureDemoSample, useTestApp } from '../../testing';
 import { seedLabDemo } from '../../../../../docker-free-scripts/seed/lab-demo';
 
 jest.setTimeout(120_000);
@@ -83,7 +83,7 @@ describe('methods', () => {
     await t.db.query(`UPDATE method_version SET note = note WHERE id = $1`, [wine.id]);
     const analysisId = await analyseDemoSample(t, 'OP-7K3M-Q9');
     expect((await request(t.app).post(`/api/lab/analyses/${analysisId}/submit`).set(await t.authFor('analyst'))).status).toBe(200);
-    expect((await request(t.app).post(`/api/lab/analyses/${analysisId}/approve`).set(await t.authFor('reviewer')).send({})).status).toBe(200);
+    await approveAndIssue(t, analysisId, '');
     await expect(t.db.query(`UPDATE method_version SET note = 'changed' WHERE id = $1`, [wine.id])).rejects.toThrow(/used by an issued report/);
     await expect(t.db.query(`DELETE FROM method_version WHERE id = $1`, [wine.id])).rejects.toThrow(/used by an issued report/);
     const after = await request(t.app).get(`/api/lab/method-versions/${wine.id}`).set(admin);

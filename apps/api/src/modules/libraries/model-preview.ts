@@ -1,7 +1,8 @@
 import type { EntityManager } from 'typeorm';
-import { fitModel, impedance, MODEL_CATALOG, modelLabel } from '@ohmprint/spectral-engine';
+import { MODEL_CATALOG, modelLabel } from '@ohmprint/spectral-engine';
 import type { ModelCatalog, ModelPreview, ModelPreviewRequest, PreviewReplicate } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
+import { runCpuTask } from '../../core/cpu-pool/cpu-pool';
 import { prepareReplicates } from '../measurements/prepared-replicates';
 import { Replicate } from '../measurements/replicate.entity';
 import { checkModel } from './method-versions';
@@ -39,8 +40,8 @@ export async function previewModel(manager: EntityManager, labId: string, input:
   }
   const s = prepared.spectrum;
   const model = input.settings.model;
-  const fit = fitModel(s, model, { restarts: PREVIEW_RESTARTS });
-  const fitted = fit.converged ? impedance(model, fit.parameters, s.frequencyHz) : null;
+  // Fitted in a worker thread: several restarts on a long spectrum never hold up other requests.
+  const { fit, fitted } = await runCpuTask('previewFit', { spectrum: s, model, restarts: PREVIEW_RESTARTS });
   return {
     model,
     modelLabel: modelLabel(model),

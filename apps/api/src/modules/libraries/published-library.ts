@@ -1,8 +1,10 @@
 import type { EntityManager } from 'typeorm';
+import { LRUCache } from 'lru-cache';
 import type { Calibration, Spectrum } from '@ohmprint/spectral-engine';
 import type { MethodSettings } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
-import { decodeLotSpectrum } from './lot-spectrum-bytes';
+import { config } from '../../config';
+import { spectraOver } from './library-packing';
 
 export interface PublishedLibrary {
   versionId: string;
@@ -15,16 +17,45 @@ export interface PublishedLibrary {
   calibration: Calibration;
   publishedAt: Date;
   lots: { id: string; lotCode: string }[];
+  /** Views over `packed`, one per lot. */
   spectra: Spectrum[];
+  /** Every lot's spectrum in one shared buffer: lot by lot, N real parts then N imaginary parts. */
+  packed: Float64Array;
+}
+
+/**
+ * What a decoded library costs in memory, estimated: its spectra (8 bytes a value), each lot's
+ * id, code and two typed-array views (about 400 bytes together), and the calibration distances.
+ */
+export function libraryBytes(library: PublishedLibrary): number {
+  return library.packed.byteLength + library.lots.length * 400 + library.calibration.nearestDistances.length * 16 + 4096;
+}
+
+/** A cache of decoded libraries capped by their estimated bytes, least recently used out first. */
+export function createLibraryCache(maxBytes: number): LRUCache<string, PublishedLibrary> {
+  return new LRUCache<string, PublishedLibrary>({
+    maxSize: maxBytes,
+    // A library larger than the whole cap is still served, just not kept.
+    maxEntrySize: maxBytes,
+    sizeCalculation: (library) => Math.max(1, libraryBytes(library)),
+  });
 }
 
 /**
  * Published versions are frozen (a trigger refuses changes), so a decoded copy can be kept in
- * memory and shared by every analysis against it. Bounded so an instance never holds more
- * than a handful of large libraries.
+ * memory and shared by every analysis against it, up to `LIBRARY_CACHE_MAX_MB` in all.
  */
-const cache = new Map<string, PublishedLibrary>();
-const CACHE_LIMIT = 16;
+const cache = createLibraryCache(config.libraryCacheMaxBytes);
+
+/** Bytes the cache holds now, for the benchmark. */
+export function libraryCacheBytes(): number {
+  return cache.calculatedSize;
+}
+
+function decodeInto(packed: Float64Array, offset: number, bytes: Buffer, n: number): void {
+  if (bytes.length !== 16 * n) throw new RangeError(`a lot spectrum for a ${n}-point grid has ${16 * n} bytes, not ${bytes.length}`);
+  for (let i = 0; i < 2 * n; i++) packed[offset + i] = bytes.readDoubleLE(8 * i);
+}
 
 /** A published (or retired) version of the lab's library, with its included lots decoded; 409 for a draft, 404 for another lab's. */
 export async function publishedLibrary(manager: EntityManager, labId: string, versionId: string): Promise<PublishedLibrary> {
@@ -45,6 +76,9 @@ export async function publishedLibrary(manager: EntityManager, labId: string, ve
     [versionId, labId],
   );
   const grid = Float64Array.from(v.grid_hz);
+  const n = grid.length;
+  const packed = new Float64Array(new SharedArrayBuffer(Math.max(8, 16 * n * rows.length))).subarray(0, 2 * n * rows.length);
+  rows.forEach((r, i) => decodeInto(packed, 2 * n * i, r.spectrum, n));
   const library: PublishedLibrary = {
     versionId: v.id,
     version: v.version,
@@ -56,9 +90,9 @@ export async function publishedLibrary(manager: EntityManager, labId: string, ve
     calibration: v.calibration,
     publishedAt: v.published_at,
     lots: rows.map((r) => ({ id: r.id, lotCode: r.lot_code })),
-    spectra: rows.map((r) => decodeLotSpectrum(r.spectrum, grid)),
+    spectra: spectraOver(packed, grid),
+    packed,
   };
-  if (cache.size >= CACHE_LIMIT) cache.delete(cache.keys().next().value as string);
   cache.set(versionId, library);
   return library;
 }

@@ -31,7 +31,7 @@ describe('reference spectra of a published library version', () => {
     expect(res.body).toMatchObject({ libraryVersionId: versionId, impedanceUnit: 'Ω·cm', referenceTemperatureC: 20 });
     const grid: number[] = res.body.frequencyHz;
     expect(grid).toHaveLength(run.body.method.gridPoints);
-    expect(res.body.lots).toHaveLength(run.body.result.distances.length);
+    expect(res.body.lots).toHaveLength(run.body.result.lotCount);
     for (const lot of res.body.lots) expect([lot.re.length, lot.im.length]).toEqual([grid.length, grid.length]);
     expect(run.body.sampleSpectrum.frequencyHz).toEqual(grid);
 

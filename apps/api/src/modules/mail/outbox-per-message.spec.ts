@@ -4,7 +4,7 @@ import { useTestApp } from '../../testing';
 import { withMaintenanceConnection } from '../../testing/maintenance-db';
 import { enqueueEmail } from './enqueue-email';
 import { EmailOutbox } from './email-outbox.entity';
-import { deliverDueEmails, outboxMessageId } from './outbox-worker';
+import { deliverDueEmails, deliverOutboxMessage, outboxMessageId } from './outbox-worker';
 
 const t = useTestApp();
 
@@ -71,5 +71,23 @@ describe('e-mail outbox, one message at a time', () => {
     expect(await deliverDueEmails(t.db, recordingTransport(sent))).toEqual({ sent: 1, failed: 0 });
     expect(sent[0].messageId).toBe(ids[0]);
     expect(ids[0]).toBe(outboxMessageId(id));
+  });
+
+  it('sends a message once when two workers run its job and the sweep at the same moment, under its Message-ID', async () => {
+    await t.db.manager.update(EmailOutbox, { status: 'pending' }, { status: 'sent' });
+    const to = `twice-${randomUUID()}@catcher.test`;
+    const id = await t.db.transaction((m) => enqueueEmail(m, { labId: null, to, subject: 'Once', text: '-' }));
+    // the job committed with the message, ready for a worker
+    const [job] = await t.db.query(`SELECT data->>'outboxId' AS outbox_id FROM pgboss.job WHERE name = 'email-send' AND data->>'outboxId' = $1`, [id]);
+    expect(job).toEqual({ outbox_id: id });
+    const sent: Sent[] = [];
+    const slow = recordingTransport(sent, () => new Promise((r) => setTimeout(r, 200)));
+    const outcomes = await Promise.all([deliverOutboxMessage(t.db, slow, id), deliverOutboxMessage(t.db, slow, id), deliverDueEmails(t.db, slow)]);
+    expect(sent).toEqual([{ to, messageId: outboxMessageId(id) }]);
+    expect(outcomes.filter((o) => o === 'sent')).toHaveLength(outcomes[2].sent === 1 ? 0 : 1);
+    // a job delivered again later (pg-boss delivers at least once) sends nothing more
+    expect(await deliverOutboxMessage(t.db, slow, id)).toBe('not-due');
+    expect(sent).toHaveLength(1);
+    expect(await t.db.manager.findOneByOrFail(EmailOutbox, { id })).toMatchObject({ status: 'sent', attempts: 1 });
   });
 });

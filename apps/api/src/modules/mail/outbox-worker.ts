@@ -30,12 +30,17 @@ export function outboxMessageId(outboxId: string, from = config.mail.from): stri
   return `<outbox-${outboxId}@${domain}>`;
 }
 
-/** Claims one due message in its own short transaction: its attempt is counted and leased. */
-async function claimNext(dataSource: DataSource): Promise<EmailOutbox | null> {
+/**
+ * Claims one due message (the oldest, or the one named) in its own short transaction: its attempt
+ * is counted and leased, so no other process sends it meanwhile.
+ */
+async function claimNext(dataSource: DataSource, outboxId?: string): Promise<EmailOutbox | null> {
   return dataSource.transaction(async (manager) => {
-    const message = await manager
+    const query = manager
       .createQueryBuilder(EmailOutbox, 'm')
-      .where("m.status = 'pending' AND m.next_attempt_at <= now()")
+      .where("m.status = 'pending' AND m.next_attempt_at <= now()");
+    if (outboxId) query.andWhere('m.id = :outboxId', { outboxId });
+    const message = await query
       .orderBy('m.next_attempt_at', 'ASC')
       .limit(1)
       .setLock('pessimistic_write')
@@ -46,6 +51,37 @@ async function claimNext(dataSource: DataSource): Promise<EmailOutbox | null> {
     await manager.update(EmailOutbox, message.id, { attempts: message.attempts, nextAttemptAt: new Date(Date.now() + SEND_LEASE_SECONDS * 1000) });
     return message;
   });
+}
+
+/** Sends one claimed message and commits its outcome at once (sent, or failed with the next attempt's time). */
+async function sendClaimed(dataSource: DataSource, transport: Transporter, message: EmailOutbox, from: string): Promise<'sent' | 'failed'> {
+  const attempts = message.attempts;
+  try {
+    const messageId = outboxMessageId(message.id, from);
+    await transport.sendMail({ from, to: message.to, subject: message.subject, text: message.text, html: message.html ?? undefined, replyTo: message.replyTo ?? undefined, messageId });
+    await dataSource.manager.update(EmailOutbox, message.id, { status: 'sent', sentAt: new Date(), lastError: null, messageId });
+    return 'sent';
+  } catch (err) {
+    const giveUp = attempts >= config.mail.maxAttempts;
+    await dataSource.manager.update(EmailOutbox, message.id, {
+      status: giveUp ? 'failed' : 'pending',
+      lastError: String((err as Error)?.message ?? err).slice(0, 2000),
+      nextAttemptAt: new Date(Date.now() + retryDelaySeconds(attempts) * 1000),
+    });
+    logger.warn({ outboxId: message.id, attempts, giveUp, err: (err as Error)?.message }, 'e-mail delivery failed');
+    return 'failed';
+  }
+}
+
+/**
+ * The `email-send` job: sends one queued message if it is still pending and due. A message already
+ * sent, or being sent by another worker, is left alone, so two workers never send it twice; a
+ * failed attempt is rescheduled in the outbox and picked up by the sweep (`deliverDueEmails`).
+ */
+export async function deliverOutboxMessage(dataSource: DataSource, transport: Transporter, outboxId: string, from = config.mail.from): Promise<'sent' | 'failed' | 'not-due'> {
+  const message = await claimNext(dataSource, outboxId);
+  if (!message) return 'not-due';
+  return sendClaimed(dataSource, transport, message, from);
 }
 
 /**
@@ -60,22 +96,8 @@ export async function deliverDueEmails(dataSource: DataSource, transport: Transp
   for (let i = 0; i < BATCH_SIZE; i++) {
     const message = await claimNext(dataSource);
     if (!message) break;
-    const attempts = message.attempts;
-    try {
-      const messageId = outboxMessageId(message.id, from);
-      await transport.sendMail({ from, to: message.to, subject: message.subject, text: message.text, html: message.html ?? undefined, replyTo: message.replyTo ?? undefined, messageId });
-      await dataSource.manager.update(EmailOutbox, message.id, { status: 'sent', sentAt: new Date(), lastError: null, messageId });
-      round.sent += 1;
-    } catch (err) {
-      const giveUp = attempts >= config.mail.maxAttempts;
-      await dataSource.manager.update(EmailOutbox, message.id, {
-        status: giveUp ? 'failed' : 'pending',
-        lastError: String((err as Error)?.message ?? err).slice(0, 2000),
-        nextAttemptAt: new Date(Date.now() + retryDelaySeconds(attempts) * 1000),
-      });
-      round.failed += 1;
-      logger.warn({ outboxId: message.id, attempts, giveUp, err: (err as Error)?.message }, 'e-mail delivery failed');
-    }
+    if ((await sendClaimed(dataSource, transport, message, from)) === 'sent') round.sent += 1;
+    else round.failed += 1;
   }
   return round;
 }

@@ -62,7 +62,7 @@ export async function recordCellCalibration(manager: EntityManager, auth: AuthCo
   const [cell] = await manager.query(`SELECT id FROM measurement_cell WHERE id = $1 AND lab_id = $2`, [cellId, labId]);
   if (!cell) throw ApiError.notFound('Cell');
   const measuredAt = body.measuredAt ? new Date(body.measuredAt) : new Date();
-  if (measuredAt.getTime() > Date.now() + 5 * 60_000) throw ApiError.badRequest('measuredAt is in the future.', [{ field: 'measuredAt', message: 'must not be in the future' }]);
+  if (measuredAt.getTime() > Date.now() + 5 * 60_000) throw ApiError.badRequest('The measurement time is in the future; enter when the calibration was measured.', [{ field: 'measuredAt', message: 'must not be in the future' }]);
   const k = cellConstantPerCm(body.standardConductivityUsPerCm, body.plateauResistanceOhm);
   const inserted = await manager.insert(CellCalibration, { ...body, labId, cellId, cellConstantPerCm: k, measuredAt, measuredByUserId: auth.userId });
   await recordAudit(manager, { labId, actorUserId: auth.userId, action: 'cell.calibrated', subjectType: 'measurement_cell', subjectId: cellId, details: { calibrationId: inserted.identifiers[0].id, cellConstantPerCm: k } });

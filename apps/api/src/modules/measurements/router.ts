@@ -22,11 +22,12 @@ import { registerRoute } from '../../openapi/registry';
 import { requireRole } from '../auth/require-auth';
 import { requireMeasurementUploader } from '../instrument-keys/measurement-uploader';
 import { LAB_STAFF } from '../samples/lab-roles';
+import { keyedConcurrencyLimit } from '../../core/concurrency-limit';
 import { multerLimits, multipart } from '../samples/multipart-problem';
 import { benchEquipment, recordCellCalibration } from './bench-equipment';
 import { Replicate } from './replicate.entity';
 import { excludeReplicate, replicateSpectrum, sampleMeasurements } from './sample-measurements';
-import { MEASUREMENT_LIMITS, uploadMeasurements } from './upload-measurements';
+import { CONCURRENT_UPLOADS_PER_LAB, MEASUREMENT_LIMITS, uploadMeasurements } from './upload-measurements';
 
 const tag = 'Measurements';
 const ReplicateParamsSchema = z.object({ id: z.uuid(), replicateId: z.uuid() });
@@ -40,6 +41,8 @@ const UploadBodySchema = z.object({
 export function measurementsRouter(): Router {
   const router = Router();
   const upload = multipart(multer({ storage: multer.memoryStorage(), limits: multerLimits(MEASUREMENT_LIMITS) }).array('files'), MEASUREMENT_LIMITS);
+  // Two uploads of one lab at a time in this process: a third waits for its turn (429, Retry-After) before its files are read.
+  const uploadsPerLab = keyedConcurrencyLimit(CONCURRENT_UPLOADS_PER_LAB, 'measurement uploads of one lab', (res) => String(res.locals.uploaderLabId));
   const analyst = requireRole('analyst');
   const ids = (params: unknown) => params as z.infer<typeof ReplicateParamsSchema>;
 
@@ -68,7 +71,7 @@ export function measurementsRouter(): Router {
     response: MeasurementUploadResultSchema,
     status: 201,
   });
-  router.post('/samples/:id/measurements', requireMeasurementUploader, validate({ params: UploadParamsSchema }), upload, validate({ body: MeasurementUploadFieldsSchema }), async (req, res) => {
+  router.post('/samples/:id/measurements', requireMeasurementUploader, validate({ params: UploadParamsSchema }), uploadsPerLab, upload, validate({ body: MeasurementUploadFieldsSchema }), async (req, res) => {
     const files = (req.files as Express.Multer.File[] | undefined) ?? [];
     const result = await dataSource.transaction((m) =>
       uploadMeasurements(m, res.locals.uploader, res.locals.uploaderLabId, (res.locals.params as { id: string }).id, res.locals.body as MeasurementUploadFields, files),

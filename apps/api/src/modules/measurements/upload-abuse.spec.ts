@@ -1,4 +1,5 @@
 import request from 'supertest';
+import { parseSpectrumFile } from '@ohmprint/spectral-engine';
 import { seedLabDemo } from '../../../../../docker-free-scripts/seed/lab-demo';
 import { demoFiles } from '../../../../../docker-free-scripts/seed/lab-demo-files';
 import { useTestApp } from '../../testing';
@@ -58,6 +59,19 @@ describe('measurement upload under abuse', () => {
     expect(await replicateCount()).toBe(before + 1);
   });
 
+  it('stores every point exactly as parsed (the worker writes the column text), awkward doubles included', async () => {
+    const rows = ['1000.0000000000001;120.1;-30.3', '100;0.30000000000000004;-60', '10;200.00000000000003;-90.00000000000001', '1;260;-40', '0.1;300;-10'];
+    const res = await upload(await t.authFor('analyst'), [{ fileName: 'awkward.csv', text: exportOf(rows) }]);
+    expect(res.status).toBe(201);
+    const [stored] = await t.db.query(`SELECT frequency_hz, re, im FROM replicate WHERE id = $1`, [res.body.saved[0].id]);
+    // The same doubles as the engine's parser gives on this thread, bit for bit.
+    const parsed = parseSpectrumFile(exportOf(rows), { maxPoints: MEASUREMENT_LIMITS.pointsPerFile });
+    expect(stored.frequency_hz).toEqual(Array.from(parsed.frequencyHz));
+    expect(stored.re).toEqual(Array.from(parsed.re));
+    expect(stored.im).toEqual(Array.from(parsed.im));
+    expect(stored.re).toContain(0.30000000000000004);
+  });
+
   it('refuses a file with more rows than the limit, naming the limit', async () => {
     const rows = Array.from({ length: MEASUREMENT_LIMITS.pointsPerFile + 1 }, (_, i) => `${(1 + i * 0.01).toFixed(2)};${100 + i};-10`);
     const res = await upload(await t.authFor('analyst'), [{ fileName: 'endless.csv', text: exportOf(rows) }]);
@@ -106,3 +120,4 @@ describe('measurement upload under abuse', () => {
     expect(await replicateCount()).toBe(before);
   });
 });
+

@@ -1,7 +1,8 @@
 import type { EntityManager } from 'typeorm';
 import type { Spectrum } from '@ohmprint/spectral-engine';
-import type { KramersKronigSummary, MeasurementUploadFields, MeasurementUploadResult, RejectedFile, SampleState } from '@ohmprint/contracts';
+import { fieldInWords, type KramersKronigSummary, type MeasurementUploadFields, type MeasurementUploadResult, type RejectedFile, type SampleState } from '@ohmprint/contracts';
 import { runCpuTask } from '../../core/cpu-pool/cpu-pool';
+import type { SpectrumLiterals } from '../../core/cpu-pool/cpu-tasks';
 import { ApiError } from '../../core/api-error';
 import { recordAudit } from '../audit/record-audit';
 import { DEFAULT_METHOD } from '../libraries/default-method';
@@ -32,6 +33,9 @@ export interface UploadedExport {
  * hostile file stops early instead of costing seconds of CPU and hundreds of MB.
  */
 export const MEASUREMENT_LIMITS = { pointsPerFile: 5_000, files: 20, fileSizeBytes: 5 * 1048576 } as const;
+
+/** Measurement uploads of one lab handled at once per API process; the next is refused with Retry-After. */
+export const CONCURRENT_UPLOADS_PER_LAB = 2;
 
 const MEASURABLE: readonly SampleState[] = ['accepted', 'measuring', 'analysed', 'returned-for-rework', 'reported'];
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
@@ -101,7 +105,7 @@ export async function uploadMeasurements(
     ...(instrument ? [] : [{ field: 'instrumentId', message: 'is not an instrument of this lab' }]),
     ...(cell ? [] : [{ field: 'cellId', message: 'is not a cell of this lab' }]),
   ];
-  if (missing.length) throw ApiError.badRequest(missing.map((m) => `${m.field} ${m.message}`).join('; ') + '.', missing);
+  if (missing.length) throw ApiError.badRequest(missing.map((m) => `${fieldInWords(m.field)} ${m.message}`).join('; ') + '.', missing);
   await requireCellInControl(manager, labId, fields.cellId, sample.code);
   const { k, calibrationId } = await cellConstantFor(manager, labId, fields);
   const method = await labMethod(manager, labId);
@@ -113,7 +117,7 @@ export async function uploadMeasurements(
     kkLimitPercent: method.kkResidualLimitPercent,
   });
   const rejected: RejectedFile[] = [];
-  const parsed: { file: UploadedExport; spectrum: Spectrum; kramersKronig: KramersKronigSummary; identity: AcceptedExport }[] = [];
+  const parsed: { file: UploadedExport; spectrum: Spectrum; kramersKronig: KramersKronigSummary; literals: SpectrumLiterals; identity: AcceptedExport }[] = [];
   const confirmations = fields.confirmations ?? [];
   results.forEach((result, i) => {
     if (!result.ok) {
@@ -128,22 +132,24 @@ export async function uploadMeasurements(
       mismatchLimitC: method.temperatureMismatchLimitC ?? DEFAULT_METHOD.temperatureMismatchLimitC,
       confirmations,
     });
-    if (checked.ok) parsed.push({ file: files[i], spectrum: result.spectrum, kramersKronig: result.kramersKronig, identity: checked.value });
+    if (checked.ok) parsed.push({ file: files[i], spectrum: result.spectrum, kramersKronig: result.kramersKronig, literals: result.literals, identity: checked.value });
     else rejected.push(checked.refusal);
   });
   if (!parsed.length) throw nothingSaved(rejected);
 
   const [{ max }] = await manager.query(`SELECT COALESCE(max(replicate_number), 0) AS max FROM replicate WHERE lab_id = $1 AND sample_id = $2`, [labId, sample.id]);
   const now = new Date();
-  const rows = parsed.map(({ file, spectrum, kramersKronig, identity }, i) => ({
+  // The point columns go to the database as the array literals the worker wrote (see SpectrumLiterals).
+  const asColumn = (literal: string) => literal as unknown as number[];
+  const rows = parsed.map(({ file, literals, kramersKronig, identity }, i) => ({
     labId,
     sampleId: sample.id,
     replicateNumber: Number(max) + i + 1,
     fileName: file.originalname,
     rawFile: file.buffer,
-    frequencyHz: Array.from(spectrum.frequencyHz),
-    re: Array.from(spectrum.re),
-    im: Array.from(spectrum.im),
+    frequencyHz: asColumn(literals.frequencyHz),
+    re: asColumn(literals.re),
+    im: asColumn(literals.im),
     instrumentId: fields.instrumentId,
     cellId: fields.cellId,
     cellConstantPerCm: k,

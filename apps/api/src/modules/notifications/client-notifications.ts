@@ -1,7 +1,7 @@
 import type { EntityManager } from 'typeorm';
 import type { ClientNotification, ClientNotificationListQuery, ClientNotificationPage } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
-import { pageParams, toPage } from '../../core/paging';
+import { cappedCount, pageParams, toCappedPage } from '../../core/paging';
 
 /** Whose notifications: one user of one organisation of one lab (all from the caller's session). */
 export interface NotificationReader {
@@ -45,8 +45,8 @@ export async function listNotifications(manager: EntityManager, reader: Notifica
       WHERE ${SCOPE}${unread} ORDER BY created_at ${dir}, entry_no ${dir} OFFSET $4 LIMIT $5`,
     [...scopeValues(reader), skip, take],
   );
-  const [{ total }] = await manager.query(`SELECT count(*)::int AS total FROM client_notification WHERE ${SCOPE}${unread}`, scopeValues(reader));
-  return toPage(rows.map(toView), total, query);
+  const counted = await cappedCount(manager, `FROM client_notification WHERE ${SCOPE}${unread}`, scopeValues(reader));
+  return toCappedPage(rows.map(toView), counted, query);
 }
 
 export async function unreadCount(manager: EntityManager, reader: NotificationReader): Promise<number> {

@@ -23,7 +23,7 @@ import { dataSource } from '../../db/data-source';
 import { creditBalance } from '../credits/credit-ledger';
 import { multipart } from '../samples/multipart-problem';
 import type { ClientScope } from './client-views';
-import { renderLabelPack } from './label-pack';
+import { runCpuTask } from '../../core/cpu-pool/cpu-pool';
 import { labelPackData } from './label-pack-data';
 import { cancelOrder, placeCheckOrder, placeReferenceOrder, recordShipment } from './order-placement';
 import { createProduct, LABEL_PHOTO_MAX_BYTES, productPhoto, updateProduct } from './product-service';
@@ -109,7 +109,8 @@ export function clientOrderingRouter(): Router {
   async (_req, res) => {
     const data = await labelPackData(dataSource.manager, scopeOf(res), idOf(res));
     if (data.cancelled) throw ApiError.conflict('This order is cancelled; its samples must not be sent.');
-    const pdf = await renderLabelPack(data);
+    // Rendered in a worker thread: a pack of many samples never holds up other requests.
+    const pdf = Buffer.from(await runCpuTask('labelPack', { data }));
     res.setHeader('Content-Disposition', `attachment; filename="label-pack-${data.orderRef}.pdf"`);
     res.type('application/pdf').send(pdf);
   });

@@ -1,7 +1,7 @@
 import type { EntityManager } from 'typeorm';
 import type { ClientOrderListQuery, OrderSummary, Page, ProductListQuery, ProductSummary } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
-import { escapeLike, pageParams, toPage } from '../../core/paging';
+import { cappedCount, escapeLike, sparseSearchIds, pageParams, toCappedPage } from '../../core/paging';
 
 /** Whose data a client user sees: their organisation, inside their lab. */
 export interface ClientScope {
@@ -27,7 +27,6 @@ interface OrderRow {
   shipped_at: Date | null;
   cancelled_at: Date | null;
   samples: (Omit<OrderSummary['samples'][number], 'description'> & { obtainedWhere: string; obtainedOn: string; labelText: string; claimedLot: string })[];
-  total: string;
 }
 
 const ORDER_SQL = `
@@ -42,8 +41,7 @@ const ORDER_SQL = `
                     'rejectionReason', s.rejection_reason,
                     'receivedAt', to_char(s.received_at AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"'),
                     'updatedAt', to_char(s.state_changed_at AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"')) ORDER BY s.code)
-                   FROM sample s WHERE s.order_id = o.id AND s.lab_id = o.lab_id), '[]'::json) AS samples,
-         count(*) OVER () AS total
+                   FROM sample s WHERE s.order_id = o.id AND s.lab_id = o.lab_id), '[]'::json) AS samples
   FROM test_order o
   JOIN product p ON p.id = o.product_id AND p.lab_id = o.lab_id
   JOIN client_organisation co ON co.id = o.client_organisation_id AND co.lab_id = o.lab_id
@@ -85,17 +83,33 @@ export async function clientOrders(manager: EntityManager, scope: ClientScope, q
   if (query.q) {
     params.push(escapeLike(query.q));
     const p = `$${params.length}`;
-    where.push(`(p.name ILIKE ${p} OR EXISTS (SELECT 1 FROM sample s WHERE s.order_id = o.id AND (s.code ILIKE ${p} OR s.claimed_lot ILIKE ${p} OR s.label_text ILIKE ${p})))`);
+    // each alternative on its own table's index (trigram for the sample's texts)
+    const products = `SELECT p2.id FROM product p2 WHERE p2.lab_id = $1 AND p2.client_organisation_id = $2 AND p2.name ILIKE ${p}`;
+    const arms = `SELECT x.id FROM test_order x WHERE x.lab_id = $1 AND x.client_organisation_id = $2 AND x.product_id IN (${products})
+      UNION ALL SELECT s.order_id FROM sample s WHERE s.lab_id = $1 AND s.code ILIKE ${p}
+      UNION ALL SELECT s.order_id FROM sample s WHERE s.lab_id = $1 AND s.claimed_lot ILIKE ${p}
+      UNION ALL SELECT s.order_id FROM sample s WHERE s.lab_id = $1 AND s.label_text ILIKE ${p}`;
+    const ids = await sparseSearchIds(manager, arms, params);
+    if (ids) params[params.length - 1] = ids;
+    where.push(ids
+      ? `o.id = ANY(${p}::uuid[])`
+      : `(o.product_id IN (${products}) OR EXISTS (SELECT 1 FROM sample s WHERE s.order_id = o.id AND s.lab_id = $1
+           AND (s.code ILIKE ${p} OR s.claimed_lot ILIKE ${p} OR s.label_text ILIKE ${p})))`);
   }
   const { skip, take } = pageParams(query);
-  params.push(take, skip);
-  const rows: OrderRow[] = await manager.query(
-    `${ORDER_SQL} WHERE ${where.join(' AND ')}
-     ORDER BY ${ORDER_SORT[query.sort]} ${query.dir === 'asc' ? 'ASC' : 'DESC'}, o.id
-     LIMIT $${params.length - 1} OFFSET $${params.length}`,
-    params,
-  );
-  return toPage(rows.map(orderView), rows.length ? Number(rows[0].total) : 0, query);
+  const order = `${ORDER_SORT[query.sort]} ${query.dir === 'asc' ? 'ASC' : 'DESC'}, o.id`;
+  const byProduct = query.sort === 'product';
+  // the page is chosen on test_order alone (an index walks the order), then joined and its samples gathered
+  const [rows, counted] = await Promise.all([
+    manager.query(
+      `${ORDER_SQL.replace('FROM test_order o', `FROM (SELECT o.* FROM test_order o JOIN (SELECT o.id FROM test_order o ${byProduct ? 'JOIN product p ON p.id = o.product_id' : ''} WHERE ${where.join(' AND ')}
+         ORDER BY ${order} LIMIT $${params.length + 1} OFFSET $${params.length + 2}) page USING (id)) o`)}
+       ORDER BY ${order}`,
+      [...params, take, skip],
+    ) as Promise<OrderRow[]>,
+    cappedCount(manager, `FROM test_order o WHERE ${where.join(' AND ')}`, params),
+  ]);
+  return toCappedPage(rows.map(orderView), counted, query);
 }
 
 export async function clientOrder(manager: EntityManager, scope: ClientScope, orderId: string): Promise<OrderSummary> {
@@ -118,7 +132,6 @@ interface ProductRow {
   lot_count: number | null;
   building: boolean;
   has_photo: boolean;
-  total: string;
 }
 
 // A library is being built once it exists (a draft version) or lots were sent for enrolment.
@@ -128,8 +141,7 @@ const PRODUCT_SQL = `
          (EXISTS (SELECT 1 FROM reference_library l WHERE l.product_id = p.id AND l.lab_id = p.lab_id)
           OR EXISTS (SELECT 1 FROM test_order o WHERE o.product_id = p.id AND o.lab_id = p.lab_id
                      AND o.kind = 'reference-enrolment' AND o.status <> 'cancelled')) AS building,
-         EXISTS (SELECT 1 FROM product_photo ph WHERE ph.product_id = p.id) AS has_photo,
-         count(*) OVER () AS total
+         EXISTS (SELECT 1 FROM product_photo ph WHERE ph.product_id = p.id) AS has_photo
   FROM product p
   JOIN client_organisation co ON co.id = p.client_organisation_id AND co.lab_id = p.lab_id
   LEFT JOIN LATERAL (
@@ -159,15 +171,17 @@ export async function clientProducts(manager: EntityManager, scope: ClientScope,
     search = 'AND (p.name ILIKE $3 OR p.description ILIKE $3)';
   }
   const { skip, take } = pageParams(query);
-  params.push(take, skip);
-  const rows: ProductRow[] = await manager.query(
-    `${PRODUCT_SQL}
-     WHERE p.lab_id = $1 AND p.client_organisation_id = $2 ${search}
-     ORDER BY ${PRODUCT_SORT[query.sort]} ${query.dir === 'asc' ? 'ASC' : 'DESC'}, p.id
-     LIMIT $${params.length - 1} OFFSET $${params.length}`,
-    params,
-  );
-  return toPage(rows.map(productView), rows.length ? Number(rows[0].total) : 0, query);
+  const [rows, counted] = await Promise.all([
+    manager.query(
+      `${PRODUCT_SQL}
+       WHERE p.lab_id = $1 AND p.client_organisation_id = $2 ${search}
+       ORDER BY ${PRODUCT_SORT[query.sort]} ${query.dir === 'asc' ? 'ASC' : 'DESC'}, p.id
+       LIMIT $${params.length + 1} OFFSET $${params.length + 2}`,
+      [...params, take, skip],
+    ) as Promise<ProductRow[]>,
+    cappedCount(manager, `FROM product p WHERE p.lab_id = $1 AND p.client_organisation_id = $2 ${search}`, params),
+  ]);
+  return toCappedPage(rows.map(productView), counted, query);
 }
 
 /** One of the organisation's products; another organisation's answers 404. */

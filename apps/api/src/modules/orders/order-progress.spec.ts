@@ -1,6 +1,6 @@
 import request from 'supertest';
 import { seedLabDemo } from '../../../../../docker-free-scripts/seed/lab-demo';
-import { analyseDemoSample, useTestApp } from '../../testing';
+import { analyseDemoSample, approveAndIssue, useTestApp } from '../../testing';
 
 // Issuing the first report creates the lab's signing credential, which takes seconds.
 jest.setTimeout(60_000);
@@ -29,7 +29,7 @@ describe('order status follows its samples', () => {
     const analysisId = await analyseDemoSample(t, 'OP-6TBS-3H');
     expect((await request(t.app).post(`/api/lab/analyses/${analysisId}/submit`).set(analyst)).status).toBe(200);
     expect(await orderStatusOf('OP-6TBS-3H')).toBe('in-progress');
-    expect((await request(t.app).post(`/api/lab/analyses/${analysisId}/approve`).set(await t.authFor('reviewer')).send({ comments: 'Agreed.' })).status).toBe(200);
+    await approveAndIssue(t, analysisId);
 
     expect(await orderStatusOf('OP-6TBS-3H')).toBe('completed');
   });

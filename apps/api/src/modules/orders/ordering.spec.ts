@@ -5,7 +5,7 @@ import { join } from 'node:path';
 import request from 'supertest';
 import { demoFiles } from '../../../../../docker-free-scripts/seed/lab-demo-files';
 import { seedLabDemo } from '../../../../../docker-free-scripts/seed/lab-demo';
-import { useTestApp } from '../../testing';
+import { approveAndIssue, useTestApp } from '../../testing';
 import { addCredits, creditBalance, removeCredits } from '../credits/credit-ledger';
 
 // Seeding the demo libraries and running a whole analysis take seconds on a busy two-core machine.
@@ -186,8 +186,7 @@ describe('check orders', () => {
     const analysis = await request(t.app).post(`/api/lab/samples/${sample.id}/analyses`).set(analyst).send({ libraryVersionId: version_id });
     expect(analysis.status).toBe(201);
     expect((await request(t.app).post(`/api/lab/analyses/${analysis.body.id}/submit`).set(analyst)).status).toBe(200);
-    const approved = await request(t.app).post(`/api/lab/analyses/${analysis.body.id}/approve`).set(await t.authFor('reviewer')).send({ comments: 'Agreed.' });
-    expect(approved.status).toBe(200);
+    await approveAndIssue(t, analysis.body.id);
 
     expect(await balance()).toEqual({ available: before.available - 1, reserved: before.reserved });
     expect(await ledgerFor(order.id)).toEqual([

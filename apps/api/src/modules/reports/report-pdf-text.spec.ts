@@ -4,7 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import request from 'supertest';
 import { seedLabDemo } from '../../../../../docker-free-scripts/seed/lab-demo';
-import { analyseDemoSample, useTestApp } from '../../testing';
+import { analyseDemoSample, approveAndIssue, useTestApp } from '../../testing';
 import { SCREENING_CAUTION } from './pdf/report-wording';
 
 // Seeding, analysing and issuing the first report (which creates the signing credential) take seconds.
@@ -28,9 +28,8 @@ describe('an issued report, read with pdftotext', () => {
     const analyst = await t.authFor('analyst');
     analysis = (await request(t.app).get(`/api/lab/analyses/${id}`).set(analyst)).body;
     expect((await request(t.app).post(`/api/lab/analyses/${id}/submit`).set(analyst)).status).toBe(200);
-    const approved = await request(t.app).post(`/api/lab/analyses/${id}/approve`).set(await t.authFor('reviewer')).send({ comments: 'Agreed.' });
-    expect(approved.status).toBe(200);
-    const [report] = await t.db.query('SELECT number, pdf FROM test_report WHERE id = $1', [approved.body.report.id]);
+    const issued = await approveAndIssue(t, id);
+    const [report] = await t.db.query('SELECT number, pdf FROM test_report WHERE id = $1', [issued.id]);
     const file = join(dir, `${report.number}.pdf`);
     writeFileSync(file, report.pdf);
     // REPORT_PDF_OUT=/tmp/x.pdf keeps a copy to render with pdftoppm and look at

@@ -1,6 +1,6 @@
 import request from 'supertest';
 import { seedLabDemo } from '../../../../../docker-free-scripts/seed/lab-demo';
-import { analyseDemoSample, measureDemoSample, useTestApp } from '../../testing';
+import { analyseDemoSample, issuedReport, measureDemoSample, useTestApp } from '../../testing';
 
 // Issuing the first report creates the lab's signing credential, which takes seconds.
 jest.setTimeout(30_000);
@@ -21,8 +21,9 @@ describe('analysis', () => {
     const r = res.body.result;
     expect(r.verdict).toBe('not-consistent');
     expect(r.nearest.distance).toBeGreaterThan(r.t99);
-    // Ridgeline Red's newest demo version holds 80 lots; the map shows the sample's 59 nearest.
-    expect(r.distances).toHaveLength(80);
+    // Ridgeline Red's newest demo version holds 80 lots; the result keeps and maps the sample's 59 nearest.
+    expect(r.lotCount).toBe(80);
+    expect(r.distances).toHaveLength(59);
     expect(r.map.lots).toHaveLength(59);
     expect(r.histogram.counts.reduce((a: number, b: number) => a + b, 0)).toBe(80);
     expect(r.thresholds).toMatchObject({ estimator: 'lognormal-ml', lotCount: 80, resamples: 2000 });
@@ -77,12 +78,14 @@ describe('review', () => {
     expect(a.status).toBe('submitted');
   });
 
-  it('approves with another reviewer, issuing the signed report in the same step', async () => {
+  it('approves with another reviewer at once (202), and a worker issues the signed report', async () => {
     const [submitted] = await t.db.query(`SELECT a.id, a.sample_id FROM analysis a WHERE a.status = 'submitted'`);
     const res = await request(t.app).post(`/api/lab/analyses/${submitted.id}/approve`).set(await t.authFor('reviewer')).send({ comments: 'Agreed.' });
-    expect(res.status).toBe(200);
-    expect(res.body.report.number).toEqual(expect.any(String));
-    const [report] = await t.db.query('SELECT verdict, sample_code, status FROM test_report WHERE id = $1', [res.body.report.id]);
+    expect(res.status).toBe(202);
+    expect(res.body).toEqual({ analysisId: submitted.id, state: 'issuing', report: null, detail: null });
+    const issued = await issuedReport(t, submitted.id);
+    expect(issued.number).toMatch(/^CAL-\d{4}-\d{6}$/);
+    const [report] = await t.db.query('SELECT verdict, sample_code, status FROM test_report WHERE id = $1', [issued.id]);
     // The demo's 11 % blend reads not consistent against Ridgeline Red's 80-lot library (see demo-verdicts.spec.ts).
     expect(report).toEqual({ verdict: 'not-consistent', sample_code: 'OP-4HXT-2B', status: 'issued' });
     const [sample] = await t.db.query('SELECT state FROM sample WHERE id = $1', [submitted.sample_id]);

@@ -4,7 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import request from 'supertest';
 import { seedLabDemo } from '../../../../../docker-free-scripts/seed/lab-demo';
-import { analyseDemoSample, useTestApp } from '../../testing';
+import { analyseDemoSample, approveAndIssue, useTestApp } from '../../testing';
 import { DEMO_MARK } from '../reports/pdf/report-wording';
 
 // Issuing the first report creates the lab's signing credential, which takes seconds.
@@ -24,9 +24,8 @@ async function reportText(code: string): Promise<string> {
   const id = await analyseDemoSample(t, code);
   await request(t.app).put(`/api/lab/analyses/${id}/remarks`).set(analyst).send({ remarks: 'Checked.' });
   expect((await request(t.app).post(`/api/lab/analyses/${id}/submit`).set(analyst)).status).toBe(200);
-  const approved = await request(t.app).post(`/api/lab/analyses/${id}/approve`).set(await t.authFor('reviewer')).send({ comments: 'Agreed.' });
-  expect(approved.status).toBe(200);
-  const [report] = await t.db.query('SELECT pdf FROM test_report WHERE id = $1', [approved.body.report.id]);
+  const issued = await approveAndIssue(t, id);
+  const [report] = await t.db.query('SELECT pdf FROM test_report WHERE id = $1', [issued.id]);
   const file = join(dir, `${code}.pdf`);
   writeFileSync(file, report.pdf);
   return execFileSync('pdftotext', [file, '-'], { encoding: 'utf8' }).replace(/\s+/g, ' ');

@@ -6,7 +6,8 @@ import type { MeasurementTemperature, ReportContent } from '../reports/pdf/repor
 import { revokedReportOf } from '../analyses/revoked-report';
 import type { Analysis } from '../analyses/analysis.entity';
 import { publishedLibrary } from '../libraries/published-library';
-import { referenceEnvelope } from './reference-envelope';
+import { referenceBandOf } from '../libraries/reference-band';
+import { envelopeOfBand } from './report-summaries';
 
 interface ContextRow {
   code: string;
@@ -140,8 +141,9 @@ export async function reportContentFor(manager: EntityManager, analysis: Analysi
     plots: {
       impedanceUnit: 'Ω·cm',
       sample: analysis.sampleSpectrum,
-      referenceEnvelope: referenceEnvelope(library.spectra, library.grid),
-      calibrationDistances: [...library.calibration.nearestDistances],
+      // Both summaries, not the lots: the band stored when the version was published and the analysis's bins.
+      referenceEnvelope: envelopeOfBand(await referenceBandOf(manager, analysis.labId, analysis.libraryVersionId)),
+      calibrationHistogram: { binEdges: r.histogram.binEdges, counts: r.histogram.counts },
       map: r.map.lots.length ? { lots: r.map.lots.map((l) => ({ label: l.lotCode, x: l.x, y: l.y })), sample: { x: r.map.sample[0], y: r.map.sample[1] } } : null,
     },
     testedFrom: (c.tested_from ?? analysis.createdAt).toISOString().slice(0, 10),

@@ -5,12 +5,9 @@ import type { AuthContext } from '../auth/auth-context';
 import { Analysis } from '../analyses/analysis.entity';
 import { recordAudit } from '../audit/record-audit';
 import { enqueueEmail } from '../mail/enqueue-email';
-import { refreshOrderStatus } from '../orders/order-progress';
-import { issueReport } from '../reports/issue-report';
-import { consumeSampleCredits } from '../orders/sample-credits';
 import { findLabSample, moveSample } from '../samples/sample-access';
+import { enqueueReportIssuance } from './report-issuance-job';
 import { AnalysisReview } from './analysis-review.entity';
-import { reportContentFor } from './report-content';
 
 /** A submitted analysis, locked, that this reviewer may decide on (four-eyes rule). */
 async function reviewable(manager: EntityManager, auth: AuthContext, labId: string, analysisId: string): Promise<Analysis> {
@@ -24,25 +21,18 @@ async function reviewable(manager: EntityManager, auth: AuthContext, labId: stri
 }
 
 /**
- * Approves and issues the report in the caller's transaction: if signing or storing the report
- * fails, the approval is rolled back with it.
+ * Approves: records the decision and queues the report's issuance in the caller's transaction,
+ * so the approval and its job commit together. A worker then numbers, renders, signs and stores
+ * the report (`issueApprovedReport`); the sample moves to `reported` when the report exists.
  */
 export async function approveAnalysis(manager: EntityManager, auth: AuthContext, labId: string, analysisId: string, comments: string): Promise<ApprovalResult> {
   const analysis = await reviewable(manager, auth, labId, analysisId);
   const sample = await findLabSample(manager, labId, analysis.sampleId, true);
-  const decidedAt = new Date();
-  const review = await manager.insert(AnalysisReview, { labId, analysisId, reviewerUserId: auth.userId, decision: 'approved', comments, reportId: null, decidedAt });
+  await manager.insert(AnalysisReview, { labId, analysisId, reviewerUserId: auth.userId, decision: 'approved', comments, reportId: null, decidedAt: new Date() });
   await manager.update(Analysis, { id: analysisId, labId }, { status: 'approved' });
-  await moveSample(manager, sample, 'reported');
-  await refreshOrderStatus(manager, labId, sample.orderId);
-  const { content, clientOrganisationId } = await reportContentFor(manager, analysis, auth.displayName);
-  const report = await issueReport(manager, {
-    labId, analysisId, sampleId: sample.id, clientOrganisationId, actorUserId: auth.userId, content, issuedAt: decidedAt,
-    steps: [(m, issued) => consumeSampleCredits(m, labId, sample.id, `Report ${issued.number} issued`, auth.userId).then(() => undefined)],
-  });
-  await manager.update(AnalysisReview, { id: review.identifiers[0].id as string, labId }, { reportId: report.id });
-  await recordAudit(manager, { labId, actorUserId: auth.userId, action: 'analysis.approved', subjectType: 'analysis', subjectId: analysisId, details: { sampleCode: sample.code, reportNumber: report.number } });
-  return { analysisId, report: { id: report.id, number: report.number } };
+  await enqueueReportIssuance(manager, labId, analysisId);
+  await recordAudit(manager, { labId, actorUserId: auth.userId, action: 'analysis.approved', subjectType: 'analysis', subjectId: analysisId, details: { sampleCode: sample.code } });
+  return { analysisId, state: 'issuing', report: null, detail: null };
 }
 
 /** Sends the analysis back with comments; the sample returns to the analyst, who is e-mailed. */

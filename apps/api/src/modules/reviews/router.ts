@@ -16,10 +16,10 @@ export function reviewsRouter(): Router {
   const reviewer = requireRole('reviewer');
   const id = (params: unknown) => (params as { id: string }).id;
 
-  registerRoute({ method: 'post', path: '/lab/analyses/:id/approve', tag, summary: 'Approve a submitted analysis and issue its signed report in the same transaction (never by its own analyst: 403 four-eyes)', roles: ['reviewer'], params: IdParamsSchema, body: ApproveAnalysisSchema, response: ApprovalResultSchema });
+  registerRoute({ method: 'post', path: '/lab/analyses/:id/approve', tag, summary: 'Approve a submitted analysis (never by its own analyst: 403 four-eyes); answers 202 while a worker issues the signed report: follow GET /lab/analyses/:id/issuance', roles: ['reviewer'], params: IdParamsSchema, body: ApproveAnalysisSchema, response: ApprovalResultSchema, status: 202 });
   router.post('/analyses/:id/approve', reviewer, validate({ params: IdParamsSchema, body: ApproveAnalysisSchema }), async (_req, res) => {
     const labId = labIdOf(res.locals.auth);
-    res.json(await dataSource.transaction((m) => approveAnalysis(m, res.locals.auth, labId, id(res.locals.params), (res.locals.body as ApproveAnalysis).comments)));
+    res.status(202).json(await dataSource.transaction((m) => approveAnalysis(m, res.locals.auth, labId, id(res.locals.params), (res.locals.body as ApproveAnalysis).comments)));
   });
 
   registerRoute({ method: 'post', path: '/lab/analyses/:id/return', tag, summary: 'Return a submitted analysis to its analyst with comments (sample → returned for rework)', roles: ['reviewer'], params: IdParamsSchema, body: ReturnAnalysisSchema, response: AnalysisSchema });

@@ -1,6 +1,10 @@
 import type { NextFunction, Request, RequestHandler, Response } from 'express';
 import multer from 'multer';
 import { ApiError } from '../../core/api-error';
+import { refuseUnsafeText, unsafeTextFields } from '../../core/safe-text';
+
+/** The longest file name kept with an upload (common file systems' limit). */
+export const MAX_FILE_NAME_LENGTH = 255;
 
 /**
  * Limits on the text parts of every multipart upload: an upload carries a handful of short form
@@ -43,13 +47,39 @@ export function multerProblem(err: multer.MulterError, limits: { fileSizeBytes: 
   }
 }
 
+/** What the multipart parser (busboy) says about a body it cannot read. */
+const MALFORMED_MULTIPART = /^(Malformed part header|Unexpected end of form|Multipart: Boundary not found|Malformed urlencoded form)/i;
+
 /** Runs a multer middleware and turns its errors into problems that say which limit was hit. */
 export function multipart(handler: RequestHandler, limits: { fileSizeBytes: number; files: number }): RequestHandler {
   return (req: Request, res: Response, next: NextFunction) => {
     handler(req, res, (err?: unknown) => {
-      if (!err) return next();
       if (err instanceof multer.MulterError) return next(multerProblem(err, limits));
-      next(err);
+      if (err instanceof Error && MALFORMED_MULTIPART.test(err.message)) {
+        // The multipart parser's own refusals (a part header past its size limit, a cut-off body).
+        return next(ApiError.badRequest(`The upload could not be read: ${err.message.toLowerCase()} (a file name or part header may be too long, or the body was cut off).`, [{ field: '(body)', message: err.message.toLowerCase() }]));
+      }
+      if (err) return next(err);
+      next(fileNameProblem(req));
     });
   };
+}
+
+/**
+ * File names are stored and shown beside what was uploaded: a NUL character or a lone surrogate
+ * (which PostgreSQL cannot store) or a name past `MAX_FILE_NAME_LENGTH` is a 400 naming the
+ * field and the file's place in it, e.g. `files[2]`.
+ */
+function fileNameProblem(req: Request): ApiError | undefined {
+  const files: Express.Multer.File[] = req.file ? [req.file] : Array.isArray(req.files) ? req.files : Object.values(req.files ?? {}).flat();
+  const seen = new Map<string, number>();
+  const errors = files.flatMap((f) => {
+    const index = seen.get(f.fieldname) ?? 0;
+    seen.set(f.fieldname, index + 1);
+    const field = `${f.fieldname}[${index}]`;
+    const unsafe = unsafeTextFields(f.originalname, field).map((e) => ({ field, message: `file name ${e.message}` }));
+    if (unsafe.length) return unsafe;
+    return f.originalname.length > MAX_FILE_NAME_LENGTH ? [{ field, message: `file name is longer than ${MAX_FILE_NAME_LENGTH} characters` }] : [];
+  });
+  return errors.length ? refuseUnsafeText('upload', errors) : undefined;
 }

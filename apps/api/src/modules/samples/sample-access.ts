@@ -1,5 +1,5 @@
 import type { EntityManager } from 'typeorm';
-import { canMoveSample, type SampleState } from '@ohmprint/contracts';
+import { canMoveSample, sampleStateInWords, type SampleState } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
 import { Sample } from './sample.entity';
 
@@ -19,7 +19,7 @@ export async function findLabSample(manager: EntityManager, labId: string, sampl
 /** Moves a sample along its state machine, or refuses with a 409 that says what is possible. */
 export async function moveSample(manager: EntityManager, sample: Sample, to: SampleState, extra: Partial<Sample> = {}): Promise<Sample> {
   if (!canMoveSample(sample.state, to)) {
-    throw ApiError.conflict(`Sample ${sample.code} is ${sample.state}; it cannot become ${to} from there.`);
+    throw ApiError.conflict(`Sample ${sample.code} is ${sampleStateInWords(sample.state)}; it cannot become ${sampleStateInWords(to)} from there.`);
   }
   const changes = { ...extra, state: to, stateChangedAt: new Date() };
   await manager.update(Sample, { id: sample.id, labId: sample.labId }, changes);
@@ -29,6 +29,6 @@ export async function moveSample(manager: EntityManager, sample: Sample, to: Sam
 /** Refuses unless the sample is in one of `states`. */
 export function requireSampleState(sample: Sample, states: readonly SampleState[], doing: string): void {
   if (!states.includes(sample.state)) {
-    throw ApiError.conflict(`Sample ${sample.code} is ${sample.state}; ${doing} needs it to be ${states.join(' or ')}.`);
+    throw ApiError.conflict(`Sample ${sample.code} is ${sampleStateInWords(sample.state)}; ${doing} needs it to be ${states.map(sampleStateInWords).join(' or ')}.`);
   }
 }

@@ -2,7 +2,7 @@ import type { EntityManager } from 'typeorm';
 import type { IntakeLimit, IntakePhoto, Page, SampleDetail, WorkQueueItem, WorkQueueQuery } from '@ohmprint/contracts';
 import { intakeWarnings, limitsFrom } from '../intake/intake-guardrails';
 import { ApiError } from '../../core/api-error';
-import { escapeLike, pageParams, toPage } from '../../core/paging';
+import { cappedCount, escapeLike, sparseSearchIds, pageParams, toCappedPage } from '../../core/paging';
 import { sampleTiming } from './sample-timing';
 import { revokedReportOf } from '../analyses/revoked-report';
 
@@ -16,51 +16,72 @@ interface QueueRow {
   placed_at: Date;
   received_at: Date | null;
   turnaround_days: number;
-  total: string;
 }
 
 const QUEUE_SORT: Record<WorkQueueQuery['sort'], string> = {
-  // Oldest first is "age descending", i.e. the clock's start ascending.
-  age: 'COALESCE(s.received_at, o.placed_at)',
+  // Oldest first is "age descending", i.e. the clock's start ascending. `sample.placed_at` is
+  // the order's, copied by a trigger, so this order has an index of its own.
+  age: 'COALESCE(s.received_at, s.placed_at)',
   // The turnaround target is the lab's, so the due date orders as the clock's start does.
-  due: 'COALESCE(s.received_at, o.placed_at)',
+  due: 'COALESCE(s.received_at, s.placed_at)',
   code: 's.code',
   state: 's.state',
   product: 'lower(p.name)',
   client: 'lower(co.name)',
 };
 
-/** The lab's work queue: samples by state, with age against the turnaround target. */
+/**
+ * The lab's work queue: samples by state, with age against the turnaround target. The page is
+ * chosen on the sample table alone (its index walks the order), then joined for names; the
+ * total is counted up to the cap.
+ */
 export async function workQueue(manager: EntityManager, labId: string, query: WorkQueueQuery): Promise<Page<WorkQueueItem>> {
   const params: unknown[] = [labId];
-  // A cancelled order's samples will never come: they are no one's work.
-  const where = ['s.lab_id = $1', "o.status <> 'cancelled'"];
+  // A cancelled order's samples will never come: they are no one's work. Only a sample still
+  // awaiting arrival can belong to a cancelled order, so only those look at their order.
+  const where = ['s.lab_id = $1', `NOT (s.state = 'awaiting-arrival' AND s.order_id IN (SELECT x.id FROM test_order x WHERE x.lab_id = $1 AND x.status = 'cancelled'))`];
   if (query.state.length) {
     params.push(query.state);
     where.push(`s.state = ANY($${params.length}::text[])`);
   }
+  const joined = query.sort === 'product' || query.sort === 'client';
   if (query.q) {
     params.push(escapeLike(query.q));
     const p = `$${params.length}`;
-    where.push(`(s.code ILIKE ${p} OR p.name ILIKE ${p} OR co.name ILIKE ${p} OR s.claimed_lot ILIKE ${p})`);
+    // one arm per column, each on its own index (trigram for the sample's texts): an OR across
+    // tables would make the database test every sample of the lab
+    const products = `SELECT p2.id FROM product p2 WHERE p2.lab_id = $1 AND p2.name ILIKE ${p}`;
+    const clients = `SELECT c2.id FROM client_organisation c2 WHERE c2.lab_id = $1 AND c2.name ILIKE ${p}`;
+    const arms = `SELECT x.id FROM sample x WHERE x.lab_id = $1 AND x.code ILIKE ${p}
+      UNION ALL SELECT x.id FROM sample x WHERE x.lab_id = $1 AND x.claimed_lot ILIKE ${p}
+      UNION ALL SELECT x.id FROM sample x JOIN test_order o2 ON o2.id = x.order_id WHERE x.lab_id = $1 AND o2.lab_id = $1 AND o2.product_id IN (${products})
+      UNION ALL SELECT x.id FROM sample x JOIN test_order o2 ON o2.id = x.order_id WHERE x.lab_id = $1 AND o2.lab_id = $1 AND o2.client_organisation_id IN (${clients})`;
+    const ids = await sparseSearchIds(manager, arms, params);
+    if (ids) params[params.length - 1] = ids;
+    where.push(ids
+      ? `s.id = ANY(${p}::uuid[])`
+      : `(s.code ILIKE ${p} OR s.claimed_lot ILIKE ${p} OR EXISTS (SELECT 1 FROM test_order o2 WHERE o2.id = s.order_id
+           AND (o2.product_id IN (${products}) OR o2.client_organisation_id IN (${clients}))))`);
   }
   // For age the user's direction is about age, the opposite of the timestamp's.
   const ascending = query.sort === 'age' ? query.dir === 'desc' : query.dir === 'asc';
+  const order = `${QUEUE_SORT[query.sort]} ${ascending ? 'ASC' : 'DESC'}, s.code ASC`;
   const { skip, take } = pageParams(query);
-  params.push(take, skip);
+  const counted = cappedCount(manager, `FROM sample s WHERE ${where.join(' AND ')}`, params);
+  const pageParamsAt = params.length;
   const rows: QueueRow[] = await manager.query(
     `SELECT s.id, s.code, s.state, p.name AS product_name, p.matrix, co.name AS client_name,
-            o.placed_at, s.received_at, l.turnaround_target_days AS turnaround_days,
-            count(*) OVER () AS total
-     FROM sample s
-     JOIN test_order o ON o.id = s.order_id AND o.lab_id = s.lab_id
-     JOIN product p ON p.id = o.product_id AND p.lab_id = s.lab_id
-     JOIN client_organisation co ON co.id = o.client_organisation_id AND co.lab_id = s.lab_id
-     JOIN lab l ON l.id = s.lab_id
-     WHERE ${where.join(' AND ')}
-     ORDER BY ${QUEUE_SORT[query.sort]} ${ascending ? 'ASC' : 'DESC'}, s.code ASC
-     LIMIT $${params.length - 1} OFFSET $${params.length}`,
-    params,
+            o.placed_at, s.received_at, l.turnaround_target_days AS turnaround_days
+     FROM (SELECT s.id, s.code, s.state, s.order_id, s.received_at, s.placed_at FROM sample s
+           ${joined ? 'JOIN test_order o ON o.id = s.order_id JOIN product p ON p.id = o.product_id JOIN client_organisation co ON co.id = o.client_organisation_id' : ''}
+           WHERE ${where.join(' AND ')}
+           ORDER BY ${order} LIMIT $${pageParamsAt + 1} OFFSET $${pageParamsAt + 2}) s
+     JOIN test_order o ON o.id = s.order_id AND o.lab_id = $1
+     JOIN product p ON p.id = o.product_id AND p.lab_id = $1
+     JOIN client_organisation co ON co.id = o.client_organisation_id AND co.lab_id = $1
+     JOIN lab l ON l.id = $1
+     ORDER BY ${order}`,
+    [...params, take, skip],
   );
   const now = new Date();
   const items = rows.map(
@@ -77,20 +98,7 @@ export async function workQueue(manager: EntityManager, labId: string, query: Wo
       ...sampleTiming(r.placed_at, r.received_at, r.turnaround_days, now),
     }),
   );
-  return toPage(items, rows.length ? Number(rows[0].total) : await countQueue(manager, where, params.slice(0, -2)), query);
-}
-
-/** A page past the end has no rows to carry the total, so count separately. */
-async function countQueue(manager: EntityManager, where: string[], params: unknown[]): Promise<number> {
-  const [row] = await manager.query(
-    `SELECT count(*) AS n FROM sample s
-     JOIN test_order o ON o.id = s.order_id AND o.lab_id = s.lab_id
-     JOIN product p ON p.id = o.product_id AND p.lab_id = s.lab_id
-     JOIN client_organisation co ON co.id = o.client_organisation_id AND co.lab_id = s.lab_id
-     WHERE ${where.join(' AND ')}`,
-    params,
-  );
-  return Number(row.n);
+  return toCappedPage(items, await counted, query);
 }
 
 interface DetailRow {

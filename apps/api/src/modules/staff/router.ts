@@ -73,6 +73,8 @@ export function staffRouter(): Router {
         roles: input.roles,
         invitedByUserId: auth.userId,
         emailField: 'email',
+        // A lab admin must not learn whether an address has an account anywhere on the platform.
+        quietWhenTaken: true,
       });
     });
     res.status(201).json(toInvitationDto(invitation));

@@ -1,6 +1,7 @@
 import type { EntityManager } from 'typeorm';
-import { fitModel, MODEL_CATALOG, pearson } from '@ohmprint/spectral-engine';
+import { MODEL_CATALOG, pearson } from '@ohmprint/spectral-engine';
 import { CHEMISTRY_FIELD_NAMES, CHEMISTRY_FIELDS, type CorrelationCell, type CorrelationStudy } from '@ohmprint/contracts';
+import { runCpuTask } from '../../core/cpu-pool/cpu-pool';
 import { publishedLibrary } from '../libraries/published-library';
 
 /**
@@ -36,8 +37,8 @@ export function correlationTable(parameters: Record<string, (number | null)[]>, 
   return cells;
 }
 
-/** Lets the event loop breathe between fits, so other requests are not held up by a large library. */
-const breathe = () => new Promise<void>((resolve) => setImmediate(resolve));
+/** Lots fitted per worker task: the thread is handed back between batches, so sign-ins and uploads keep their turn. */
+const FIT_BATCH = 50;
 
 /**
  * Fitted parameters of each lot of a published (frozen) version under its method's model, fitted
@@ -52,16 +53,18 @@ async function lotFits(manager: EntityManager, labId: string, versionId: string)
     [labId, versionId, model],
   );
   const fits = new Map(cached.map((c) => [c.lot_id, c.parameters]));
-  for (let i = 0; i < library.lots.length; i++) {
-    const lot = library.lots[i];
-    if (fits.has(lot.id)) continue;
-    await breathe();
-    const fit = fitModel(library.spectra[i], model, { restarts: 1 });
-    const parameters = fit.converged ? fit.parameters : null;
-    await manager.query(`INSERT INTO lot_fit (lab_id, lot_id, model, parameters, reason) VALUES ($1, $2, $3, $4, $5) ON CONFLICT DO NOTHING`, [
-      labId, lot.id, model, parameters ? JSON.stringify(parameters) : null, fit.converged ? null : fit.reason,
-    ]);
-    fits.set(lot.id, parameters);
+  const missing = library.lots.map((lot, i) => ({ lot, i })).filter(({ lot }) => !fits.has(lot.id));
+  for (let start = 0; start < missing.length; start += FIT_BATCH) {
+    const batch = missing.slice(start, start + FIT_BATCH);
+    // Fitted in a worker thread; the event loop only stores the answers.
+    const results = await runCpuTask('fitLots', { spectra: batch.map(({ i }) => library.spectra[i]), model });
+    for (const [k, { lot }] of batch.entries()) {
+      const { parameters, reason } = results[k];
+      await manager.query(`INSERT INTO lot_fit (lab_id, lot_id, model, parameters, reason) VALUES ($1, $2, $3, $4, $5) ON CONFLICT DO NOTHING`, [
+        labId, lot.id, model, parameters ? JSON.stringify(parameters) : null, reason,
+      ]);
+      fits.set(lot.id, parameters);
+    }
   }
   return { model, fits };
 }

@@ -1,6 +1,8 @@
 import { In, type EntityManager } from 'typeorm';
 import { quantile, spectrumDistance, type Spectrum } from '@ohmprint/spectral-engine';
 import type { RepeatabilityStudy } from '@ohmprint/contracts';
+import type { MethodSettings } from '@ohmprint/contracts';
+import { runCpuTask } from '../../core/cpu-pool/cpu-pool';
 import { publishedLibrary } from '../libraries/published-library';
 import { prepareReplicates } from '../measurements/prepared-replicates';
 import { Replicate } from '../measurements/replicate.entity';
@@ -42,6 +44,19 @@ const q = (values: number[], p: number) => (values.length ? quantile(values, p) 
  * method) against the distances between the version's lots. The demo's synthesised blind checks
  * add theirs (three sweeps each, so three pairs per check), flagged as such.
  */
+/** The distances within each sample's prepared replicates and between the lots (run in a worker thread). */
+export function repeatabilityDistances(input: { groups: Replicate[][]; method: MethodSettings; grid: Float64Array; lots: Spectrum[] }): { within: number[]; used: number; between: number[] } {
+  const within: number[] = [];
+  let used = 0;
+  for (const reps of input.groups) {
+    const spectra = prepareReplicates(reps, input.method, input.grid).flatMap((p) => (p.spectrum ? [p.spectrum] : []));
+    if (spectra.length < 2) continue;
+    used++;
+    for (const d of pairwise(spectra)) within.push(d);
+  }
+  return { within, used, between: pairwise(input.lots) };
+}
+
 export async function repeatabilityStudy(manager: EntityManager, labId: string, versionId: string): Promise<RepeatabilityStudy> {
   const library = await publishedLibrary(manager, labId, versionId);
   const samples: { id: string }[] = await manager.query(
@@ -54,14 +69,10 @@ export async function repeatabilityStudy(manager: EntityManager, labId: string, 
   const replicates = samples.length ? await manager.find(Replicate, { where: { labId, sampleId: In(samples.map((s) => s.id)), excluded: false } }) : [];
   const bySample = new Map<string, Replicate[]>();
   for (const r of replicates) bySample.set(r.sampleId, [...(bySample.get(r.sampleId) ?? []), r]);
-  const within: number[] = [];
-  let used = 0;
-  for (const reps of bySample.values()) {
-    const spectra = prepareReplicates(reps, library.method, library.grid).flatMap((p) => (p.spectrum ? [p.spectrum] : []));
-    if (spectra.length < 2) continue;
-    used++;
-    within.push(...pairwise(spectra));
-  }
+  // Preparing every replicate and pairing up to 300 lots is CPU work: a worker thread does it.
+  const light = [...bySample.values()].map((reps) => reps.map((r) => ({ ...r, rawFile: Buffer.alloc(0) }) as Replicate));
+  const { within, used: measured, between } = await runCpuTask('repeatabilityDistances', { groups: light, method: library.method, grid: library.grid, lots: library.spectra.slice(0, LOT_LIMIT) });
+  let used = measured;
   const [demo]: { distances: number[] | null }[] = await manager.query(
     `SELECT array_agg(d) AS distances FROM synthesised_trial t, unnest(t.replicate_distances) AS d
      WHERE t.lab_id = $1 AND t.product_id = $2 AND t.kind = 'blind-check'`,
@@ -72,7 +83,6 @@ export async function repeatabilityStudy(manager: EntityManager, labId: string, 
     within.push(...synthesised);
     used += synthesised.length / 3;
   }
-  const between = pairwise(library.spectra.slice(0, LOT_LIMIT));
   const medWithin = q(within, 0.5);
   const medBetween = q(between, 0.5);
   return {

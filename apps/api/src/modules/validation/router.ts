@@ -15,6 +15,7 @@ import {
   ValidationFlagsSchema,
   type Role,
 } from '@ohmprint/contracts';
+import { runCpuTask } from '../../core/cpu-pool/cpu-pool';
 import { routeTable } from '../../core/route-table';
 import { labIdOf } from '../../core/tenancy';
 import { dataSource } from '../../db/data-source';
@@ -27,7 +28,6 @@ import { toCsv } from './csv';
 import { repeatabilityStudy } from './repeatability';
 import { createCell, createInstrument, recordStandardRun } from './standard-runs';
 import { detectionStudy, ongoingPerformance, setValidationFlags, validationFlags } from './studies';
-import { renderValidationSummary } from './validation-pdf';
 
 const tag = 'Validation';
 /** Who may open the method-validation screens. */
@@ -105,7 +105,8 @@ export function validationRouter(): Router {
     const [{ product_id: productId }] = await m.query(`SELECT l.product_id FROM library_version v JOIN reference_library l ON l.id = v.library_id WHERE v.id = $1 AND v.lab_id = $2`, [idOf(res), labId]);
     const [{ name: labName }] = await m.query(`SELECT name FROM lab WHERE id = $1`, [labId]);
     const cellIds: { id: string }[] = await m.query(`SELECT id FROM measurement_cell WHERE lab_id = $1 ORDER BY lower(name) LIMIT 8`, [labId]);
-    const pdf = await renderValidationSummary({
+    // Rendered in a worker thread (vector charts of every study can take a while).
+    const pdf = Buffer.from(await runCpuTask('validationSummary', { data: {
       labName,
       generatedAt: new Date().toISOString(),
       correlation,
@@ -113,7 +114,7 @@ export function validationRouter(): Router {
       detection: await detectionStudy(m, labId, productId),
       performance: await ongoingPerformance(m, labId),
       cells: await Promise.all(cellIds.map((c) => cellControlChart(m, labId, c.id))),
-    });
+    } }));
     res.attachment(`${dated(`validation-${correlation.productName}-v${correlation.version}`)}.pdf`).type('application/pdf').send(pdf);
   });
 

@@ -66,7 +66,7 @@ export async function recordStandardRun(
   if (!cell) throw ApiError.notFound('Cell');
   if (!file) throw ApiError.badRequest('Attach the standard’s spectrum in the "file" field.', [{ field: 'file', message: 'is required' }]);
   const measuredAt = fields.measuredAt ? new Date(fields.measuredAt) : new Date();
-  if (measuredAt.getTime() > Date.now() + 5 * 60_000) throw ApiError.badRequest('measuredAt is in the future.', [{ field: 'measuredAt', message: 'must not be in the future' }]);
+  if (measuredAt.getTime() > Date.now() + 5 * 60_000) throw ApiError.badRequest('The measurement time is in the future; enter when the standard was measured.', [{ field: 'measuredAt', message: 'must not be in the future' }]);
   let standard;
   try {
     standard = fields.certifiedConductivityAt25UsPerCm

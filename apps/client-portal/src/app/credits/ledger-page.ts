@@ -1,13 +1,12 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, DestroyRef, inject, viewChild, type AfterViewInit } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
-import { MatPaginator, MatPaginatorModule } from '@angular/material/paginator';
+import { MatPaginatorModule } from '@angular/material/paginator';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
-import { MatSort, MatSortModule } from '@angular/material/sort';
+import { MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import type { LedgerEntry } from '@ohmprint/contracts';
 import { EmptyState, ListStatus, SearchField, ServerList } from '@ohmprint/ui';
-import { Subject } from 'rxjs';
 import { CreditsData } from './credits-data';
 import { CreditsTabs } from './credits-tabs';
 import { LEDGER_KIND_LOOK } from './payment-state';
@@ -24,12 +23,12 @@ import { LEDGER_KIND_LOOK } from './payment-state';
       </div>
     </header>
     <ohm-credits-tabs>
-      <ohm-search-field label="Search by reason, sample code or person" (queryChange)="search.next($event)" />
+      <ohm-search-field label="Search by reason, sample code or person" [initial]="list.state().q" (queryChange)="list.search($event)" />
       <div class="ohm-table-card">
         @if (list.loading()) {
           <mat-progress-bar mode="indeterminate" aria-label="Loading the ledger" />
         }
-        <table mat-table [dataSource]="list.rows()" matSort matSortActive="entryNo" matSortDirection="desc" matSortDisableClear aria-label="Credit ledger">
+        <table mat-table [dataSource]="list.rows()" matSort [matSortActive]="list.state().sort" [matSortDirection]="list.state().dir" matSortDisableClear (matSortChange)="list.sortBy($event)" aria-label="Credit ledger">
           <ng-container matColumnDef="entryNo">
             <th mat-header-cell *matHeaderCellDef mat-sort-header>When</th>
             <td mat-cell *matCellDef="let e">{{ e.createdAt | date: 'd MMM y, HH:mm' }}</td>
@@ -62,24 +61,21 @@ import { LEDGER_KIND_LOOK } from './payment-state';
             <p>When your organisation buys credits or orders a check, each movement appears here.</p>
           </ohm-empty-state>
         </ohm-list-status>
-        <mat-paginator [length]="list.total()" [pageSize]="20" [pageSizeOptions]="[10, 20, 50, 100]" aria-label="Ledger pages" />
+        <mat-paginator [length]="list.total()" [pageIndex]="list.state().page - 1" [pageSize]="list.state().pageSize" [pageSizeOptions]="list.pageSizes" (page)="list.turn($event)" aria-label="Ledger pages" />
       </div>
     </ohm-credits-tabs>
   `,
   styleUrl: './credits.scss',
 })
-export class LedgerPage implements AfterViewInit {
+export class LedgerPage {
   private readonly data = inject(CreditsData);
-  private readonly destroyRef = inject(DestroyRef);
-  private readonly sort = viewChild.required(MatSort);
-  private readonly paginator = viewChild.required(MatPaginator);
   protected readonly columns = ['entryNo', 'kind', 'change', 'reason', 'actor', 'after'];
-  protected readonly list = new ServerList<LedgerEntry>();
-  protected readonly search = new Subject<string>();
-
-  ngAfterViewInit(): void {
-    this.list.connect({ sort: this.sort(), paginator: this.paginator(), search: this.search, fetch: (q) => this.data.ledger(q), destroyRef: this.destroyRef });
-  }
+  protected readonly list = new ServerList<LedgerEntry>({
+    sorts: ['entryNo', 'kind'],
+    sort: 'entryNo',
+    dir: 'desc',
+    fetch: (query) => this.data.ledger(query),
+  });
 
   protected look(e: LedgerEntry): { label: string; icon: string } {
     return LEDGER_KIND_LOOK[e.kind];

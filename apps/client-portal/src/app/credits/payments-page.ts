@@ -1,17 +1,16 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, DestroyRef, inject, signal, viewChild, type AfterViewInit } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { FormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
-import { MatPaginator, MatPaginatorModule } from '@angular/material/paginator';
+import { MatPaginatorModule } from '@angular/material/paginator';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
-import { MatSort, MatSortModule } from '@angular/material/sort';
+import { MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
-import { formatMoney, type Payment, type PaymentState } from '@ohmprint/contracts';
-import { EmptyState, ListStatus, SearchField, ServerList } from '@ohmprint/ui';
-import { Subject } from 'rxjs';
+import { PAYMENT_STATES, formatMoney, type Payment, type PaymentState } from '@ohmprint/contracts';
+import { EmptyState, ListStatus, SearchField, ServerList, oneOf } from '@ohmprint/ui';
 import { CreditsData } from './credits-data';
 import { CreditsTabs } from './credits-tabs';
 import { PAYMENT_STATE_LOOK } from './payment-state';
@@ -31,8 +30,8 @@ import { ReceiptDialog } from './receipt-dialog';
     </header>
     <ohm-credits-tabs>
       <div class="filters">
-        <ohm-search-field label="Search by pack or receipt number" (queryChange)="search.next($event)" />
-        <mat-button-toggle-group aria-label="Filter by state" [ngModel]="status()" (ngModelChange)="filter($event)">
+        <ohm-search-field label="Search by pack or receipt number" [initial]="list.state().q" (queryChange)="list.search($event)" />
+        <mat-button-toggle-group aria-label="Filter by state" [ngModel]="list.filters().status" (ngModelChange)="list.filter({ status: $event })">
           <mat-button-toggle [value]="null">All</mat-button-toggle>
           <mat-button-toggle value="paid">Paid</mat-button-toggle>
           <mat-button-toggle value="refunded">Refunded</mat-button-toggle>
@@ -44,7 +43,7 @@ import { ReceiptDialog } from './receipt-dialog';
         @if (list.loading()) {
           <mat-progress-bar mode="indeterminate" aria-label="Loading payments" />
         }
-        <table mat-table [dataSource]="list.rows()" matSort matSortActive="createdAt" matSortDirection="desc" matSortDisableClear aria-label="Payments">
+        <table mat-table [dataSource]="list.rows()" matSort [matSortActive]="list.state().sort" [matSortDirection]="list.state().dir" matSortDisableClear (matSortChange)="list.sortBy($event)" aria-label="Payments">
           <ng-container matColumnDef="createdAt">
             <th mat-header-cell *matHeaderCellDef mat-sort-header>Started</th>
             <td mat-cell *matCellDef="let p">{{ p.createdAt | date: 'd MMM y, HH:mm' }}<br /><span class="ohm-muted">by {{ p.startedBy?.displayName ?? '—' }}</span></td>
@@ -80,26 +79,23 @@ import { ReceiptDialog } from './receipt-dialog';
             <p>When your organisation buys a credit pack, the payment and its receipt appear here.</p>
           </ohm-empty-state>
         </ohm-list-status>
-        <mat-paginator [length]="list.total()" [pageSize]="20" [pageSizeOptions]="[10, 20, 50, 100]" aria-label="Payment pages" />
+        <mat-paginator [length]="list.total()" [pageIndex]="list.state().page - 1" [pageSize]="list.state().pageSize" [pageSizeOptions]="list.pageSizes" (page)="list.turn($event)" aria-label="Payment pages" />
       </div>
     </ohm-credits-tabs>
   `,
   styleUrl: './credits.scss',
 })
-export class PaymentsPage implements AfterViewInit {
+export class PaymentsPage {
   private readonly data = inject(CreditsData);
   private readonly dialog = inject(MatDialog);
-  private readonly destroyRef = inject(DestroyRef);
-  private readonly sort = viewChild.required(MatSort);
-  private readonly paginator = viewChild.required(MatPaginator);
   protected readonly columns = ['createdAt', 'pack', 'amount', 'status', 'receipt'];
-  protected readonly list = new ServerList<Payment>();
-  protected readonly search = new Subject<string>();
-  protected readonly status = signal<PaymentState | null>(null);
-
-  ngAfterViewInit(): void {
-    this.list.connect({ sort: this.sort(), paginator: this.paginator(), search: this.search, fetch: (q) => this.data.payments(q, this.status()), destroyRef: this.destroyRef });
-  }
+  protected readonly list = new ServerList<Payment, { status: PaymentState | null }>({
+    sorts: ['createdAt', 'amount', 'status'],
+    sort: 'createdAt',
+    dir: 'desc',
+    filters: { status: oneOf(PAYMENT_STATES) },
+    fetch: (query, f) => this.data.payments(query, f.status),
+  });
 
   protected look(s: PaymentState) {
     return PAYMENT_STATE_LOOK[s];
@@ -107,12 +103,6 @@ export class PaymentsPage implements AfterViewInit {
 
   protected money(p: Payment): string {
     return formatMoney(p.amount, p.currency);
-  }
-
-  protected filter(status: PaymentState | null): void {
-    this.status.set(status);
-    this.paginator().pageIndex = 0;
-    this.list.reload();
   }
 
   protected openReceipt(p: Payment): void {

@@ -1,13 +1,13 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
-import { MatPaginatorModule, type PageEvent } from '@angular/material/paginator';
+import { MatPaginatorModule } from '@angular/material/paginator';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSlideToggleModule } from '@angular/material/slide-toggle';
-import { Router, RouterLink } from '@angular/router';
-import { NOTIFICATION_EVENT_LABELS, type ClientNotification, type ClientNotificationPage, type NotificationEvent } from '@ohmprint/contracts';
-import { EmptyState, Notifier } from '@ohmprint/ui';
+import { RouterLink } from '@angular/router';
+import { NOTIFICATION_EVENT_LABELS, type ClientNotification, type NotificationEvent } from '@ohmprint/contracts';
+import { EmptyState, ListStatus, Notifier, ServerList, onOff } from '@ohmprint/ui';
 import { NotificationsData } from './notifications-data';
 
 const EVENT_ICONS: Record<NotificationEvent, string> = {
@@ -21,13 +21,11 @@ const EVENT_ICONS: Record<NotificationEvent, string> = {
   'report-revoked': 'block',
 };
 
-const PAGE_SIZE = 20;
-
 /** What the lab told the organisation: newest first, unread marked, each linking to its order or report. */
 @Component({
   selector: 'ohm-notifications-page',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [DatePipe, RouterLink, MatButtonModule, MatIconModule, MatPaginatorModule, MatProgressBarModule, MatSlideToggleModule, EmptyState],
+  imports: [DatePipe, RouterLink, MatButtonModule, MatIconModule, MatPaginatorModule, MatProgressBarModule, MatSlideToggleModule, EmptyState, ListStatus],
   template: `
     <header class="ohm-page-header">
       <div>
@@ -36,40 +34,41 @@ const PAGE_SIZE = 20;
       </div>
       <button mat-stroked-button type="button" (click)="markAll()" [disabled]="!unreadCount()"><mat-icon>done_all</mat-icon>Mark all read</button>
     </header>
-    <mat-slide-toggle [checked]="unreadOnly()" (change)="setUnreadOnly($event.checked)">Unread only</mat-slide-toggle>
-    @if (listing(); as p) {
-      @if (p.items.length) {
-        <ul class="list" aria-label="Notifications">
-          @for (n of p.items; track n.id) {
-            <li class="item" [class.unread]="!n.readAt">
-              <mat-icon class="kind" aria-hidden="true">{{ icon(n) }}</mat-icon>
-              <div class="text">
-                <p class="meta">
-                  <span>{{ label(n) }}</span> · <time [attr.datetime]="n.createdAt">{{ n.createdAt | date: 'd MMM y, HH:mm' }}</time>
-                  @if (!n.readAt) { · <strong class="new">Unread</strong> }
-                </p>
-                <h2 class="subject">{{ n.subject }}</h2>
-                <p class="body">{{ n.body }}</p>
-              </div>
-              <div class="actions">
-                @if (n.link) {
-                  <a mat-button [routerLink]="n.link" (click)="open(n)"><mat-icon>open_in_new</mat-icon>{{ n.link.startsWith('/reports') ? 'Open reports' : 'Open order' }}</a>
-                }
-                @if (!n.readAt) {
-                  <button mat-button type="button" (click)="markRead(n)">Mark read</button>
-                }
-              </div>
-            </li>
-          }
-        </ul>
-        <mat-paginator [length]="p.total" [pageIndex]="p.page - 1" [pageSize]="p.pageSize" [hidePageSize]="true" (page)="turn($event)" aria-label="Notification pages" />
-      } @else {
+    <mat-slide-toggle [checked]="unreadOnly()" (change)="list.filter({ unread: $event.checked })">Unread only</mat-slide-toggle>
+    @if (list.loading()) {
+      <mat-progress-bar mode="indeterminate" aria-label="Loading notifications" />
+    }
+    @if (list.rows().length) {
+      <ul class="list" aria-label="Notifications">
+        @for (n of list.rows(); track n.id) {
+          <li class="item" [class.unread]="!n.readAt">
+            <mat-icon class="kind" aria-hidden="true">{{ icon(n) }}</mat-icon>
+            <div class="text">
+              <p class="meta">
+                <span>{{ label(n) }}</span> · <time [attr.datetime]="n.createdAt">{{ n.createdAt | date: 'd MMM y, HH:mm' }}</time>
+                @if (!n.readAt) { · <strong class="new">Unread</strong> }
+              </p>
+              <h2 class="subject">{{ n.subject }}</h2>
+              <p class="body">{{ n.body }}</p>
+            </div>
+            <div class="actions">
+              @if (n.link) {
+                <a mat-button [routerLink]="n.link" (click)="open(n)"><mat-icon>open_in_new</mat-icon>{{ n.link.startsWith('/reports') ? 'Open reports' : 'Open order' }}</a>
+              }
+              @if (!n.readAt) {
+                <button mat-button type="button" (click)="markRead(n)">Mark read</button>
+              }
+            </div>
+          </li>
+        }
+      </ul>
+      <mat-paginator [length]="list.total()" [pageIndex]="list.state().page - 1" [pageSize]="list.state().pageSize" [hidePageSize]="true" (page)="list.turn($event)" aria-label="Notification pages" />
+    } @else if (!list.loading()) {
+      <ohm-list-status [list]="list" failedHeading="Your notifications could not be loaded" noMatch="No notification matches" searchHint="">
         <ohm-empty-state icon="notifications_none" [heading]="unreadOnly() ? 'Nothing unread' : 'No notifications yet'">
           <p>When the lab receives a sample, issues a report or changes one, it appears here.</p>
         </ohm-empty-state>
-      }
-    } @else {
-      <mat-progress-bar mode="indeterminate" aria-label="Loading notifications" />
+      </ohm-list-status>
     }
   `,
   styles: `
@@ -94,24 +93,17 @@ const PAGE_SIZE = 20;
 })
 export class NotificationsPage {
   private readonly data = inject(NotificationsData);
-  private readonly router = inject(Router);
   private readonly notifier = inject(Notifier);
-  /** Query parameters (kept in the URL, so a reload or a shared link shows the same page). */
-  readonly page = input<string | undefined>(undefined);
-  readonly unread = input<string | undefined>(undefined);
-
-  protected readonly listing = signal<ClientNotificationPage | null>(null);
-  protected readonly unreadOnly = computed(() => this.unread() === 'true');
-  private readonly pageNumber = computed(() => Math.max(1, Number(this.page()) || 1));
+  protected readonly list = new ServerList<ClientNotification, { unread: boolean }>({
+    sorts: ['createdAt'],
+    sort: 'createdAt',
+    dir: 'desc',
+    pageSizes: [20],
+    filters: { unread: onOff() },
+    fetch: (query, f) => this.data.list(query.page, query.pageSize, f.unread),
+  });
+  protected readonly unreadOnly = computed(() => this.list.filters().unread);
   protected readonly unreadCount = computed(() => this.data.unread() ?? 0);
-  private readonly reloads = signal(0);
-
-  constructor() {
-    effect(() => {
-      this.reloads();
-      this.data.list(this.pageNumber(), PAGE_SIZE, this.unreadOnly()).subscribe((p) => this.listing.set(p));
-    });
-  }
 
   protected icon(n: ClientNotification): string {
     return EVENT_ICONS[n.event];
@@ -121,26 +113,18 @@ export class NotificationsPage {
     return NOTIFICATION_EVENT_LABELS[n.event];
   }
 
-  protected setUnreadOnly(on: boolean): void {
-    void this.router.navigate([], { queryParams: { unread: on ? 'true' : null, page: null }, queryParamsHandling: 'merge' });
-  }
-
-  protected turn(event: PageEvent): void {
-    void this.router.navigate([], { queryParams: { page: event.pageIndex + 1 }, queryParamsHandling: 'merge' });
-  }
-
   protected open(n: ClientNotification): void {
     if (!n.readAt) this.data.markRead(n.id).subscribe();
   }
 
   protected markRead(n: ClientNotification): void {
-    this.data.markRead(n.id).subscribe(() => this.reloads.update((r) => r + 1));
+    this.data.markRead(n.id).subscribe(() => this.list.reload());
   }
 
   protected markAll(): void {
     this.data.markAllRead().subscribe((marked) => {
       this.notifier.success(marked === 1 ? 'One notification marked read.' : `${marked} notifications marked read.`);
-      this.reloads.update((r) => r + 1);
+      this.list.reload();
     });
   }
 }

@@ -1,15 +1,14 @@
-import { ChangeDetectionStrategy, Component, DestroyRef, computed, inject, viewChild, type AfterViewInit } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
-import { MatPaginator, MatPaginatorModule } from '@angular/material/paginator';
+import { MatPaginatorModule } from '@angular/material/paginator';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
-import { MatSort, MatSortModule } from '@angular/material/sort';
+import { MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 import { MATRIX_LABELS, type ProductSummary } from '@ohmprint/contracts';
 import { EmptyState, Notifier, SearchField, ServerList, Session, dialogResult } from '@ohmprint/ui';
-import { Subject } from 'rxjs';
 import { libraryLook } from './library-state';
 import { ProductDialog } from './product-dialog';
 import { ProductPhoto } from './product-photo';
@@ -30,10 +29,10 @@ import { ProductsData } from './products-data';
         <button mat-flat-button type="button" (click)="register()"><mat-icon>add</mat-icon>Register a product</button>
       }
     </header>
-    <ohm-search-field label="Search by name or description" (queryChange)="search.next($event)" />
+    <ohm-search-field label="Search by name or description" [initial]="list.state().q" (queryChange)="list.search($event)" />
     <div class="ohm-table-card">
       @if (list.loading()) { <mat-progress-bar mode="indeterminate" aria-label="Loading products" /> }
-      <table mat-table [dataSource]="list.rows()" matSort matSortActive="name" matSortDirection="asc" matSortDisableClear aria-label="Products">
+      <table mat-table [dataSource]="list.rows()" matSort [matSortActive]="list.state().sort" [matSortDirection]="list.state().dir" matSortDisableClear (matSortChange)="list.sortBy($event)" aria-label="Products">
         <ng-container matColumnDef="name">
           <th mat-header-cell *matHeaderCellDef mat-sort-header>Product</th>
           <td mat-cell *matCellDef="let p">
@@ -79,7 +78,7 @@ import { ProductsData } from './products-data';
           </ohm-empty-state>
         }
       }
-      <mat-paginator [length]="list.total()" [pageSize]="20" [pageSizeOptions]="[10, 20, 50]" aria-label="Product pages" />
+      <mat-paginator [length]="list.total()" [pageIndex]="list.state().page - 1" [pageSize]="list.state().pageSize" [pageSizeOptions]="list.pageSizes" (page)="list.turn($event)" aria-label="Product pages" />
     </div>
   `,
   styles: `
@@ -90,22 +89,20 @@ import { ProductsData } from './products-data';
     @media (max-width: 720px) { .actions { white-space: normal; } }
   `,
 })
-export class ProductsPage implements AfterViewInit {
+export class ProductsPage {
   private readonly data = inject(ProductsData);
   private readonly dialog = inject(MatDialog);
   private readonly notifier = inject(Notifier);
   private readonly session = inject(Session);
-  private readonly destroyRef = inject(DestroyRef);
-  private readonly sort = viewChild.required(MatSort);
-  private readonly paginator = viewChild.required(MatPaginator);
   protected readonly isAdmin = computed(() => this.session.hasAnyRole(['client-admin']));
   protected readonly columns = ['name', 'matrix', 'library', 'actions'];
-  protected readonly list = new ServerList<ProductSummary>();
-  protected readonly search = new Subject<string>();
-
-  ngAfterViewInit(): void {
-    this.list.connect({ sort: this.sort(), paginator: this.paginator(), search: this.search, fetch: (q) => this.data.list(q), destroyRef: this.destroyRef });
-  }
+  protected readonly list = new ServerList<ProductSummary>({
+    sorts: ['name', 'matrix'],
+    sort: 'name',
+    dir: 'asc',
+    pageSizes: [10, 20, 50],
+    fetch: (query) => this.data.list(query),
+  });
 
   protected look(p: ProductSummary): ReturnType<typeof libraryLook> {
     return libraryLook(p);

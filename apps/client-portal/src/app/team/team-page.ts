@@ -1,15 +1,15 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, DestroyRef, computed, inject, viewChild, type AfterViewInit } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
-import { MatPaginator, MatPaginatorModule } from '@angular/material/paginator';
+import { MatPaginatorModule } from '@angular/material/paginator';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
-import { MatSort, MatSortModule } from '@angular/material/sort';
+import { MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import type { ClientRole, ClientTeamMember } from '@ohmprint/contracts';
 import { EmptyState, ListStatus, Notifier, OpenInvitations, PendingInvitations, ROLE_LABELS, SearchField, ServerList, Session, confirmAction } from '@ohmprint/ui';
-import { Subject, filter, switchMap } from 'rxjs';
+import { filter, switchMap } from 'rxjs';
 import { InviteMemberDialog } from './invite-member-dialog';
 import { TeamData } from './team-data';
 
@@ -19,30 +19,24 @@ import { TeamData } from './team-data';
   imports: [DatePipe, MatTableModule, MatSortModule, MatPaginatorModule, MatProgressBarModule, MatButtonModule, MatIconModule, SearchField, EmptyState, ListStatus, PendingInvitations],
   templateUrl: './team-page.html',
 })
-export class TeamPage implements AfterViewInit {
+export class TeamPage {
   private readonly data = inject(TeamData);
   private readonly dialog = inject(MatDialog);
   private readonly notifier = inject(Notifier);
   private readonly session = inject(Session);
-  private readonly destroyRef = inject(DestroyRef);
-  private readonly sort = viewChild.required(MatSort);
-  private readonly paginator = viewChild.required(MatPaginator);
 
   protected readonly isAdmin = computed(() => this.session.hasAnyRole(['client-admin']));
   protected readonly organisation = computed(() => this.session.user()?.clientOrganisation?.name ?? 'your organisation');
   protected readonly columns = computed(() => ['displayName', 'email', 'role', 'createdAt', ...(this.isAdmin() ? ['actions'] : [])]);
-  protected readonly list = new ServerList<ClientTeamMember>();
-  protected readonly search = new Subject<string>();
+  protected readonly list = new ServerList<ClientTeamMember>({
+    sorts: ['displayName', 'email', 'createdAt'],
+    sort: 'displayName',
+    dir: 'asc',
+    fetch: (query) => this.data.list(query),
+  });
   protected readonly invitations = new OpenInvitations(() => this.data.pendingInvitations());
 
-  ngAfterViewInit(): void {
-    this.list.connect({
-      sort: this.sort(),
-      paginator: this.paginator(),
-      search: this.search,
-      fetch: (query) => this.data.list(query),
-      destroyRef: this.destroyRef,
-    });
+  constructor() {
     if (this.isAdmin()) this.invitations.reload();
   }
 

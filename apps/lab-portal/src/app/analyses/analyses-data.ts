@@ -5,13 +5,15 @@ import {
   AnalysisSchema,
   ApprovalResultSchema,
   LibraryPageSchema,
-  ReferenceSpectraSchema,
+  LotDistancePageSchema,
+  ReferenceBandViewSchema,
   type Analysis,
   type AnalysisPage,
   type ApprovalResult,
   type LibraryItem,
   type ListQuery,
-  type ReferenceSpectra,
+  type LotDistancePage,
+  type ReferenceBandView,
 } from '@ohmprint/contracts';
 import { queryParams, quietRequest } from '@ohmprint/ui';
 import { map, type Observable } from 'rxjs';
@@ -29,9 +31,15 @@ export class AnalysesData {
     );
   }
 
-  /** A published version's lots on its grid: what the reference band behind a sample is drawn from. Quiet: without it the plots show the sample alone. */
-  referenceSpectra(libraryVersionId: string): Observable<ReferenceSpectra> {
-    return this.http.get(`/api/lab/library-versions/${libraryVersionId}/reference-spectra`, { context: quietRequest() }).pipe(map((r) => ReferenceSpectraSchema.parse(r)));
+  /** A published version's reference band, stored when it was published (a few kilobytes whatever the lot count). Quiet: without it the plots show the sample alone. */
+  referenceBand(libraryVersionId: string): Observable<ReferenceBandView> {
+    return this.http.get(`/api/lab/library-versions/${libraryVersionId}/reference-band`, { context: quietRequest() }).pipe(map((r) => ReferenceBandViewSchema.parse(r)));
+  }
+
+  /** One page of every lot's distance to the sample, nearest first; `after` is the last rank already shown. */
+  lotDistances(analysisId: string, after: number, limit: number): Observable<LotDistancePage> {
+    const params = new HttpParams().set('after', after).set('limit', limit);
+    return this.http.get(`/api/lab/analyses/${analysisId}/lot-distances`, { params }).pipe(map((r) => LotDistancePageSchema.parse(r)));
   }
 
   forSample(sampleId: string): Observable<AnalysisPage> {
@@ -69,6 +77,16 @@ export class AnalysesData {
     return this.http
       .post(`/api/lab/analyses/${id}/approve`, { comments }, { context: quietRequest() })
       .pipe(map((r) => ApprovalResultSchema.parse(r)));
+  }
+
+  /** Where the approved analysis's report is (issuing, issued or failed); the review page polls it. */
+  issuance(id: string): Observable<ApprovalResult> {
+    return this.http.get(`/api/lab/analyses/${id}/issuance`, { context: quietRequest() }).pipe(map((r) => ApprovalResultSchema.parse(r)));
+  }
+
+  /** Queues a failed issuance again. */
+  retryIssuance(id: string): Observable<ApprovalResult> {
+    return this.http.post(`/api/lab/analyses/${id}/issuance/retry`, {}, { context: quietRequest() }).pipe(map((r) => ApprovalResultSchema.parse(r)));
   }
 
   returnToAnalyst(id: string, comments: string): Observable<Analysis> {

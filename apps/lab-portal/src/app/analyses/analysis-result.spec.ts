@@ -1,6 +1,6 @@
 import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import type { Analysis, ReferenceSpectra } from '@ohmprint/contracts';
+import type { Analysis, LotDistancePage } from '@ohmprint/contracts';
 import { Session } from '@ohmprint/ui';
 import { provideTestPortal, testUser } from '@ohmprint/ui/testing';
 import { AnalysisResult } from './analysis-result';
@@ -43,33 +43,73 @@ const analysis: Analysis = {
   reviews: [],
 };
 
-const lots: ReferenceSpectra = {
-  libraryVersionId: VERSION, productName: 'Invented Rosé', version: 2, impedanceUnit: 'Ω·cm',
-  referenceTemperatureC: 20, temperatureCoefficientPerC: 0.02, frequencyHz: grid,
-  lots: [
-    { lotId: LOT_A, lotCode: 'LOT-A', re: [100, 98, 97], im: [-22, -11, -3] },
-    { lotId: LOT_B, lotCode: 'LOT-B', re: [110, 104, 103], im: [-18, -9, -1] },
-  ],
+// The version's band as the API stores it at publication (range of two invented lots).
+const withBand: Analysis = {
+  ...analysis,
+  referenceBand: {
+    frequencyHz: grid, lotCount: 2,
+    reLow: [100, 98, 97], reHigh: [110, 104, 103], imLow: [-22, -11, -3], imHigh: [-18, -9, -1],
+    modulusLow: [102.4, 98.6, 97.0], modulusHigh: [111.5, 104.4, 103.0], phaseLowDeg: [-12.4, -6.4, -1.8], phaseHighDeg: [-9.3, -4.9, -0.6],
+  },
+};
+
+const lotId = (i: number) => `77777777-7777-4777-8777-${String(i).padStart(12, '0')}`;
+/** A 3,000-lot library: the analysis holds its nearest lots only. */
+const large: Analysis = {
+  ...withBand,
+  result: {
+    ...analysis.result,
+    lotCount: 3000,
+    distances: Array.from({ length: 59 }, (_, i) => ({ lotId: lotId(i), lotCode: `BIG-${i}`, distance: 0.01 + i / 1000 })),
+  },
 };
 
 describe('AnalysisResult', () => {
-  it('shades the reference lots behind the sample once the version’s lots arrive', async () => {
+  function render(a: Analysis) {
     TestBed.configureTestingModule({ providers: provideTestPortal() });
     TestBed.inject(Session).adopt({ accessToken: 'tok', user: testUser({ roles: ['analyst'] }) });
     const fixture = TestBed.createComponent(AnalysisResult);
-    fixture.componentRef.setInput('analysis', analysis);
+    fixture.componentRef.setInput('analysis', a);
     fixture.detectChanges();
-    const el: HTMLElement = fixture.nativeElement;
-    expect(el.querySelectorAll('ohm-bode-chart path.band')).toHaveLength(0);
+    return fixture;
+  }
 
-    TestBed.inject(HttpTestingController).expectOne(`/api/lab/library-versions/${VERSION}/reference-spectra`).flush(lots);
-    await fixture.whenStable();
-    fixture.detectChanges();
+  it('draws the sample alone when the analysis carries no band', () => {
+    const el: HTMLElement = render(analysis).nativeElement;
+    expect(el.querySelectorAll('ohm-bode-chart path.band')).toHaveLength(0);
+  });
+
+  it('shades the stored reference band behind the sample without downloading the lots', () => {
+    const fixture = render(withBand);
+    const el: HTMLElement = fixture.nativeElement;
+    TestBed.inject(HttpTestingController).verify();
 
     expect(el.querySelectorAll('ohm-bode-chart path.band')).toHaveLength(2);
     expect(el.querySelectorAll('ohm-nyquist-chart path.band')).toHaveLength(1);
     expect(el.querySelector('ohm-bode-chart')?.textContent).toContain('Reference lots (range)');
     expect(el.querySelector('ohm-nyquist-chart')?.textContent).toContain('Sample OP-TEST-01 (replicate mean)');
+  });
+
+  it('lists the ten nearest lots and pages through the rest only when asked', async () => {
+    const fixture = render(large);
+    const el: HTMLElement = fixture.nativeElement;
+    const http = TestBed.inject(HttpTestingController);
+    http.verify();
+    const nearestTable = el.querySelector('section[aria-labelledby="distances-heading"] table');
+    expect(nearestTable?.querySelectorAll('tbody tr')).toHaveLength(10);
+    expect(nearestTable?.textContent).toContain('The 10 nearest of 3,000 lots');
+
+    const show = Array.from(el.querySelectorAll('button')).find((b) => b.textContent?.includes('Show every lot'));
+    show?.click();
+    const page: LotDistancePage = { items: Array.from({ length: 50 }, (_, i) => ({ lotId: lotId(i), lotCode: `BIG-${i}`, distance: 0.01 + i / 1000, rank: i + 1 })), total: 3000, next: 50 };
+    http.expectOne((r) => r.url === `/api/lab/analyses/${large.id}/lot-distances` && r.params.get('after') === '0' && r.params.get('limit') === '50').flush(page);
+    await fixture.whenStable();
+    fixture.detectChanges();
+    expect(el.querySelector('ohm-lot-distance-pager tbody')?.querySelectorAll('tr')).toHaveLength(50);
+    expect(el.querySelector('ohm-lot-distance-pager caption')?.textContent).toContain('Lots 1–50 of 3,000');
+
+    Array.from(el.querySelectorAll('ohm-lot-distance-pager button')).find((b) => b.textContent?.includes('Next'))?.dispatchEvent(new Event('click'));
+    http.expectOne((r) => r.url === `/api/lab/analyses/${large.id}/lot-distances` && r.params.get('after') === '50');
   });
 });
 

@@ -1,38 +1,30 @@
-import { DatePipe, PercentPipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal } from '@angular/core';
+import { DatePipe, DecimalPipe, PercentPipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import { describeWithoutSymbol, typicalityText, weightingExplained, weightingText, type Analysis } from '@ohmprint/contracts';
 import { ParameterSymbol, Quantity, BodeChart, DistanceHistogram, FitResidualChart, LibraryMap, NyquistChart, fitResiduals, ScreeningCaution, VerdictChip, type DistanceHistogramInput, type MapPoint, type ReferenceBand, type SpectrumSeries } from '@ohmprint/ui';
 import { modelLabel } from '@ohmprint/spectral-engine';
-import { AnalysesData } from './analyses-data';
+import { LotDistancePager } from './lot-distance-pager';
 import { referenceBandOf } from './reference-band';
 import { temperatureText } from './temperature-text';
+
+const NEAREST_SHOWN = 10;
 
 /** Everything behind a verdict, read-only: shared by the analyst's tab and the reviewer's page. */
 @Component({
   selector: 'ohm-analysis-result',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [DatePipe, PercentPipe, MatIconModule, MatTooltipModule, VerdictChip, BodeChart, NyquistChart, DistanceHistogram, LibraryMap, FitResidualChart, ScreeningCaution, Quantity, ParameterSymbol],
+  imports: [DatePipe, DecimalPipe, PercentPipe, MatIconModule, MatTooltipModule, VerdictChip, BodeChart, NyquistChart, DistanceHistogram, LibraryMap, FitResidualChart, ScreeningCaution, LotDistancePager, Quantity, ParameterSymbol],
   templateUrl: './analysis-result.html',
   styleUrl: './analysis-result.scss',
 })
 export class AnalysisResult {
-  private readonly data = inject(AnalysesData);
   readonly analysis = input.required<Analysis>();
 
-  /** Null until the lots arrive (or if they cannot): the plots then show the sample alone. */
-  protected readonly band = signal<ReferenceBand | null>(null);
-  private readonly versionId = computed(() => this.analysis().libraryVersion.id);
+  /** The version's band as stored at publication and returned with the analysis; without one the plots show the sample alone. */
+  protected readonly band = computed<ReferenceBand | null>(() => referenceBandOf(this.analysis().referenceBand));
   protected readonly sampleSeries = computed<SpectrumSeries[]>(() => [{ label: `Sample ${this.analysis().sample.code} (replicate mean)`, ...this.analysis().sampleSpectrum }]);
-
-  constructor() {
-    effect((onCleanup) => {
-      this.band.set(null);
-      const sub = this.data.referenceSpectra(this.versionId()).subscribe((spectra) => this.band.set(referenceBandOf(spectra)));
-      onCleanup(() => sub.unsubscribe());
-    });
-  }
 
   /** Significant digits, not decimals: fitted time constants run to microseconds. */
   protected readonly describeWithoutSymbol = describeWithoutSymbol;
@@ -50,6 +42,9 @@ export class AnalysisResult {
       { id: 'sample', label: this.analysis().sample.code, x: m.sample[0], y: m.sample[1], kind: 'sample' },
     ];
   });
+  /** The ten nearest lots; the rest page through the lot-distances route on request. */
+  protected readonly nearestLots = computed(() => [...this.result().distances].sort((a, b) => a.distance - b.distance).slice(0, NEAREST_SHOWN));
+  protected readonly lotCount = computed(() => this.result().lotCount ?? this.result().distances.length);
   /** The sample, with the fitted model's curve over it when the analysis has one. */
   protected readonly plottedSeries = computed<SpectrumSeries[]>(() => {
     const fit = this.result().fit;
@@ -85,7 +80,6 @@ export class AnalysisResult {
       ? `${said}; the nearest lot ${nearest.lotCode} is that lot (producer's ${producer}).`
       : `${said}; the nearest lot ${nearest.lotCode} is not that lot (it is the producer's ${producer}).`;
   });
-  protected readonly sortedDistances = computed(() => [...this.result().distances].sort((a, b) => a.distance - b.distance));
   protected readonly ruleText = computed(() => {
     const m = this.analysis().method;
     const lo = Math.round(m.lowerQuantile * 100);

@@ -101,7 +101,7 @@ const STANDARDS = [
       </div>
       @if (c.refusals.length) {
         <h2>Measurements refused on this cell</h2>
-        <ul class="refusals">@for (x of c.refusals; track x.at + x.sampleCode) { <li>{{ x.at | date: 'd MMM y, HH:mm' }} · {{ x.sampleCode }} · {{ x.rule }}</li> }</ul>
+        <ul class="refusals">@for (x of c.refusals; track x.at + x.sampleCode) { <li>{{ x.at | date: 'd MMM y, HH:mm' }} · {{ x.sampleCode }} · {{ ruleWords(c.rules, x.rule) }}</li> }</ul>
       }
     }
   `,
@@ -141,6 +141,8 @@ export class CellPage {
     certified: [null as number | null, [Validators.min(0.001)]],
   });
   protected readonly ruleText = (signals: { message: string }[]) => signals.map((s) => s.message).join('; ');
+  /** A refusal stores the rule's code; people read the rule's own description. */
+  protected readonly ruleWords = (rules: readonly { rule: string; description: string }[], rule: string) => rules.find((r) => r.rule === rule)?.description ?? rule;
 
   constructor() {
     effect(() => this.load(this.id()));

@@ -1,14 +1,13 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, DestroyRef, inject, viewChild, type AfterViewInit } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
-import { MatPaginator, MatPaginatorModule } from '@angular/material/paginator';
+import { MatPaginatorModule } from '@angular/material/paginator';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
-import { MatSort, MatSortModule } from '@angular/material/sort';
+import { MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import type { CreditAccountView } from '@ohmprint/contracts';
 import { EmptyState, ListStatus, Notifier, SearchField, ServerList, dialogResult } from '@ohmprint/ui';
-import { Subject } from 'rxjs';
 import { AdjustDialog } from './adjust-dialog';
 import { BillingData } from './billing-data';
 import { BillingTabs } from './billing-tabs';
@@ -25,12 +24,12 @@ import { BillingTabs } from './billing-tabs';
       </div>
     </header>
     <ohm-billing-tabs>
-      <ohm-search-field label="Search by client" (queryChange)="search.next($event)" />
+      <ohm-search-field label="Search by client" [initial]="list.state().q" (queryChange)="list.search($event)" />
       <div class="ohm-table-card">
         @if (list.loading()) {
           <mat-progress-bar mode="indeterminate" aria-label="Loading credit balances" />
         }
-        <table mat-table [dataSource]="list.rows()" matSort matSortActive="name" matSortDirection="asc" matSortDisableClear aria-label="Client credits">
+        <table mat-table [dataSource]="list.rows()" matSort [matSortActive]="list.state().sort" [matSortDirection]="list.state().dir" matSortDisableClear (matSortChange)="list.sortBy($event)" aria-label="Client credits">
           <ng-container matColumnDef="name">
             <th mat-header-cell *matHeaderCellDef mat-sort-header>Client</th>
             <td mat-cell *matCellDef="let a">{{ a.clientOrganisation.name }}</td>
@@ -61,25 +60,22 @@ import { BillingTabs } from './billing-tabs';
             <p>Client organisations appear here once they are invited.</p>
           </ohm-empty-state>
         </ohm-list-status>
-        <mat-paginator [length]="list.total()" [pageSize]="20" [pageSizeOptions]="[10, 20, 50, 100]" aria-label="Client pages" />
+        <mat-paginator [length]="list.total()" [pageIndex]="list.state().page - 1" [pageSize]="list.state().pageSize" [pageSizeOptions]="list.pageSizes" (page)="list.turn($event)" aria-label="Client pages" />
       </div>
     </ohm-billing-tabs>
   `,
 })
-export class AdjustmentsPage implements AfterViewInit {
+export class AdjustmentsPage {
   private readonly data = inject(BillingData);
   private readonly dialog = inject(MatDialog);
   private readonly notifier = inject(Notifier);
-  private readonly destroyRef = inject(DestroyRef);
-  private readonly sort = viewChild.required(MatSort);
-  private readonly paginator = viewChild.required(MatPaginator);
   protected readonly columns = ['name', 'available', 'reserved', 'updatedAt', 'actions'];
-  protected readonly list = new ServerList<CreditAccountView>();
-  protected readonly search = new Subject<string>();
-
-  ngAfterViewInit(): void {
-    this.list.connect({ sort: this.sort(), paginator: this.paginator(), search: this.search, fetch: (q) => this.data.accounts(q), destroyRef: this.destroyRef });
-  }
+  protected readonly list = new ServerList<CreditAccountView>({
+    sorts: ['name', 'available'],
+    sort: 'name',
+    dir: 'asc',
+    fetch: (query) => this.data.accounts(query),
+  });
 
   protected adjust(a: CreditAccountView): void {
     dialogResult<AdjustDialog, number, CreditAccountView>(this.dialog, AdjustDialog, a).subscribe((available) => {

@@ -1,17 +1,17 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, DestroyRef, inject, signal, viewChild, type AfterViewInit } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { FormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
-import { MatPaginator, MatPaginatorModule } from '@angular/material/paginator';
+import { MatPaginatorModule } from '@angular/material/paginator';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
-import { MatSort, MatSortModule } from '@angular/material/sort';
+import { MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
-import { PAYMENT_STATE_WORDS, formatMoney, type Payment, type PaymentState } from '@ohmprint/contracts';
-import { EmptyState, ListStatus, Notifier, SearchField, ServerList, confirmAction } from '@ohmprint/ui';
-import { Subject, filter, switchMap } from 'rxjs';
+import { PAYMENT_STATES, PAYMENT_STATE_WORDS, formatMoney, type Payment, type PaymentState } from '@ohmprint/contracts';
+import { EmptyState, ListStatus, Notifier, SearchField, ServerList, oneOf, confirmAction } from '@ohmprint/ui';
+import { filter, switchMap } from 'rxjs';
 import { BillingData } from './billing-data';
 import { BillingTabs } from './billing-tabs';
 
@@ -31,8 +31,8 @@ const ICONS: Record<PaymentState, string> = { open: 'hourglass_top', paid: 'chec
     </header>
     <ohm-billing-tabs>
       <div class="filters">
-        <ohm-search-field label="Search by client, pack, receipt or checkout id" (queryChange)="search.next($event)" />
-        <mat-button-toggle-group aria-label="Filter by state" [ngModel]="status()" (ngModelChange)="filter($event)">
+        <ohm-search-field label="Search by client, pack, receipt or checkout id" [initial]="list.state().q" (queryChange)="list.search($event)" />
+        <mat-button-toggle-group aria-label="Filter by state" [ngModel]="list.filters().status" (ngModelChange)="list.filter({ status: $event })">
           <mat-button-toggle [value]="null">All</mat-button-toggle>
           <mat-button-toggle value="paid">Paid</mat-button-toggle>
           <mat-button-toggle value="refunded">Refunded</mat-button-toggle>
@@ -45,7 +45,7 @@ const ICONS: Record<PaymentState, string> = { open: 'hourglass_top', paid: 'chec
         @if (list.loading()) {
           <mat-progress-bar mode="indeterminate" aria-label="Loading payments" />
         }
-        <table mat-table [dataSource]="list.rows()" matSort matSortActive="createdAt" matSortDirection="desc" matSortDisableClear aria-label="Payments">
+        <table mat-table [dataSource]="list.rows()" matSort [matSortActive]="list.state().sort" [matSortDirection]="list.state().dir" matSortDisableClear (matSortChange)="list.sortBy($event)" aria-label="Payments">
           <ng-container matColumnDef="createdAt">
             <th mat-header-cell *matHeaderCellDef mat-sort-header>Started</th>
             <td mat-cell *matCellDef="let p">{{ p.createdAt | date: 'd MMM y, HH:mm' }}</td>
@@ -90,27 +90,24 @@ const ICONS: Record<PaymentState, string> = { open: 'hourglass_top', paid: 'chec
             <p>When a client buys a credit pack, the payment appears here.</p>
           </ohm-empty-state>
         </ohm-list-status>
-        <mat-paginator [length]="list.total()" [pageSize]="20" [pageSizeOptions]="[10, 20, 50, 100]" aria-label="Payment pages" />
+        <mat-paginator [length]="list.total()" [pageIndex]="list.state().page - 1" [pageSize]="list.state().pageSize" [pageSizeOptions]="list.pageSizes" (page)="list.turn($event)" aria-label="Payment pages" />
       </div>
     </ohm-billing-tabs>
   `,
   styles: `.filters { display: flex; flex-wrap: wrap; gap: 4px 16px; align-items: center; }`,
 })
-export class LabPaymentsPage implements AfterViewInit {
+export class LabPaymentsPage {
   private readonly data = inject(BillingData);
   private readonly dialog = inject(MatDialog);
   private readonly notifier = inject(Notifier);
-  private readonly destroyRef = inject(DestroyRef);
-  private readonly sort = viewChild.required(MatSort);
-  private readonly paginator = viewChild.required(MatPaginator);
   protected readonly columns = ['createdAt', 'receipt', 'client', 'pack', 'amount', 'status', 'actions'];
-  protected readonly list = new ServerList<Payment>();
-  protected readonly search = new Subject<string>();
-  protected readonly status = signal<PaymentState | null>(null);
-
-  ngAfterViewInit(): void {
-    this.list.connect({ sort: this.sort(), paginator: this.paginator(), search: this.search, fetch: (q) => this.data.payments(q, this.status()), destroyRef: this.destroyRef });
-  }
+  protected readonly list = new ServerList<Payment, { status: PaymentState | null }>({
+    sorts: ['createdAt', 'amount', 'status'],
+    sort: 'createdAt',
+    dir: 'desc',
+    filters: { status: oneOf(PAYMENT_STATES) },
+    fetch: (query, f) => this.data.payments(query, f.status),
+  });
 
   protected icon(s: PaymentState): string {
     return ICONS[s];
@@ -122,12 +119,6 @@ export class LabPaymentsPage implements AfterViewInit {
 
   protected money(p: Payment): string {
     return formatMoney(p.amount, p.currency);
-  }
-
-  protected filter(status: PaymentState | null): void {
-    this.status.set(status);
-    this.paginator().pageIndex = 0;
-    this.list.reload();
   }
 
   protected refund(p: Payment): void {

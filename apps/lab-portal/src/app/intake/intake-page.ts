@@ -11,16 +11,14 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { ActivatedRoute, RouterLink } from '@angular/router';
-import {
-  CHEMISTRY_FIELDS,
+import { MATRIX_LABELS, CHEMISTRY_FIELDS,
   CONTAINER_CONDITION_LABELS,
   CONTAINER_CONDITIONS,
   SampleCodeSchema,
   type ChemistryField,
   type CustodyEvent,
   type ReferenceLotDeclaration,
-  type SampleDetail,
-} from '@ohmprint/contracts';
+  type SampleDetail, } from '@ohmprint/contracts';
 import { ApiProblem, Notice, Notifier, SAMPLE_STATE_LOOK, SampleStateChip, showFieldErrors } from '@ohmprint/ui';
 import { CustodyTimeline } from './custody-timeline';
 import { IntakeData } from './intake-data';
@@ -44,6 +42,7 @@ import { toLocalInput } from './local-time';
   styleUrl: './intake-page.scss',
 })
 export class IntakePage implements OnInit, AfterViewInit {
+  protected readonly matrixLabel = MATRIX_LABELS;
   private readonly data = inject(IntakeData);
   private readonly notifier = inject(Notifier);
   private readonly dialog = inject(MatDialog);

@@ -1,15 +1,14 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, DestroyRef, inject, viewChild, type AfterViewInit } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
-import { MatPaginator, MatPaginatorModule } from '@angular/material/paginator';
+import { MatPaginatorModule } from '@angular/material/paginator';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
-import { MatSort, MatSortModule } from '@angular/material/sort';
+import { MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import type { LabSummary } from '@ohmprint/contracts';
 import { EmptyState, ListStatus, Notifier, SearchField, ServerList, dialogResult } from '@ohmprint/ui';
-import { Subject } from 'rxjs';
 import { ChangeLabStatusDialog } from './change-lab-status-dialog';
 import { CreateLabDialog } from './create-lab-dialog';
 import { LabsData, type LabCreated } from './labs-data';
@@ -20,27 +19,18 @@ import { LabsData, type LabCreated } from './labs-data';
   imports: [DatePipe, MatTableModule, MatSortModule, MatPaginatorModule, MatProgressBarModule, MatButtonModule, MatIconModule, SearchField, EmptyState, ListStatus],
   templateUrl: './labs-page.html',
 })
-export class LabsPage implements AfterViewInit {
+export class LabsPage {
   private readonly data = inject(LabsData);
   private readonly dialog = inject(MatDialog);
   private readonly notifier = inject(Notifier);
-  private readonly destroyRef = inject(DestroyRef);
-  private readonly sort = viewChild.required(MatSort);
-  private readonly paginator = viewChild.required(MatPaginator);
 
   protected readonly columns = ['name', 'legalName', 'status', 'staffCount', 'createdAt', 'actions'];
-  protected readonly list = new ServerList<LabSummary>();
-  protected readonly search = new Subject<string>();
-
-  ngAfterViewInit(): void {
-    this.list.connect({
-      sort: this.sort(),
-      paginator: this.paginator(),
-      search: this.search,
-      fetch: (query) => this.data.list(query),
-      destroyRef: this.destroyRef,
-    });
-  }
+  protected readonly list = new ServerList<LabSummary>({
+    sorts: ['name', 'createdAt', 'status'],
+    sort: 'name',
+    dir: 'asc',
+    fetch: (query) => this.data.list(query),
+  });
 
   protected openCreate(): void {
     dialogResult<CreateLabDialog, LabCreated>(this.dialog, CreateLabDialog).subscribe(({ lab, invitation }) => {

@@ -4,11 +4,11 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { MatPaginatorModule, type PageEvent } from '@angular/material/paginator';
+import { MatPaginatorModule } from '@angular/material/paginator';
 import { MatSelectModule } from '@angular/material/select';
 import { Router, RouterLink } from '@angular/router';
-import type { LibraryProduct, MethodItem } from '@ohmprint/contracts';
-import { Notifier, Session } from '@ohmprint/ui';
+import { MATRIX_LABELS, type LibraryProduct, type MethodItem } from '@ohmprint/contracts';
+import { Notifier, SearchField, ServerList, Session } from '@ohmprint/ui';
 import { LibrariesData } from './libraries-data';
 
 const STATUS_ICON: Record<string, string> = { draft: 'edit_note', published: 'verified', retired: 'archive' };
@@ -17,7 +17,7 @@ const STATUS_ICON: Record<string, string> = { draft: 'edit_note', published: 've
 @Component({
   selector: 'ohm-libraries-page',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [FormsModule, RouterLink, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatPaginatorModule, MatSelectModule],
+  imports: [FormsModule, RouterLink, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatPaginatorModule, MatSelectModule, SearchField],
   styles: `
     table { border-collapse: collapse; width: 100%; }
     th, td { text-align: left; padding: .5rem; border-bottom: 1px solid var(--mat-sys-outline-variant); vertical-align: top; }
@@ -33,18 +33,15 @@ const STATUS_ICON: Record<string, string> = { draft: 'edit_note', published: 've
         <p>Build a product’s library from its measured reference lots: start a draft under a method version, review each lot, calibrate, then a reviewer or lab admin publishes it.</p>
       </div>
     </header>
-    <mat-form-field>
-      <mat-label>Search products or producers</mat-label>
-      <input matInput [ngModel]="q()" (ngModelChange)="search($event)" />
-    </mat-form-field>
+    <ohm-search-field label="Search products or producers" [initial]="list.state().q" (queryChange)="list.search($event)" />
     <div class="ohm-table-card">
       <table aria-label="Products and their libraries">
         <thead><tr><th scope="col">Product</th><th scope="col">Producer</th><th scope="col">Measured reference lots</th><th scope="col">Library versions</th>
           @if (canBuild()) { <th scope="col">Start a draft</th> }</tr></thead>
         <tbody>
-          @for (p of products(); track p.productId) {
+          @for (p of list.rows(); track p.productId) {
             <tr>
-              <td>{{ p.name }} <small>({{ p.matrix }})</small></td>
+              <td>{{ p.name }} <small>({{ matrixLabel[p.matrix] }})</small></td>
               <td>{{ p.clientName }}</td>
               <td>{{ p.measuredLots }}</td>
               <td class="versions">
@@ -71,51 +68,34 @@ const STATUS_ICON: Record<string, string> = { draft: 'edit_note', published: 've
           }
         </tbody>
       </table>
-      <mat-paginator [length]="total()" [pageSize]="pageSize()" [pageIndex]="page() - 1" [pageSizeOptions]="[10, 20, 50]" (page)="turn($event)" aria-label="Pages of products" />
+      <mat-paginator [length]="list.total()" [pageSize]="list.state().pageSize" [pageIndex]="list.state().page - 1" [pageSizeOptions]="list.pageSizes" (page)="list.turn($event)" aria-label="Pages of products" />
     </div>
   `,
 })
 export class LibrariesPage {
+  protected readonly matrixLabel = MATRIX_LABELS;
   private readonly data = inject(LibrariesData);
   private readonly router = inject(Router);
   private readonly notifier = inject(Notifier);
   private readonly session = inject(Session);
   protected readonly statusIcon = STATUS_ICON;
   protected readonly canBuild = computed(() => this.session.hasAnyRole(['analyst']));
-  protected readonly products = signal<LibraryProduct[]>([]);
+  protected readonly list = new ServerList<LibraryProduct>({
+    sorts: ['name'],
+    sort: 'name',
+    dir: 'asc',
+    pageSizes: [10, 20, 50],
+    fetch: (query) => this.data.products(query.page, query.pageSize, query.q),
+  });
   protected readonly methods = signal<MethodItem[]>([]);
-  protected readonly total = signal(0);
-  protected readonly page = signal(1);
-  protected readonly pageSize = signal(20);
-  protected readonly q = signal('');
   protected readonly choice: Record<string, string> = {};
 
   constructor() {
-    this.load();
     this.data.methods().subscribe((m) => this.methods.set(m.items));
   }
 
   protected methodsFor(p: LibraryProduct): MethodItem[] {
     return this.methods().filter((m) => m.matrix === p.matrix);
-  }
-
-  private load(): void {
-    this.data.products(this.page(), this.pageSize(), this.q()).subscribe((r) => {
-      this.products.set(r.items);
-      this.total.set(r.total);
-    });
-  }
-
-  protected search(q: string): void {
-    this.q.set(q);
-    this.page.set(1);
-    this.load();
-  }
-
-  protected turn(e: PageEvent): void {
-    this.page.set(e.pageIndex + 1);
-    this.pageSize.set(e.pageSize);
-    this.load();
   }
 
   protected start(p: LibraryProduct): void {

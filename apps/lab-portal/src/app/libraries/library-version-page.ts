@@ -5,12 +5,16 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { MatPaginatorModule, type PageEvent } from '@angular/material/paginator';
+import { MatPaginatorModule } from '@angular/material/paginator';
 import { MatSelectModule } from '@angular/material/select';
 import { RouterLink } from '@angular/router';
-import { THRESHOLD_ESTIMATOR_LABELS, type CrossProductCheck, type LibraryLot, type LibraryOverview, type LibraryVersionDetail } from '@ohmprint/contracts';
-import { BodeChart, DistanceHistogram, LibraryMap, Notifier, Session, type DistanceHistogramInput, type MapPoint, type ReferenceBand, type SpectrumSeries } from '@ohmprint/ui';
+import { MATRIX_LABELS, THRESHOLD_ESTIMATOR_LABELS, type CrossProductCheck, type LibraryLot, type LibraryOverview, type LibraryVersionDetail } from '@ohmprint/contracts';
+import { BodeChart, DistanceHistogram, LibraryMap, Notifier, ServerList, Session, oneOfOr, type DistanceHistogramInput, type MapPoint, type ReferenceBand, type SpectrumSeries } from '@ohmprint/ui';
 import { LibrariesData } from './libraries-data';
+
+const LOT_FILTERS = ['all', 'included', 'excluded'] as const;
+type LotFilter = (typeof LOT_FILTERS)[number];
+type LotSort = 'distance' | 'lotCode' | 'producedOn';
 
 /**
  * One library version: where its thresholds stand and how sure they are, every lot's quality and
@@ -45,7 +49,7 @@ import { LibrariesData } from './libraries-data';
         <div>
           <p><a routerLink="/libraries">Reference libraries</a></p>
           <h1>{{ v.product.name }} · library version {{ v.version }}</h1>
-          <p>{{ v.clientOrganisation.name }} · {{ v.product.matrix }} ·
+          <p>{{ v.clientOrganisation.name }} · {{ matrixLabel[v.product.matrix] }} ·
             <span class="flag"><mat-icon aria-hidden="true">{{ v.status === 'published' ? 'verified' : v.status === 'retired' ? 'archive' : 'edit_note' }}</mat-icon>
             {{ v.status === 'published' && v.supersededBy ? 'published, superseded by version ' + v.supersededBy : v.status }}</span>
             @if (v.methodVersion) { · built under {{ v.methodVersion.name }} v{{ v.methodVersion.version }} }</p>
@@ -115,12 +119,12 @@ import { LibrariesData } from './libraries-data';
         <h2 id="lots-heading">Lots ({{ v.includedLotCount }} included, {{ v.excludedLotCount }} excluded)</h2>
         <div class="actions">
           <mat-form-field subscriptSizing="dynamic"><mat-label>Show</mat-label>
-            <mat-select [value]="filter()" (selectionChange)="setFilter($event.value)">
+            <mat-select [value]="list.filters().included" (selectionChange)="list.filter({ included: $event.value })">
               <mat-option value="all">All lots</mat-option><mat-option value="included">Included</mat-option><mat-option value="excluded">Excluded</mat-option>
             </mat-select>
           </mat-form-field>
           <mat-form-field subscriptSizing="dynamic"><mat-label>Sort by</mat-label>
-            <mat-select [value]="sort()" (selectionChange)="setSort($event.value)">
+            <mat-select [value]="list.state().sort" (selectionChange)="setSort($event.value)">
               <mat-option value="distance">Leave-one-out distance, largest first</mat-option><mat-option value="lotCode">Lot code</mat-option><mat-option value="producedOn">Production date</mat-option>
             </mat-select>
           </mat-form-field>
@@ -132,7 +136,7 @@ import { LibrariesData } from './libraries-data';
           <thead><tr><th scope="col">Lot</th><th scope="col">Sample</th><th scope="col">Produced</th><th scope="col">Quality</th><th scope="col" class="num">Leave-one-out distance</th><th scope="col">Nearest lot</th><th scope="col" class="num">Typicality</th><th scope="col">Status</th>
             @if (v.status === 'draft' && isAnalyst()) { <th scope="col"><span class="cdk-visually-hidden">Change</span></th> }</tr></thead>
           <tbody>
-            @for (l of lots(); track l.id) {
+            @for (l of list.rows(); track l.id) {
               <tr [class.outlier]="l.outlier">
                 <td>{{ l.lotCode }}</td><td>{{ l.sampleCode ?? '—' }}</td><td>{{ l.producedOn ?? '—' }}</td>
                 <td>{{ quality(l) }}</td>
@@ -151,14 +155,14 @@ import { LibrariesData } from './libraries-data';
             }
           </tbody>
         </table>
-        <mat-paginator [length]="lotTotal()" [pageSize]="pageSize()" [pageIndex]="page() - 1" [pageSizeOptions]="[10, 25, 50, 100]" (page)="turn($event)" aria-label="Pages of lots" />
+        <mat-paginator [length]="list.total()" [pageSize]="list.state().pageSize" [pageIndex]="list.state().page - 1" [pageSizeOptions]="list.pageSizes" (page)="list.turn($event)" aria-label="Pages of lots" />
       </section>
 
       @if (cross(); as x) {
         <section aria-labelledby="cross-heading">
-          <h2 id="cross-heading">Telling the producer’s {{ x.matrix }} products apart</h2>
+          <h2 id="cross-heading">Telling the producer’s {{ matrixLabel[x.matrix].toLowerCase() }} products apart</h2>
           @if (x.products.length < 2) {
-            <p>{{ v.clientOrganisation.name }} has no other {{ x.matrix }} product with a library on this grid to compare with.</p>
+            <p>{{ v.clientOrganisation.name }} has no other {{ matrixLabel[x.matrix].toLowerCase() }} product with a library on this grid to compare with.</p>
           } @else {
             <p>Each lot’s nearest other lot among all these products: {{ x.agreement | percent: '1.0-1' }} of lots are nearest to a lot of their own product.</p>
             <table aria-label="Confusion table: product of each lot against the product of its nearest other lot">
@@ -174,6 +178,7 @@ import { LibrariesData } from './libraries-data';
   `,
 })
 export class LibraryVersionPage {
+  protected readonly matrixLabel = MATRIX_LABELS;
   private readonly data = inject(LibrariesData);
   private readonly notifier = inject(Notifier);
   private readonly session = inject(Session);
@@ -181,12 +186,18 @@ export class LibraryVersionPage {
   protected readonly version = signal<LibraryVersionDetail | null>(null);
   protected readonly overview = signal<LibraryOverview | null>(null);
   protected readonly cross = signal<CrossProductCheck | null>(null);
-  protected readonly lots = signal<LibraryLot[]>([]);
-  protected readonly lotTotal = signal(0);
-  protected readonly page = signal(1);
-  protected readonly pageSize = signal(25);
-  protected readonly sort = signal<'distance' | 'lotCode' | 'producedOn'>('distance');
-  protected readonly filter = signal<'all' | 'included' | 'excluded'>('all');
+  /** The lot table's sort, filter and page live in the URL, as every list's do. */
+  protected readonly list = new ServerList<LibraryLot, { included: LotFilter }>({
+    sorts: ['distance', 'lotCode', 'producedOn'],
+    sort: 'distance',
+    dir: 'desc',
+    pageSizes: [10, 25, 50, 100],
+    pageSize: 25,
+    filters: { included: oneOfOr(LOT_FILTERS, 'all') },
+    scope: () => this.id(),
+    fetch: (query, f) =>
+      this.data.lots(this.id(), { page: query.page, pageSize: query.pageSize, sort: query.sort as LotSort, dir: query.sort === 'distance' ? 'desc' : 'asc', included: f.included }),
+  });
   protected readonly isAnalyst = computed(() => this.session.hasAnyRole(['analyst']));
   protected readonly canPublish = computed(() => this.session.hasAnyRole(['lab-admin', 'reviewer']));
   protected retireReason = '';
@@ -219,14 +230,6 @@ export class LibraryVersionPage {
     this.data.version(id).subscribe((v) => this.version.set(v));
     this.data.overview(id).subscribe((o) => this.overview.set(o));
     this.data.crossProduct(id).subscribe((x) => this.cross.set(x));
-    this.loadLots();
-  }
-
-  private loadLots(): void {
-    this.data.lots(this.id(), { page: this.page(), pageSize: this.pageSize(), sort: this.sort(), dir: this.sort() === 'distance' ? 'desc' : 'asc', included: this.filter() }).subscribe((p) => {
-      this.lots.set(p.items);
-      this.lotTotal.set(p.total);
-    });
   }
 
   protected estimatorLabel(e: keyof typeof THRESHOLD_ESTIMATOR_LABELS): string {
@@ -249,22 +252,8 @@ export class LibraryVersionPage {
     return `${q.replicates} replicate(s)${kk}${agree}`;
   }
 
-  protected setFilter(f: 'all' | 'included' | 'excluded'): void {
-    this.filter.set(f);
-    this.page.set(1);
-    this.loadLots();
-  }
-
-  protected setSort(s: 'distance' | 'lotCode' | 'producedOn'): void {
-    this.sort.set(s);
-    this.page.set(1);
-    this.loadLots();
-  }
-
-  protected turn(e: PageEvent): void {
-    this.page.set(e.pageIndex + 1);
-    this.pageSize.set(e.pageSize);
-    this.loadLots();
+  protected setSort(sort: LotSort): void {
+    this.list.sortBy({ active: sort, direction: sort === 'distance' ? 'desc' : 'asc' });
   }
 
   protected toggle(l: LibraryLot): void {
@@ -273,7 +262,7 @@ export class LibraryVersionPage {
       this.notifier.success(`${l.lotCode} ${l.included ? 'excluded' : 'included'}; the draft was recalibrated.`);
       this.data.overview(this.id()).subscribe((o) => this.overview.set(o));
       this.data.crossProduct(this.id()).subscribe((x) => this.cross.set(x));
-      this.loadLots();
+      this.list.reload();
     });
   }
 
@@ -281,7 +270,7 @@ export class LibraryVersionPage {
     this.data.act(this.id(), action, body).subscribe((v) => {
       this.version.set(v);
       this.notifier.success(action === 'publish' ? `Version ${v.version} is published and frozen.` : action === 'retire' ? `Version ${v.version} is retired.` : 'Calibrated.');
-      this.loadLots();
+      this.list.reload();
     });
   }
 

@@ -7,7 +7,7 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
-import { MATRICES, METHOD_SETTING_LABELS, THRESHOLD_ESTIMATOR_LABELS, methodSettingText, type MethodItem, type MethodSettings, type MethodVersionDetail, type ModelPreview } from '@ohmprint/contracts';
+import { MATRIX_LABELS, MATRICES, METHOD_SETTING_LABELS, fieldInWords, THRESHOLD_ESTIMATOR_LABELS, methodSettingText, type MethodItem, type MethodSettings, type MethodVersionDetail, type ModelPreview } from '@ohmprint/contracts';
 import { ApiProblem, NyquistChart, Notifier, Session, type SpectrumSeries } from '@ohmprint/ui';
 import { LibrariesData } from './libraries-data';
 
@@ -47,7 +47,7 @@ const OPTIONAL: NumberKey[] = ['subBandMinHz', 'subBandMaxHz', 'maxThresholdInte
       <nav class="methods" aria-label="Methods and their versions">
         @for (m of methods(); track m.id) {
           <div class="method">
-            <h2>{{ m.name }} <small>({{ m.matrix }})</small></h2>
+            <h2>{{ m.name }} <small>({{ matrixLabel[m.matrix] }})</small></h2>
             @for (v of m.versions; track v.id) {
               <button mat-button type="button" (click)="open(v.id)" [attr.aria-current]="selected()?.id === v.id ? 'true' : null">
                 <mat-icon aria-hidden="true">{{ v.locked ? 'lock' : 'edit_note' }}</mat-icon>Version {{ v.version }} · {{ v.createdAt | date: 'd MMM y' }}
@@ -100,7 +100,7 @@ const OPTIONAL: NumberKey[] = ['subBandMinHz', 'subBandMaxHz', 'maxThresholdInte
                 <div class="grid">
                   <mat-form-field><mat-label>Name</mat-label><input matInput formControlName="name" /></mat-form-field>
                   <mat-form-field><mat-label>Matrix</mat-label>
-                    <mat-select formControlName="matrix">@for (x of matrices; track x) { <mat-option [value]="x">{{ x }}</mat-option> }</mat-select>
+                    <mat-select formControlName="matrix">@for (x of matrices; track x) { <mat-option [value]="x">{{ matrixLabel[x] }}</mat-option> }</mat-select>
                   </mat-form-field>
                 </div>
               }
@@ -150,6 +150,7 @@ const OPTIONAL: NumberKey[] = ['subBandMinHz', 'subBandMaxHz', 'maxThresholdInte
   `,
 })
 export class MethodsPage {
+  protected readonly matrixLabel = MATRIX_LABELS;
   private readonly data = inject(LibrariesData);
   private readonly notifier = inject(Notifier);
   private readonly session = inject(Session);
@@ -252,7 +253,7 @@ export class MethodsPage {
       error: (e: unknown) => {
         this.saving.set(false);
         const p = e instanceof ApiProblem ? e : null;
-        this.error.set(p ? [p.detail, ...p.fieldErrors.map((x) => `${x.field}: ${x.message}`)].filter(Boolean).join(' ') : 'The method could not be saved.');
+        this.error.set(p ? [p.detail, ...p.fieldErrors.map((x) => `${fieldInWords(x.field)}: ${x.message}`)].filter(Boolean).join(' ') : 'The method could not be saved.');
       },
     });
   }

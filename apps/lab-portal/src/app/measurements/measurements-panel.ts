@@ -4,7 +4,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
-import type { ReferenceSpectra, Replicate, SampleMeasurements, SpectrumPoints } from '@ohmprint/contracts';
+import type { ReferenceBandView, Replicate, SampleMeasurements, SpectrumPoints } from '@ohmprint/contracts';
 import { BodeChart, KkResidualChart, NyquistChart, Notice, Session, formatHz, type KkResiduals, type SpectrumSeries } from '@ohmprint/ui';
 import { EMPTY, forkJoin, of, switchMap } from 'rxjs';
 import { AnalysesData } from '../analyses/analyses-data';
@@ -45,7 +45,7 @@ export class MeasurementsPanel {
   protected readonly residualsMissing = signal(false);
   protected readonly loading = signal(true);
 
-  protected readonly reference = signal<ReferenceSpectra | null>(null);
+  protected readonly reference = signal<ReferenceBandView | null>(null);
   private readonly rawSeries = computed(() => {
     const m = this.measurements();
     if (!m) return [];
@@ -61,7 +61,7 @@ export class MeasurementsPanel {
   });
   protected readonly band = computed(() => {
     const ref = this.reference();
-    return ref ? referenceBandOf(ref) : null;
+    return ref ? referenceBandOf(ref.band) : null;
   });
   protected readonly unit = computed(() => (this.reference() ? 'Ω·cm' : 'Ω'));
   protected readonly plotNote = computed(() => {
@@ -82,7 +82,7 @@ export class MeasurementsPanel {
         .pipe(
           switchMap((lib) => {
             const newest = (lib?.versions ?? []).filter((v) => v.status === 'published').sort((a, b) => b.version - a.version)[0];
-            return newest ? this.analyses.referenceSpectra(newest.id) : EMPTY;
+            return newest ? this.analyses.referenceBand(newest.id) : EMPTY;
           }),
         )
         .subscribe((ref) => this.reference.set(ref));

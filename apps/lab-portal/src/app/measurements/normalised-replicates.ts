@@ -1,4 +1,4 @@
-import type { ReferenceSpectra } from '@ohmprint/contracts';
+import type { ReferenceBandView } from '@ohmprint/contracts';
 import { normaliseSpectrum } from '@ohmprint/spectral-engine';
 import type { SpectrumSeries } from '@ohmprint/ui';
 
@@ -9,7 +9,7 @@ import type { SpectrumSeries } from '@ohmprint/ui';
  */
 export function normalisedReplicates(
   replicates: readonly (SpectrumSeries & { readonly cellConstantPerCm: number; readonly temperatureC: number })[],
-  reference: Pick<ReferenceSpectra, 'referenceTemperatureC' | 'temperatureCoefficientPerC'>,
+  reference: Pick<ReferenceBandView, 'referenceTemperatureC' | 'temperatureCoefficientPerC'>,
 ): SpectrumSeries[] {
   return replicates.map((r) => {
     const n = normaliseSpectrum(

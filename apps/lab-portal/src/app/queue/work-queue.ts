@@ -1,17 +1,16 @@
 import { DatePipe, DecimalPipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, DestroyRef, inject, input, signal, viewChild, type AfterViewInit } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject, input } from '@angular/core';
 import { FormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatChipsModule } from '@angular/material/chips';
 import { MatIconModule } from '@angular/material/icon';
-import { MatPaginator, MatPaginatorModule } from '@angular/material/paginator';
+import { MatPaginatorModule } from '@angular/material/paginator';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
-import { MatSort, MatSortModule } from '@angular/material/sort';
+import { MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import { Router, RouterLink } from '@angular/router';
-import { SAMPLE_STATES, type SampleState, type WorkQueueItem } from '@ohmprint/contracts';
-import { EmptyState, SAMPLE_STATE_LOOK, SampleStateChip, SearchField, ServerList, Session } from '@ohmprint/ui';
-import { Subject } from 'rxjs';
+import { MATRIX_LABELS, SAMPLE_STATES, type Matrix, type SampleState, type WorkQueueItem } from '@ohmprint/contracts';
+import { EmptyState, SAMPLE_STATE_LOOK, SampleStateChip, SearchField, ServerList, Session, someOf } from '@ohmprint/ui';
 import { QueueData } from './queue-data';
 import { statesForRoles } from './role-states';
 
@@ -27,13 +26,10 @@ import { statesForRoles } from './role-states';
   templateUrl: './work-queue.html',
   styleUrl: './work-queue.scss',
 })
-export class WorkQueue implements AfterViewInit {
+export class WorkQueue {
   private readonly data = inject(QueueData);
   private readonly router = inject(Router);
-  private readonly destroyRef = inject(DestroyRef);
   private readonly session = inject(Session);
-  private readonly sort = viewChild.required(MatSort);
-  private readonly paginator = viewChild.required(MatPaginator);
 
   /** On the home page, under its own heading: no page header of its own. */
   readonly embedded = input(false);
@@ -41,29 +37,26 @@ export class WorkQueue implements AfterViewInit {
   protected readonly allStates = SAMPLE_STATES;
   protected readonly stateLook = SAMPLE_STATE_LOOK;
   protected readonly columns = ['code', 'state', 'product', 'client', 'age', 'due'];
-  protected readonly list = new ServerList<WorkQueueItem>();
-  protected readonly search = new Subject<string>();
-  protected readonly states = signal<SampleState[]>(statesForRoles(this.session.roles()));
+  /** Without `states` in the URL, the states the user's roles act on; `states=` (empty) is every state. */
+  protected readonly list = new ServerList<WorkQueueItem, { states: readonly SampleState[] }>({
+    sorts: ['age', 'due', 'code', 'state', 'product', 'client'],
+    sort: 'age',
+    dir: 'desc',
+    filters: { states: someOf(SAMPLE_STATES, statesForRoles(this.session.roles())) },
+    fetch: (query, f) => this.data.list(query, f.states),
+  });
   protected readonly isIntake = this.session.hasAnyRole(['intake-technician']);
 
-  ngAfterViewInit(): void {
-    this.list.connect({
-      sort: this.sort(),
-      paginator: this.paginator(),
-      search: this.search,
-      fetch: (query) => this.data.list(query, this.states()),
-      destroyRef: this.destroyRef,
-    });
-  }
-
-  protected filterStates(states: SampleState[]): void {
-    this.states.set(states);
-    this.paginator().pageIndex = 0;
-    this.list.reload();
+  protected filterStates(states: readonly SampleState[]): void {
+    this.list.filter({ states });
   }
 
   protected showAll(): void {
     this.filterStates([]);
+  }
+
+  protected matrixWords(matrix: Matrix): string {
+    return MATRIX_LABELS[matrix];
   }
 
   /** Share of the turnaround target used so far, capped for the bar. */

@@ -4,7 +4,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
-import type { ReportDetail, ReportSummary } from '@ohmprint/contracts';
+import { fieldInWords, type ReportDetail, type ReportSummary } from '@ohmprint/contracts';
 import { ApiProblem } from '@ohmprint/ui';
 import { ReportsData } from './reports-data';
 
@@ -94,7 +94,7 @@ export class ReasonDialog {
       error: (e: unknown) => {
         this.saving.set(false);
         const p = ApiProblem.from(e);
-        this.error.set(p.fieldErrors.map((f) => `${f.field}: ${f.message}`).join('; ') || p.summary);
+        this.error.set(p.fieldErrors.map((f) => `${fieldInWords(f.field)}: ${f.message}`).join('; ') || p.summary);
       },
     });
   }

@@ -1,18 +1,17 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, DestroyRef, inject, signal, viewChild, type AfterViewInit } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { FormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
 import { MatMenuModule } from '@angular/material/menu';
-import { MatPaginator, MatPaginatorModule } from '@angular/material/paginator';
+import { MatPaginatorModule } from '@angular/material/paginator';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
-import { MatSort, MatSortModule } from '@angular/material/sort';
+import { MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
-import type { ReportDetail, ReportStatus, ReportSummary } from '@ohmprint/contracts';
-import { EmptyState, Notifier, ScreeningCaution, SearchField, ServerList, Session, VerdictChip } from '@ohmprint/ui';
-import { Subject } from 'rxjs';
+import { REPORT_STATUSES, type ReportDetail, type ReportStatus, type ReportSummary } from '@ohmprint/contracts';
+import { EmptyState, Notifier, ScreeningCaution, SearchField, ServerList, Session, VerdictChip, oneOf } from '@ohmprint/ui';
 import { ReasonDialog, type ReasonDialogData } from './reason-dialog';
 import { ReportFiles } from './report-files';
 import { ReportStatusChip } from './report-status-chip';
@@ -25,29 +24,20 @@ import { ReportsData } from './reports-data';
   templateUrl: './reports-page.html',
   styles: `.number { font-family: ui-monospace, monospace; font-weight: 600; white-space: nowrap; } td.ohm-row-actions { white-space: nowrap; } .filters { display: flex; flex-wrap: wrap; gap: 8px 16px; align-items: center; } .replaces { display: block; font: var(--mat-sys-body-small); color: var(--mat-sys-on-surface-variant); } .caution { margin-top: 16px; }`,
 })
-export class ReportsPage implements AfterViewInit {
+export class ReportsPage {
   private readonly data = inject(ReportsData);
   private readonly files = inject(ReportFiles);
   private readonly dialog = inject(MatDialog);
   private readonly notifier = inject(Notifier);
-  private readonly destroyRef = inject(DestroyRef);
-  private readonly sort = viewChild.required(MatSort);
-  private readonly paginator = viewChild.required(MatPaginator);
   protected readonly canChange = inject(Session).hasAnyRole(['reviewer', 'lab-admin']);
   protected readonly columns = ['number', 'status', 'sample', 'client', 'verdict', 'issuedAt', 'actions'];
-  protected readonly list = new ServerList<ReportSummary>();
-  protected readonly search = new Subject<string>();
-  protected readonly status = signal<ReportStatus | null>(null);
-
-  ngAfterViewInit(): void {
-    this.list.connect({ sort: this.sort(), paginator: this.paginator(), search: this.search, fetch: (q) => this.data.list(q, this.status()), destroyRef: this.destroyRef });
-  }
-
-  protected filter(status: ReportStatus | null): void {
-    this.status.set(status);
-    this.paginator().pageIndex = 0;
-    this.list.reload();
-  }
+  protected readonly list = new ServerList<ReportSummary, { status: ReportStatus | null }>({
+    sorts: ['issuedAt', 'number', 'status'],
+    sort: 'issuedAt',
+    dir: 'desc',
+    filters: { status: oneOf(REPORT_STATUSES) },
+    fetch: (query, f) => this.data.list(query, f.status),
+  });
 
   protected download(r: ReportSummary): void {
     this.files.download(r.id, `${r.number}.pdf`);

@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, DestroyRef, computed, effect, inject, input, signal } from '@angular/core';
 import { FormControl, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
@@ -16,7 +16,7 @@ import { MeasurementsData } from '../measurements/measurements-data';
 import { ReplicateSources } from '../measurements/replicate-sources';
 import { ReportFiles } from '../reports/report-files';
 import { analysisStatusLabel } from '../analyses/analysis-status-label';
-import { filter } from 'rxjs';
+import { filter, switchMap, takeWhile, timer, type Subscription } from 'rxjs';
 import { ApprovalConfirmDialog, type ApprovalConfirmData } from './approval-confirm-dialog';
 import { reviewRefusal } from './review-refusal';
 
@@ -30,7 +30,7 @@ import { reviewRefusal } from './review-refusal';
       <header class="ohm-page-header">
         <div>
           <h1>Review of <a class="code" [routerLink]="['/samples', a.sample.id]">{{ a.sample.code }}</a></h1>
-          <p>Analysed by {{ a.analyst.displayName }} against {{ a.libraryVersion.productName }} library version {{ a.libraryVersion.version }}. Status: {{ statusLabel(a.status) }}.</p>
+          <p>Analysed by {{ a.analyst.displayName }} against {{ a.libraryVersion.productName }} library version {{ a.libraryVersion.version }}. Status: {{ statusText() }}.</p>
         </div>
       </header>
       @if (ownAnalysis()) {
@@ -54,11 +54,23 @@ import { reviewRefusal } from './review-refusal';
         <h2 class="title">Analyst's remarks</h2>
         <p>{{ a.remarks }}</p>
       }
-      @if (issued(); as done) {
-        <ohm-notice tone="success" icon="verified">
-          Report <strong>{{ done.report.number }}</strong> issued, signed and sent to the client.
-          <button mat-button type="button" (click)="download(done)"><mat-icon>download</mat-icon>Download the PDF</button>
-        </ohm-notice>
+      @if (issuance(); as i) {
+        @if (i.state === 'issued' && i.report; as report) {
+          <ohm-notice tone="success" icon="verified">
+            Report <strong>{{ report.number }}</strong> issued, signed and sent to the client.
+            <button mat-button type="button" (click)="download(i)"><mat-icon>download</mat-icon>Download the PDF</button>
+          </ohm-notice>
+        } @else if (i.state === 'failed') {
+          <ohm-notice tone="error" icon="error">
+            {{ i.detail }}
+            <button mat-button type="button" (click)="retry(a)"><mat-icon>refresh</mat-icon>Try issuing again</button>
+          </ohm-notice>
+        } @else {
+          <section class="issuing" role="status" aria-live="polite">
+            <p><strong>Issuing report…</strong> Approved. The report is being numbered, rendered, signed and e-mailed to the client; you may leave this page, it carries on.</p>
+            <mat-progress-bar mode="indeterminate" aria-label="Issuing the report" />
+          </section>
+        }
       } @else if (a.status === 'submitted') {
         <section class="decide" aria-labelledby="decide-heading">
           <h2 id="decide-heading" class="title">Your decision</h2>
@@ -87,6 +99,7 @@ import { reviewRefusal } from './review-refusal';
     .spectra { margin: 12px 0; }
     .spectra summary { cursor: pointer; font: var(--mat-sys-title-small); padding: 6px 0; }
     .buttons { display: flex; gap: 8px; flex-wrap: wrap; }
+    .issuing { margin: 12px 0; }
   `,
 })
 export class ReviewPage {
@@ -100,9 +113,20 @@ export class ReviewPage {
   protected readonly analysis = signal<Analysis | null>(null);
   protected readonly working = signal<string | null>(null);
   protected readonly refusal = signal<string | null>(null);
-  protected readonly issued = signal<ApprovalResult | null>(null);
+  /** The report's issuance once approved: issuing (polled every second), issued or failed. */
+  protected readonly issuance = signal<ApprovalResult | null>(null);
+  private polling: Subscription | null = null;
+  private readonly destroyRef = inject(DestroyRef);
   protected readonly comments = new FormControl('', { nonNullable: true, validators: [Validators.maxLength(5000)] });
   protected readonly statusLabel = analysisStatusLabel;
+  protected readonly statusText = computed(() => {
+    const a = this.analysis();
+    if (!a) return '';
+    const state = this.issuance()?.state;
+    if (a.status === 'approved' && state === 'issuing') return 'approved, issuing the report';
+    if (a.status === 'approved' && state === 'failed') return 'approved, issuing the report failed';
+    return this.statusLabel(a.status);
+  });
   protected readonly ownAnalysis = computed(() => this.analysis()?.analyst.id === this.session.user()?.id);
 
   private readonly measurements = inject(MeasurementsData);
@@ -110,9 +134,11 @@ export class ReviewPage {
   protected readonly replicates = signal<Replicate[] | null>(null);
 
   constructor() {
+    this.destroyRef.onDestroy(() => this.polling?.unsubscribe());
     effect(() =>
       this.data.get(this.id()).subscribe((a) => {
         this.analysis.set(a);
+        if (a.status === 'approved') this.follow(a.id, false);
         const used = new Set(a.result.replicateIds);
         this.measurements.forSample(a.sample.id).subscribe((m) => this.replicates.set(m.replicates.filter((r) => used.has(r.id))));
       }),
@@ -130,13 +156,13 @@ export class ReviewPage {
 
   private approve(a: Analysis): void {
     this.refusal.set(null);
-    this.working.set('Issuing the report: numbering, rendering the PDF, signing it and e-mailing the client…');
+    this.working.set('Approving…');
     this.data.approve(a.id, this.comments.value).subscribe({
       next: (result) => {
         this.working.set(null);
-        this.issued.set(result);
-        this.data.get(a.id).subscribe((updated) => this.analysis.set(updated));
-        this.notifier.success(`Report ${result.report.number} issued.`);
+        this.issuance.set(result);
+        this.analysis.update((current) => (current ? { ...current, status: 'approved' } : current));
+        this.follow(a.id, true);
       },
       error: (e: unknown) => {
         this.working.set(null);
@@ -161,7 +187,37 @@ export class ReviewPage {
     });
   }
 
+  /** Polls the issuance every second until the report is issued or every attempt failed. */
+  private follow(analysisId: string, announce: boolean): void {
+    this.polling?.unsubscribe();
+    this.polling = timer(0, 1000)
+      .pipe(
+        switchMap(() => this.data.issuance(analysisId)),
+        takeWhile((i) => i.state === 'issuing', true),
+      )
+      .subscribe({
+        next: (i) => {
+          this.issuance.set(i);
+          if (i.state === 'issued') {
+            this.data.get(analysisId).subscribe((updated) => this.analysis.set(updated));
+            if (announce && i.report) this.notifier.success(`Report ${i.report.number} issued.`);
+          }
+        },
+        error: (e: unknown) => this.refusal.set(reviewRefusal(ApiProblem.from(e))),
+      });
+  }
+
+  protected retry(a: Analysis): void {
+    this.data.retryIssuance(a.id).subscribe({
+      next: (i) => {
+        this.issuance.set(i);
+        this.follow(a.id, true);
+      },
+      error: (e: unknown) => this.refusal.set(reviewRefusal(ApiProblem.from(e))),
+    });
+  }
+
   protected download(done: ApprovalResult): void {
-    this.files.download(done.report.id, `${done.report.number}.pdf`);
+    if (done.report) this.files.download(done.report.id, `${done.report.number}.pdf`);
   }
 }

@@ -1,14 +1,13 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, DestroyRef, inject, viewChild, type AfterViewInit } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
-import { MatPaginator, MatPaginatorModule } from '@angular/material/paginator';
+import { MatPaginatorModule } from '@angular/material/paginator';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
-import { MatSort, MatSortModule } from '@angular/material/sort';
+import { MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 import type { AnalysisListItem } from '@ohmprint/contracts';
 import { EmptyState, SearchField, ServerList, Session, VerdictChip } from '@ohmprint/ui';
-import { Subject } from 'rxjs';
 import { AnalysesData } from '../analyses/analyses-data';
 
 /** Analyses submitted for review, oldest submission first; my own are marked (four-eyes rule). */
@@ -23,12 +22,12 @@ import { AnalysesData } from '../analyses/analyses-data';
         <p>Analyses waiting for a second person. Approving issues the signed report; you cannot review an analysis you ran yourself.</p>
       </div>
     </header>
-    <ohm-search-field label="Search by sample code or product" (queryChange)="search.next($event)" />
+    <ohm-search-field label="Search by sample code or product" [initial]="list.state().q" (queryChange)="list.search($event)" />
     <div class="ohm-table-card">
       @if (list.loading()) {
         <mat-progress-bar mode="indeterminate" aria-label="Loading reviews" />
       }
-      <table mat-table [dataSource]="list.rows()" matSort matSortActive="submittedAt" matSortDirection="asc" matSortDisableClear aria-label="Analyses awaiting review">
+      <table mat-table [dataSource]="list.rows()" matSort [matSortActive]="list.state().sort" [matSortDirection]="list.state().dir" matSortDisableClear (matSortChange)="list.sortBy($event)" aria-label="Analyses awaiting review">
         <ng-container matColumnDef="sample">
           <th mat-header-cell *matHeaderCellDef mat-sort-header>Sample</th>
           <td mat-cell *matCellDef="let a"><a class="code" [routerLink]="['/reviews', a.id]">{{ a.sampleCode }}</a></td>
@@ -59,23 +58,22 @@ import { AnalysesData } from '../analyses/analyses-data';
           <ohm-empty-state icon="rate_review" heading="Nothing to review"><p>Analyses appear here when an analyst submits them.</p></ohm-empty-state>
         }
       }
-      <mat-paginator [length]="list.total()" [pageSize]="20" [pageSizeOptions]="[10, 20, 50]" aria-label="Review pages" />
+      <mat-paginator [length]="list.total()" [pageIndex]="list.state().page - 1" [pageSize]="list.state().pageSize" [pageSizeOptions]="list.pageSizes" (page)="list.turn($event)" aria-label="Review pages" />
     </div>
   `,
   styles: `.code { font-family: ui-monospace, monospace; font-weight: 600; }`,
 })
-export class ReviewQueue implements AfterViewInit {
+export class ReviewQueue {
   private readonly data = inject(AnalysesData);
-  private readonly destroyRef = inject(DestroyRef);
-  private readonly sort = viewChild.required(MatSort);
-  private readonly paginator = viewChild.required(MatPaginator);
   private readonly session = inject(Session);
   protected readonly myId = () => this.session.user()?.id;
   protected readonly columns = ['sample', 'product', 'verdict', 'analyst', 'submittedAt'];
-  protected readonly list = new ServerList<AnalysisListItem>();
-  protected readonly search = new Subject<string>();
+  protected readonly list = new ServerList<AnalysisListItem>({
+    sorts: ['createdAt', 'submittedAt', 'sample', 'status'],
+    sort: 'submittedAt',
+    dir: 'asc',
+    pageSizes: [10, 20, 50],
+    fetch: (query) => this.data.awaitingReview(query),
+  });
 
-  ngAfterViewInit(): void {
-    this.list.connect({ sort: this.sort(), paginator: this.paginator(), search: this.search, fetch: (q) => this.data.awaitingReview(q), destroyRef: this.destroyRef });
-  }
 }

@@ -4,7 +4,7 @@ import { MatCardModule } from '@angular/material/card';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatTabsModule } from '@angular/material/tabs';
 import { RouterLink } from '@angular/router';
-import type { CustodyEvent, SampleDetail } from '@ohmprint/contracts';
+import { MATRIX_LABELS, type CustodyEvent, type SampleDetail } from '@ohmprint/contracts';
 import { SampleStateChip, Session } from '@ohmprint/ui';
 import { AnalysisPanel } from '../analyses/analysis-panel';
 import { CustodyTimeline } from '../intake/custody-timeline';
@@ -21,6 +21,7 @@ import { MeasurementsPanel } from '../measurements/measurements-panel';
   styleUrl: './sample-page.scss',
 })
 export class SamplePage {
+  protected readonly matrixLabel = MATRIX_LABELS;
   private readonly data = inject(IntakeData);
   private readonly session = inject(Session);
   /** Route parameter, bound by withComponentInputBinding. */

@@ -1,17 +1,17 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, DestroyRef, inject, viewChild, type AfterViewInit } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatChipsModule } from '@angular/material/chips';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
 import { MatMenuModule } from '@angular/material/menu';
-import { MatPaginator, MatPaginatorModule } from '@angular/material/paginator';
+import { MatPaginatorModule } from '@angular/material/paginator';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
-import { MatSort, MatSortModule } from '@angular/material/sort';
+import { MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import type { LabRole, StaffMember } from '@ohmprint/contracts';
 import { EmptyState, ListStatus, Notifier, OpenInvitations, PendingInvitations, ROLE_LABELS, SearchField, ServerList, Session, confirmAction, dialogResult } from '@ohmprint/ui';
-import { Subject, filter, switchMap } from 'rxjs';
+import { filter, switchMap } from 'rxjs';
 import { ChangeRolesDialog } from './change-roles-dialog';
 import { InviteStaffDialog } from './invite-staff-dialog';
 import { StaffData } from './staff-data';
@@ -36,28 +36,22 @@ import { StaffData } from './staff-data';
   ],
   templateUrl: './staff-page.html',
 })
-export class StaffPage implements AfterViewInit {
+export class StaffPage {
   private readonly data = inject(StaffData);
   private readonly dialog = inject(MatDialog);
   private readonly notifier = inject(Notifier);
-  private readonly destroyRef = inject(DestroyRef);
-  private readonly sort = viewChild.required(MatSort);
-  private readonly paginator = viewChild.required(MatPaginator);
   private readonly session = inject(Session);
 
   protected readonly columns = ['displayName', 'email', 'roles', 'status', 'createdAt', 'actions'];
-  protected readonly list = new ServerList<StaffMember>();
-  protected readonly search = new Subject<string>();
+  protected readonly list = new ServerList<StaffMember>({
+    sorts: ['displayName', 'email', 'createdAt'],
+    sort: 'displayName',
+    dir: 'asc',
+    fetch: (query) => this.data.list(query),
+  });
   protected readonly invitations = new OpenInvitations(() => this.data.pendingInvitations());
 
-  ngAfterViewInit(): void {
-    this.list.connect({
-      sort: this.sort(),
-      paginator: this.paginator(),
-      search: this.search,
-      fetch: (query) => this.data.list(query),
-      destroyRef: this.destroyRef,
-    });
+  constructor() {
     this.invitations.reload();
   }
 

@@ -1,3 +1,4 @@
+import { distanceHistogram } from '../../analyses/distance-histogram';
 import { ReportContent, ReportData } from './report-data';
 
 /**
@@ -92,7 +93,7 @@ export function demoReportContent(overrides: Partial<ReportContent> = {}): Repor
         imMin: frequencyHz.map((_, i) => Math.min(low[i].im, high[i].im) - 3),
         imMax: frequencyHz.map((_, i) => Math.max(low[i].im, high[i].im) + 3),
       },
-      calibrationDistances: [0.0061, 0.0083, 0.0094, 0.0102, 0.0111, 0.0119, 0.0128, 0.0137, 0.0149, 0.0163, 0.0181, 0.0232],
+      calibrationHistogram: distanceHistogram([0.0061, 0.0083, 0.0094, 0.0102, 0.0111, 0.0119, 0.0128, 0.0137, 0.0149, 0.0163, 0.0181, 0.0232], 0.0123),
       map: {
         lots: Array.from({ length: 12 }, (_, i) => ({
           label: `L2025-${String(101 + i * 2)}`,

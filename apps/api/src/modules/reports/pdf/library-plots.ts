@@ -2,18 +2,14 @@ import { placeLabels, type LabelRect, type LabelRequest } from '@ohmprint/contra
 import { ReportPlots, ReportResults } from './report-data';
 import { INK, widthOf, write } from './pen';
 import { Axis, Box, clipped, drawFrame, linearAxis, px, py } from './plot-frame';
+import { histogramBars } from './histogram-bins';
 
 const threeDecimals = (v: number): string => Number(v.toFixed(3)).toString();
 
 /** Histogram of the library's calibration distances with the T95/T99 lines and the sample's distance. */
 export function drawDistanceHistogram(doc: PDFKit.PDFDocument, box: Box, plots: ReportPlots, results: ReportResults): void {
-  const d = plots.calibrationDistances.filter((v) => Number.isFinite(v));
   const marks = [results.t95, results.t99, results.nearestDistance].filter((v): v is number => v !== null);
-  const hi = Math.max(...d, ...marks, 1e-6) * 1.1;
-  const bins = Math.max(5, Math.min(20, Math.ceil(Math.sqrt(d.length)) + 3));
-  const width = hi / bins;
-  const counts = new Array<number>(bins).fill(0);
-  for (const v of d) counts[Math.min(bins - 1, Math.floor(v / width))]++;
+  const { hi, edges, counts } = histogramBars(plots, marks);
   const x = linearAxis(0, hi, 'nearest-lot distance (normalised Canberra)', threeDecimals, 5, false);
   const y = linearAxis(0, Math.max(...counts, 1), 'lots', (v) => (Number.isInteger(v) ? `${v}` : ''), 4);
   drawFrame(doc, box, x, y, 'Library spread and this sample');
@@ -21,8 +17,8 @@ export function drawDistanceHistogram(doc: PDFKit.PDFDocument, box: Box, plots: 
     doc.save().fillColor(INK.tealLight).strokeColor(INK.teal).lineWidth(0.5);
     counts.forEach((c, i) => {
       if (!c) return;
-      const x0 = px(box, x, i * width);
-      const x1 = px(box, x, (i + 1) * width);
+      const x0 = px(box, x, edges[i]);
+      const x1 = px(box, x, edges[i + 1]);
       doc.rect(x0, py(box, y, c), x1 - x0, py(box, y, 0) - py(box, y, c)).fillAndStroke();
     });
     doc.restore();

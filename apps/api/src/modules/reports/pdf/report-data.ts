@@ -147,8 +147,13 @@ export interface ReportPlots {
     imMin?: number[];
     imMax?: number[];
   } | null;
-  /** Each reference lot's leave-one-out distance to its nearest other lot. */
-  calibrationDistances: number[];
+  /**
+   * The reference lots' leave-one-out distances as the analysis binned them (equal bins from 0);
+   * a report keeps these bins, not every lot's distance.
+   */
+  calibrationHistogram?: { binEdges: number[]; counts: number[] };
+  /** Every lot's leave-one-out distance: only on reports issued before they kept bins. */
+  calibrationDistances?: number[];
   /** 2-D map (classical MDS) of the reference lots and the sample. */
   map: { lots: { label: string; x: number; y: number }[]; sample: { x: number; y: number } } | null;
 }

@@ -6,7 +6,7 @@ import { config } from '../../../config';
 import { recordAudit } from '../../audit/record-audit';
 import { SigningCredential, CredentialOrigin } from './signing-credential.entity';
 import { runCpuTask } from '../../../core/cpu-pool/cpu-pool';
-import { CredentialError, readCredential } from './credential-details';
+import { CredentialError, type CredentialDetails } from './credential-details';
 import { credentialSealingKey } from './sealing-key';
 import { seal, unseal } from './sealed-secret';
 
@@ -19,8 +19,19 @@ export interface OpenCredential {
 
 const aad = (labId: string, id: string, part: 'p12' | 'passphrase') => `signing_credential/${labId}/${id}/${part}`;
 
-async function store(manager: EntityManager, labId: string, origin: CredentialOrigin, p12: Buffer, passphrase: string, uploadedBy: string | null): Promise<SigningCredential | null> {
-  const details = readCredential(p12, passphrase);
+/**
+ * `readCredential` in a worker thread: deriving a PKCS#12 file's keys is slow by design (up to
+ * the iteration limit), and must never hold up the event loop. Throws `CredentialError` as the
+ * in-process call would.
+ */
+export async function readCredentialOffThread(p12: Buffer, passphrase: string, now = new Date()): Promise<CredentialDetails> {
+  const details = await runCpuTask('openCredential', { p12: new Uint8Array(p12), passphrase, now });
+  if ('credentialError' in details) throw new CredentialError(details.credentialError);
+  return details;
+}
+
+async function store(manager: EntityManager, labId: string, origin: CredentialOrigin, p12: Buffer, passphrase: string, uploadedBy: string | null, read?: CredentialDetails): Promise<SigningCredential | null> {
+  const details = read ?? (await readCredentialOffThread(p12, passphrase));
   const key = credentialSealingKey();
   const id = randomUUID();
   // ON CONFLICT DO NOTHING: two first issuances racing in development create one credential, not an error.
@@ -87,8 +98,9 @@ export async function credentialForSigning(manager: EntityManager, lab: { id: st
 
 /** Replaces the lab's credential with an uploaded PKCS#12 file, after checking it opens and is in date. */
 export async function uploadCredential(manager: EntityManager, input: { labId: string; actorUserId: string; p12: Buffer; passphrase: string }): Promise<SigningCredential> {
+  let details: CredentialDetails;
   try {
-    readCredential(input.p12, input.passphrase);
+    details = await readCredentialOffThread(input.p12, input.passphrase);
   } catch (error) {
     if (error instanceof CredentialError) {
       const field = /passphrase/.test(error.message) ? 'passphrase' : 'file';
@@ -98,7 +110,7 @@ export async function uploadCredential(manager: EntityManager, input: { labId: s
   }
   const previous = await currentCredential(manager, input.labId);
   if (previous) await manager.update(SigningCredential, { id: previous.id }, { retiredAt: new Date() });
-  const stored = await store(manager, input.labId, 'uploaded', input.p12, input.passphrase, input.actorUserId);
+  const stored = await store(manager, input.labId, 'uploaded', input.p12, input.passphrase, input.actorUserId, details);
   if (!stored) throw ApiError.conflict('Another signing credential was uploaded at the same moment; reload and try again.');
   await recordAudit(manager, {
     labId: input.labId,

@@ -1,0 +1,76 @@
+import type { EntityManager } from 'typeorm';
+import type { ApprovalResult } from '@ohmprint/contracts';
+import { ApiError } from '../../core/api-error';
+import { enqueue, latestJob } from '../../core/jobs/jobs';
+import { dataSource } from '../../db/data-source';
+import { Analysis } from '../analyses/analysis.entity';
+import { refreshOrderStatus } from '../orders/order-progress';
+import { consumeSampleCredits } from '../orders/sample-credits';
+import { issueReport } from '../reports/issue-report';
+import { findLabSample, moveSample } from '../samples/sample-access';
+import { AnalysisReview } from './analysis-review.entity';
+import { reportContentFor } from './report-content';
+
+export interface ReportIssuancePayload {
+  labId: string;
+  analysisId: string;
+}
+
+/** Queues the report of an approved analysis (one waiting job per analysis at most). */
+export async function enqueueReportIssuance(manager: EntityManager, labId: string, analysisId: string): Promise<void> {
+  await enqueue(manager, 'report-issue', { labId, analysisId } satisfies ReportIssuancePayload, { singletonKey: analysisId });
+}
+
+/**
+ * The job: issues the report of an approved analysis, once. The approval row is locked for the
+ * whole transaction and the job ends at once when it already names a report, so a retry, a second
+ * worker or a job run again after a crash never issues twice. Number, report row, consumed
+ * credits, client notice, the approval's link to the report and the sample's move to `reported`
+ * commit together; a crash before commit (even after signing) leaves nothing, and the number it
+ * had claimed is the next one handed out (see `claimReportNumber`).
+ */
+export async function issueApprovedReport(payload: ReportIssuancePayload): Promise<{ reportId: string; number: string; already: boolean }> {
+  const { labId, analysisId } = payload;
+  return dataSource.transaction(async (manager) => {
+    const review = await manager.findOne(AnalysisReview, {
+      where: { labId, analysisId, decision: 'approved' },
+      order: { decidedAt: 'DESC' },
+      lock: { mode: 'pessimistic_write' },
+    });
+    if (!review) throw new Error(`analysis ${analysisId} has no approval to issue a report for`);
+    if (review.reportId) {
+      const [done]: Array<{ number: string }> = await manager.query('SELECT number FROM test_report WHERE id = $1', [review.reportId]);
+      return { reportId: review.reportId, number: done.number, already: true };
+    }
+    const analysis = await manager.findOneByOrFail(Analysis, { id: analysisId, labId });
+    const sample = await findLabSample(manager, labId, analysis.sampleId, true);
+    const [reviewer]: Array<{ display_name: string }> = await manager.query('SELECT display_name FROM app_user WHERE id = $1', [review.reviewerUserId]);
+    const { content, clientOrganisationId } = await reportContentFor(manager, analysis, reviewer.display_name);
+    const report = await issueReport(manager, {
+      labId, analysisId, sampleId: sample.id, clientOrganisationId, actorUserId: review.reviewerUserId, content, issuedAt: review.decidedAt,
+      steps: [(m, issued) => consumeSampleCredits(m, labId, sample.id, `Report ${issued.number} issued`, review.reviewerUserId).then(() => undefined)],
+    });
+    await manager.update(AnalysisReview, { id: review.id, labId }, { reportId: report.id });
+    await moveSample(manager, sample, 'reported');
+    await refreshOrderStatus(manager, labId, sample.orderId);
+    return { reportId: report.id, number: report.number, already: false };
+  });
+}
+
+/** Where the report of an approved analysis is (the review screen polls this while it waits). */
+export async function reportIssuanceOf(manager: EntityManager, labId: string, analysisId: string): Promise<ApprovalResult> {
+  const analysis = await manager.findOneBy(Analysis, { id: analysisId, labId });
+  if (!analysis) throw ApiError.notFound('Analysis');
+  const [review]: Array<{ report_id: string | null; number: string | null }> = await manager.query(
+    `SELECT r.report_id, t.number FROM analysis_review r LEFT JOIN test_report t ON t.id = r.report_id
+      WHERE r.analysis_id = $1 AND r.lab_id = $2 AND r.decision = 'approved' ORDER BY r.decided_at DESC LIMIT 1`,
+    [analysisId, labId],
+  );
+  if (!review) throw ApiError.conflict(`This analysis is ${analysis.status}; it has no approval, so no report is being issued.`);
+  if (review.report_id) return { analysisId, state: 'issued', report: { id: review.report_id, number: review.number as string }, detail: null };
+  const job = await latestJob(manager, 'report-issue', analysisId);
+  if (job?.state === 'failed') {
+    return { analysisId, state: 'failed', report: null, detail: 'Issuing the report failed after several attempts. Ask your lab admin to check the signing certificate, then retry.' };
+  }
+  return { analysisId, state: 'issuing', report: null, detail: null };
+}

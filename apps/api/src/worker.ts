@@ -1,0 +1,48 @@
+import { config } from './config';
+import { closeCpuPool } from './core/cpu-pool/cpu-pool';
+import { startJobs, stopJobs } from './core/jobs/jobs';
+import { logger } from './core/logger';
+import { dataSource } from './db/data-source';
+import { jobHandlers } from './job-handlers';
+import { createMailTransport } from './modules/mail/mail-transport';
+import { startOutboxWorker } from './modules/mail/outbox-worker';
+
+/**
+ * The worker process (`npm start` runs one beside the API): runs queued jobs (report issuance,
+ * e-mail, large publications and analyses). Any number of workers may share one database; each
+ * job runs in one of them at a time.
+ */
+async function main(): Promise<void> {
+  await dataSource.initialize();
+  await startJobs({ handlers: jobHandlers({ email: config.mail.workerEnabled }), supervise: true, maxConnections: 6 });
+  // The sweep sends what no job did: retries after an outage, messages queued without a job.
+  const sweep = config.mail.workerEnabled ? startOutboxWorker(dataSource, createMailTransport()) : undefined;
+  logger.info('Ohmprint worker running');
+
+  let stopping = false;
+  const shutdown = (signal: string): void => {
+    if (stopping) return;
+    stopping = true;
+    logger.info({ signal }, 'worker shutting down');
+    const hardStop = setTimeout(() => {
+      logger.error('graceful worker shutdown timed out; exiting');
+      process.exit(1);
+    }, config.shutdownTimeoutMs + 5000);
+    hardStop.unref();
+    void (async () => {
+      await sweep?.stop();
+      await stopJobs(Math.max(1, Math.floor(config.shutdownTimeoutMs / 1000)));
+      await closeCpuPool();
+      await dataSource.destroy();
+      logger.info('worker stopped');
+      process.exit(0);
+    })();
+  };
+  process.on('SIGTERM', () => shutdown('SIGTERM'));
+  process.on('SIGINT', () => shutdown('SIGINT'));
+}
+
+main().catch((err) => {
+  logger.fatal({ err }, 'the worker could not start');
+  process.exit(1);
+});

@@ -1,0 +1,163 @@
+/**
+ * Report issuance as a job, end to end (`npm run bench`): one approval alone against four at once,
+ * each timed from the reviewer's POST until the issuance route says the signed report is issued.
+ * Runs the built API and one worker as separate processes (as `npm start` does) on a freshly
+ * migrated and demo-seeded database of its own, dropped afterwards. Prints JSON lines; the budget
+ * (each of four concurrent approvals no slower than 1.5x a lone one) is printed beside the figure.
+ */
+import { spawn, type ChildProcess } from 'node:child_process';
+import { existsSync, mkdirSync, openSync } from 'node:fs';
+import { createServer, type AddressInfo } from 'node:net';
+import { loadavg } from 'node:os';
+import { join } from 'node:path';
+import { performance } from 'node:perf_hooks';
+
+process.env.LOG_LEVEL = 'silent';
+
+const LONE_RUNS = 5;
+const CONCURRENT_ROUNDS = 3;
+const ROOT = join(__dirname, '..', '..');
+const DIST = join(ROOT, 'dist', 'api', 'apps', 'api', 'src');
+
+const round = (v: number) => Math.round(v * 10) / 10;
+const median = (v: number[]) => {
+  const s = [...v].sort((a, b) => a - b);
+  return s.length % 2 ? s[(s.length - 1) / 2] : (s[s.length / 2 - 1] + s[s.length / 2]) / 2;
+};
+const line = (o: object) => console.log(JSON.stringify({ ...o, loadAverage1m: round(loadavg()[0]) }));
+
+async function freePort(): Promise<number> {
+  const server = createServer();
+  await new Promise<void>((r) => server.listen(0, '127.0.0.1', r));
+  const { port } = server.address() as AddressInfo;
+  await new Promise<void>((r) => server.close(() => r()));
+  return port;
+}
+
+async function main(): Promise<void> {
+  for (const f of ['main.js', 'worker.js']) if (!existsSync(join(DIST, f))) throw new Error(`${join(DIST, f)} is missing: npm run build:api`);
+  const { withMaintenanceConnection, quoteIdent } = await import('../../apps/api/src/testing/maintenance-db');
+  const database = `ohmprint_bench_jobs_${process.pid}`;
+  await withMaintenanceConnection((c) => c.query(`CREATE DATABASE ${quoteIdent(database)}`));
+  const { dataSource } = await import('../../apps/api/src/db/data-source');
+  dataSource.setOptions({ database, poolSize: 4 });
+  await dataSource.initialize();
+  const children: ChildProcess[] = [];
+  try {
+    await dataSource.runMigrations({ transaction: 'each' });
+    await (await import('../../apps/api/src/core/jobs/jobs')).installJobSchema();
+    const { hashPassword } = await import('../../apps/api/src/modules/auth/passwords');
+    const { seedAccounts } = await import('../../docker-free-scripts/seed/accounts');
+    const { seedLabDemo } = await import('../../docker-free-scripts/seed/lab-demo');
+    await dataSource.transaction(async (m) => seedAccounts(m, await hashPassword('bench-password-not-secret')));
+    await dataSource.transaction((m) => seedLabDemo(m));
+
+    const port = await freePort();
+    const base = `http://127.0.0.1:${port}/api`;
+    const env = { ...process.env, DATABASE_NAME: database, PORT: String(port), OUTBOX_WORKER: 'false', LOG_LEVEL: 'warn' };
+    mkdirSync(join(ROOT, '.data', 'logs'), { recursive: true });
+    for (const [name, script] of [['api', 'main.js'], ['worker', 'worker.js']]) {
+      const out = openSync(join(ROOT, '.data', 'logs', `bench-jobs-${name}.log`), 'w');
+      children.push(spawn(process.execPath, [join(DIST, script)], { env, stdio: ['ignore', out, out] }));
+    }
+    for (let i = 0; ; i++) {
+      if (await fetch(`${base}/health`).then((r) => r.ok).catch(() => false)) break;
+      if (i > 200) throw new Error('the API did not start; see .data/logs/bench-jobs-api.log');
+      await new Promise((r) => setTimeout(r, 150));
+    }
+
+    const { signAccessToken } = await import('../../apps/api/src/modules/auth/access-token');
+    const { demoFiles } = await import('../../docker-free-scripts/seed/lab-demo-files');
+    const { newSampleCode } = await import('../../apps/api/src/modules/samples/sample-code');
+    const [ctx] = await dataSource.query(
+      `SELECT s.lab_id, s.order_id, (SELECT id FROM app_user WHERE email = 'analyst@calder.test') AS analyst_id,
+              (SELECT id FROM app_user WHERE email = 'reviewer@calder.test') AS reviewer_id,
+              (SELECT v.id FROM library_version v JOIN reference_library l ON l.id = v.library_id JOIN product p ON p.id = l.product_id
+                WHERE p.name = 'Ridgeline Red (demo)' AND v.status = 'published' ORDER BY v.version DESC LIMIT 1) AS version_id
+         FROM sample s WHERE s.code = 'OP-7K3M-Q9'`,
+    );
+    const analyst = { Authorization: `Bearer ${signAccessToken(ctx.analyst_id)}` };
+    const reviewer = { Authorization: `Bearer ${signAccessToken(ctx.reviewer_id)}` };
+    const call = async (method: string, path: string, auth: Record<string, string>, body?: unknown) => {
+      const multipart = body instanceof FormData;
+      const res = await fetch(`${base}${path}`, { method, headers: { ...auth, ...(body && !multipart ? { 'content-type': 'application/json' } : {}) }, body: body === undefined ? undefined : multipart ? body : JSON.stringify(body) });
+      const json = await res.json();
+      if (!res.ok) throw new Error(`${method} ${path} answered ${res.status}: ${JSON.stringify(json)}`);
+      return json;
+    };
+    const bench = await call('GET', '/lab/bench', analyst);
+    const files = demoFiles().filter((f) => f.sampleCode === 'OP-7K3M-Q9');
+    /** A fresh accepted sample, measured with the demo's authentic-like replicates, analysed and submitted. */
+    const submitted = async (): Promise<string> => {
+      const code = newSampleCode();
+      const [s] = await dataSource.query(
+        `INSERT INTO sample (lab_id, order_id, code, state, obtained_where, obtained_on, received_at) VALUES ($1, $2, $3, 'accepted', 'Bench (invented)', '2026-11-30', now()) RETURNING id`,
+        [ctx.lab_id, ctx.order_id, code],
+      );
+      const form = new FormData();
+      form.set('instrumentId', bench.instruments[0].id);
+      form.set('cellId', bench.cells[0].id);
+      form.set('temperatureC', String(files[0].temperatureC));
+      for (const f of files) form.append('files', new Blob([f.text.replaceAll('OP-7K3M-Q9', code)]), f.fileName.replace('OP-7K3M-Q9', code));
+      await call('POST', `/lab/samples/${s.id}/measurements`, analyst, form);
+      const a = await call('POST', `/lab/samples/${s.id}/analyses`, analyst, { libraryVersionId: ctx.version_id });
+      await call('POST', `/lab/analyses/${a.id}/submit`, analyst);
+      return a.id as string;
+    };
+    /** POST approve (answered 202 at once), then poll the issuance every 20 ms until issued; both times. */
+    const approveToIssued = async (id: string): Promise<{ answerMs: number; issuedMs: number }> => {
+      const start = performance.now();
+      await call('POST', `/lab/analyses/${id}/approve`, reviewer, { comments: 'Bench approval' });
+      const answerMs = performance.now() - start;
+      for (;;) {
+        const s = await call('GET', `/lab/analyses/${id}/issuance`, reviewer);
+        if (s.state === 'issued') return { answerMs, issuedMs: performance.now() - start };
+        if (s.state === 'failed') throw new Error(`issuance of ${id} failed`);
+        await new Promise((r) => setTimeout(r, 20));
+      }
+    };
+
+    // The lab's first issuance creates its development signing credential: done once, not timed.
+    await approveToIssued(await submitted());
+    const lone: Array<{ answerMs: number; issuedMs: number }> = [];
+    for (let i = 0; i < LONE_RUNS; i++) lone.push(await approveToIssued(await submitted()));
+    const loneMedian = median(lone.map((l) => l.issuedMs));
+    line({ bench: 'jobs-lone-approval-to-issued-report', n: LONE_RUNS, medianMs: round(loneMedian), minMs: round(Math.min(...lone.map((l) => l.issuedMs))), maxMs: round(Math.max(...lone.map((l) => l.issuedMs))), approvalAnswerMedianMs: round(median(lone.map((l) => l.answerMs))) });
+
+    const slowest: number[] = [];
+    const all: number[] = [];
+    const answers: number[] = [];
+    for (let r = 0; r < CONCURRENT_ROUNDS; r++) {
+      const four = await Promise.all([submitted(), submitted(), submitted(), submitted()]);
+      const timings = await Promise.all(four.map(approveToIssued));
+      slowest.push(Math.max(...timings.map((t) => t.issuedMs)));
+      all.push(...timings.map((t) => t.issuedMs));
+      answers.push(...timings.map((t) => t.answerMs));
+    }
+    const slowestMedian = median(slowest);
+    const loneAnswer = median(lone.map((l) => l.answerMs));
+    line({
+      bench: 'jobs-four-concurrent-approvals-to-issued-reports',
+      rounds: CONCURRENT_ROUNDS,
+      eachMedianMs: round(median(all)),
+      slowestOfFourMedianMs: round(slowestMedian),
+      loneMedianMs: round(loneMedian),
+      slowestVsLone: round(slowestMedian / loneMedian),
+      approvalAnswerMaxMs: round(Math.max(...answers)),
+      approvalAnswerMedianMs: round(median(answers)),
+      approvalAnswerVsLone: round(median(answers) / loneAnswer),
+      budget: 'each of four concurrent approvals no slower than 1.5x a lone one',
+      withinBudget: slowestMedian <= 1.5 * loneMedian,
+      note: 'one API and one worker process; the worker renders and signs in its piscina pool (CPU_WORKERS, default two threads), so four reports need four times the CPU of one: on two shared cores the end-to-end ratio follows the CPU, while the approval itself (what the reviewer waits for) stays short',
+    });
+  } finally {
+    await Promise.all(children.map((c) => new Promise<void>((r) => (c.exitCode !== null ? r() : (c.once('exit', () => r()), c.kill('SIGTERM'))))));
+    await dataSource.destroy();
+    await withMaintenanceConnection((c) => c.query(`DROP DATABASE IF EXISTS ${quoteIdent(database)}`));
+  }
+}
+
+main().catch((err) => {
+  console.error(err);
+  process.exitCode = 1;
+});

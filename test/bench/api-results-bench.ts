@@ -1,0 +1,149 @@
+/**
+ * Result figures at 100× the demo, printed as JSON lines (`npm run bench`):
+ *   - an analysis at the API against a published 50,000-lot library: warm p50/p95 (budget 150 ms),
+ *     its response's bytes (budget 100 KB), and the first (cold) run that loads the library;
+ *   - a page of every lot's distance, and the stored reference band;
+ *   - the signed report's stored content (bins and band, not every distance) and PDF bytes;
+ *   - the published-library cache's bytes and the process's memory.
+ * The library is invented, demo-like data bulk-inserted straight into the database
+ * (test/bench/fixtures/large-library.ts). Runs against a freshly migrated database of its own,
+ * seeded with the invented demo, and drops it afterwards. Figures, not pass/fail.
+ */
+import type { AddressInfo } from 'node:net';
+import { loadavg } from 'node:os';
+import { performance } from 'node:perf_hooks';
+
+process.env.LOG_LEVEL = 'silent';
+process.env.OUTBOX_WORKER = 'false';
+
+const LOTS = Number(process.env.BENCH_RESULTS_LOTS ?? 50_000);
+const RUNS = 20;
+const CODE = 'OP-7K3M-Q9';
+
+const round = (v: number) => Math.round(v * 10) / 10;
+function stats(ms: number[]) {
+  const s = [...ms].sort((a, b) => a - b);
+  const at = (p: number) => s[Math.min(s.length - 1, Math.ceil(p * s.length) - 1)];
+  return { n: s.length, p50Ms: round(at(0.5)), p95Ms: round(at(0.95)), maxMs: round(s[s.length - 1]) };
+}
+const line = (o: object) => console.log(JSON.stringify({ ...o, loadAverage1m: round(loadavg()[0]) }));
+const mb = (bytes: number) => Math.round(bytes / 1048576);
+
+async function main(): Promise<void> {
+  const { withMaintenanceConnection, quoteIdent } = await import('../../apps/api/src/testing/maintenance-db');
+  const database = `ohmprint_results_bench_${process.pid}`;
+  await withMaintenanceConnection((c) => c.query(`CREATE DATABASE ${quoteIdent(database)}`));
+  const { dataSource } = await import('../../apps/api/src/db/data-source');
+  dataSource.setOptions({ database, poolSize: 4 });
+  await dataSource.initialize();
+  let server: import('node:http').Server | undefined;
+  try {
+    await dataSource.runMigrations({ transaction: 'each' });
+    const { hashPassword } = await import('../../apps/api/src/modules/auth/passwords');
+    const { seedAccounts } = await import('../../docker-free-scripts/seed/accounts');
+    const { seedLabDemo } = await import('../../docker-free-scripts/seed/lab-demo');
+    const hash = await hashPassword('bench-password-not-secret');
+    await dataSource.transaction((m) => seedAccounts(m, hash));
+    await dataSource.transaction((m) => seedLabDemo(m));
+    const [ctx] = await dataSource.query(
+      `SELECT o.product_id, s.lab_id, s.id AS sample_id,
+              (SELECT id FROM app_user WHERE email = 'admin@calder.test') AS admin_id,
+              (SELECT id FROM app_user WHERE email = 'analyst@calder.test') AS analyst_id,
+              (SELECT id FROM app_user WHERE email = 'reviewer@calder.test') AS reviewer_id
+       FROM sample s JOIN test_order o ON o.id = s.order_id WHERE s.code = $1`,
+      [CODE],
+    );
+
+    const { insertLargePublishedLibrary } = await import('./fixtures/large-library');
+    let t0 = performance.now();
+    const { versionId } = await dataSource.transaction((m) => insertLargePublishedLibrary(m, { labId: ctx.lab_id, productId: ctx.product_id, lots: LOTS, publishedByUserId: ctx.admin_id }));
+    line({ bench: 'results-build-library', lots: LOTS, ms: round(performance.now() - t0), note: 'bulk insert of invented lots, publish, band stored' });
+
+    const { createApp } = await import('../../apps/api/src/app');
+    const { signAccessToken } = await import('../../apps/api/src/modules/auth/access-token');
+    const { demoFiles } = await import('../../docker-free-scripts/seed/lab-demo-files');
+    const { libraryCacheBytes } = await import('../../apps/api/src/modules/libraries/published-library');
+    server = createApp().listen(0, '127.0.0.1');
+    await new Promise((r) => server!.once('listening', r));
+    const base = `http://127.0.0.1:${(server.address() as AddressInfo).port}/api`;
+    const analyst = { Authorization: `Bearer ${signAccessToken(ctx.analyst_id)}` };
+    const reviewer = { Authorization: `Bearer ${signAccessToken(ctx.reviewer_id)}` };
+    const call = async (method: string, path: string, auth: Record<string, string>, body?: unknown) => {
+      const res = await fetch(`${base}${path}`, { method, headers: { ...auth, ...(body ? { 'content-type': 'application/json' } : {}) }, body: body ? JSON.stringify(body) : undefined });
+      const text = await res.text();
+      if (!res.ok) throw new Error(`${method} ${path} answered ${res.status}: ${text.slice(0, 400)}`);
+      return { json: JSON.parse(text), bytes: Buffer.byteLength(text) };
+    };
+    const bench = (await call('GET', '/lab/bench', analyst)).json;
+    const files = demoFiles().filter((f) => f.sampleCode === CODE);
+    // The demo sample the invented exports were made for, measured once; every analysis re-scores it.
+    const form = new FormData();
+    form.set('instrumentId', bench.instruments[0].id);
+    form.set('cellId', bench.cells[0].id);
+    form.set('temperatureC', String(files[0].temperatureC));
+    for (const f of files) form.append('files', new Blob([f.text]), f.fileName);
+    const upload = await fetch(`${base}/lab/samples/${CODE}/measurements`, { method: 'POST', headers: analyst, body: form });
+    if (upload.status !== 201) throw new Error(`upload answered ${upload.status}: ${await upload.text()}`);
+    const sampleId: string = ctx.sample_id;
+    const warm: number[] = [];
+    let first = 0;
+    let responseBytes = 0;
+    let last: { id: string; result: { verdict: string; distances: unknown[]; lotCount: number } } | undefined;
+    for (let i = 0; i <= RUNS; i++) {
+      t0 = performance.now();
+      const r = await call('POST', `/lab/samples/${sampleId}/analyses`, analyst, { libraryVersionId: versionId });
+      const ms = performance.now() - t0;
+      if (i === 0) first = ms;
+      else warm.push(ms);
+      responseBytes = Math.max(responseBytes, r.bytes);
+      last = r.json;
+    }
+    const s = stats(warm);
+    line({
+      bench: 'results-analysis-at-api', lots: LOTS, ...s, firstMs: round(first), firstNote: 'includes loading and decoding the library',
+      responseBytes, nearestLotsReturned: last?.result.distances.length, lotCount: last?.result.lotCount, verdict: last?.result.verdict,
+      budgetMs: 150, budgetBytes: 100_000, withinBudget: s.p50Ms <= 150 && responseBytes <= 100_000,
+    });
+
+    const view: number[] = [];
+    let viewBytes = 0;
+    for (let i = 0; i < RUNS; i++) {
+      t0 = performance.now();
+      viewBytes = (await call('GET', `/lab/analyses/${last!.id}`, reviewer)).bytes;
+      view.push(performance.now() - t0);
+    }
+    line({ bench: 'results-analysis-read', lots: LOTS, ...stats(view), responseBytes: viewBytes });
+
+    const pages: number[] = [];
+    let pageBytes = 0;
+    for (const after of [0, 10_000, 25_000, LOTS - 200, 100, 40_000, 5_000, 30_000, 45_000, 20_000]) {
+      t0 = performance.now();
+      pageBytes = (await call('GET', `/lab/analyses/${last!.id}/lot-distances?after=${Math.max(0, Math.min(after, LOTS - 200))}&limit=200`, reviewer)).bytes;
+      pages.push(performance.now() - t0);
+    }
+    line({ bench: 'results-lot-distance-page', lots: LOTS, limit: 200, ...stats(pages), responseBytes: pageBytes });
+
+    t0 = performance.now();
+    const band = await call('GET', `/lab/library-versions/${versionId}/reference-band`, reviewer);
+    line({ bench: 'results-reference-band', lots: LOTS, ms: round(performance.now() - t0), responseBytes: band.bytes });
+
+    await call('POST', `/lab/analyses/${last!.id}/submit`, analyst);
+    t0 = performance.now();
+    const approved = (await call('POST', `/lab/analyses/${last!.id}/approve`, reviewer, { comments: 'Bench approval' })).json;
+    const approveMs = performance.now() - t0;
+    const [report] = await dataSource.query(`SELECT octet_length(content::text) AS content_bytes, pdf_size FROM test_report WHERE id = $1`, [approved.report.id]);
+    line({ bench: 'results-report', lots: LOTS, approveMs: round(approveMs), reportContentBytes: Number(report.content_bytes), reportPdfBytes: Number(report.pdf_size) });
+
+    line({ bench: 'results-memory', lots: LOTS, libraryCacheBytes: libraryCacheBytes(), libraryCacheMb: mb(libraryCacheBytes()), rssMb: mb(process.memoryUsage().rss), heapUsedMb: mb(process.memoryUsage().heapUsed), budgetRssMb: 512 });
+  } finally {
+    await new Promise((r) => (server ? server.close(r) : r(undefined)));
+    await (await import('../../apps/api/src/core/cpu-pool/cpu-pool')).closeCpuPool();
+    await dataSource.destroy();
+    await withMaintenanceConnection((c) => c.query(`DROP DATABASE IF EXISTS ${quoteIdent(database)}`));
+  }
+}
+
+main().catch((err) => {
+  console.error(err);
+  process.exit(1);
+});

@@ -1,0 +1,168 @@
+// The analysis and review screens as an analyst and a reviewer read them: the fitted model drawn
+// over the measured spectrum with its residuals, the weighting beside χ², typicality explained,
+// the map axes' share of spread, the producer's lot code and the claimed-lot check, the engine
+// version in the details; chart labels laid out without overlap or clipping. Photographed and
+// checked with axe-core in the light and the dark scheme.
+import type { Browser, Page } from 'playwright-core';
+import { demoFiles } from '../../docker-free-scripts/seed/lab-demo-files';
+import { accessibilityFindings, describeFindings, type ScreenFinding } from './support/accessibility';
+import { launchBrowser, screenshot, url } from './support/browser';
+import { accessTokenFor, signInAt } from './support/desk';
+
+/**
+ * A seeded Ridgeline Red check, watered by 12 %: far outside the library, so T95 and T99 crowd the
+ * left of the histogram; the client claimed the producer's lot L24-118.
+ */
+const SAMPLE = 'OP-9RWD-6F';
+
+jest.setTimeout(240_000);
+
+let browser: Browser;
+const findings: ScreenFinding[] = [];
+const handOn: { analysisId?: string; sampleId?: string } = {};
+
+beforeAll(async () => {
+  browser = await launchBrowser();
+});
+
+afterAll(async () => {
+  await browser?.close();
+});
+
+async function api(email: string, path: string, init: RequestInit = {}): Promise<Response> {
+  const headers = new Headers(init.headers);
+  headers.set('authorization', `Bearer ${await accessTokenFor(email)}`);
+  return fetch(url(path), { ...init, headers });
+}
+
+/** The analyst measures and analyses the sample through the API; the screens are what is under test. */
+async function analysed(): Promise<{ analysisId: string; sampleId: string }> {
+  const analyst = 'analyst@calder.test';
+  const bench = (await (await api(analyst, '/api/lab/bench')).json()) as { instruments: { id: string }[]; cells: { id: string }[] };
+  const files = demoFiles().filter((f) => f.sampleCode === SAMPLE);
+  const form = new FormData();
+  form.set('instrumentId', bench.instruments[0].id);
+  form.set('cellId', bench.cells[0].id);
+  form.set('temperatureC', String(files[0].temperatureC));
+  for (const f of files) form.append('files', new Blob([f.text]), f.fileName);
+  const measured = await api(analyst, `/api/lab/samples/${SAMPLE}/measurements`, { method: 'POST', body: form });
+  expect(measured.status).toBe(201);
+  const sample = (await (await api(analyst, `/api/lab/samples/by-code/${SAMPLE}`)).json()) as { id: string; product: { id: string } };
+  const libraries = (await (await api(analyst, '/api/lab/libraries?pageSize=100')).json()) as { items: { product: { id: string }; versions: { id: string; status: string }[] }[] };
+  const version = libraries.items.find((l) => l.product.id === sample.product.id)!.versions.find((v) => v.status === 'published')!;
+  const json = { 'content-type': 'application/json' };
+  const analysis = await api(analyst, `/api/lab/samples/${sample.id}/analyses`, { method: 'POST', headers: json, body: JSON.stringify({ libraryVersionId: version.id }) });
+  expect(analysis.status).toBe(201);
+  return { analysisId: ((await analysis.json()) as { id: string }).id, sampleId: sample.id };
+}
+
+/** axe in both schemes, and a photograph of each, for the screen as it is now. */
+async function look(page: Page, name: string): Promise<void> {
+  await page.waitForLoadState('networkidle');
+  await page.waitForFunction(() => !document.querySelector('mat-progress-bar[mode="indeterminate"]'));
+  const size = page.viewportSize() ?? { width: 1280, height: 900 };
+  const tallest = await page.evaluate(() => Math.max(...Array.from(document.querySelectorAll('*'), (e) => (e.scrollHeight > e.clientHeight + 1 ? e.scrollHeight : 0)), 0));
+  await page.setViewportSize({ width: size.width, height: Math.min(6000, Math.max(size.height, tallest + 80)) });
+  for (const scheme of ['light', 'dark'] as const) {
+    await page.emulateMedia({ colorScheme: scheme });
+    findings.push(...(await accessibilityFindings(page, `${name} (${scheme})`)));
+    await screenshot(page, `result-screens-${name}-${scheme}`);
+  }
+  await page.emulateMedia({ colorScheme: 'light' });
+  await page.setViewportSize(size);
+}
+
+interface Box {
+  label: string;
+  x: number;
+  y: number;
+  width: number;
+  height: number;
+}
+
+/** The drawn boxes of a chart's labels, in the chart's own units, and the chart's viewBox. */
+async function labelBoxes(page: Page, chart: string): Promise<{ boxes: Box[]; view: { width: number; height: number } }> {
+  return page.locator(`${chart} svg[role="img"]`).evaluate((svg: SVGSVGElement) => ({
+    boxes: Array.from(svg.querySelectorAll<SVGTextElement>('text[data-label]'), (t) => {
+      const b = t.getBBox();
+      return { label: t.textContent?.trim() ?? '', x: b.x, y: b.y, width: b.width, height: b.height };
+    }),
+    view: { width: svg.viewBox.baseVal.width, height: svg.viewBox.baseVal.height },
+  }));
+}
+
+function expectApartAndInside({ boxes, view }: { boxes: Box[]; view: { width: number; height: number } }): void {
+  for (const b of boxes) {
+    expect({ label: b.label, left: b.x >= 0, right: b.x + b.width <= view.width, top: b.y >= 0 }).toEqual({ label: b.label, left: true, right: true, top: true });
+  }
+  for (let i = 0; i < boxes.length; i++) {
+    for (let j = i + 1; j < boxes.length; j++) {
+      const [a, b] = [boxes[i], boxes[j]];
+      const overlap = a.x < b.x + b.width && b.x < a.x + a.width && a.y < b.y + b.height && b.y < a.y + a.height;
+      expect({ pair: `${a.label} / ${b.label}`, overlap }).toEqual({ pair: `${a.label} / ${b.label}`, overlap: false });
+    }
+  }
+}
+
+/** What both screens show, checked the same way on each. */
+async function checkResult(page: Page): Promise<void> {
+  // the fitted model over the data in both plots, and its residuals
+  const bode = page.locator('ohm-analysis-result ohm-bode-chart');
+  await bode.locator('ohm-chart-legend li').filter({ hasText: /Fitted .* model/ }).waitFor();
+  expect(await bode.locator('path.series').count()).toBe(4);
+  expect(await page.locator('ohm-analysis-result ohm-nyquist-chart ohm-chart-legend li').filter({ hasText: /Fitted .* model/ }).count()).toBe(1);
+  const residuals = page.locator('ohm-fit-residual-chart');
+  await residuals.getByText('Fit residuals: measured minus fitted, in % of |Z|').waitFor();
+  const paths = await residuals.locator('path.residual').evaluateAll((ps) => ps.map((p) => p.getAttribute('d') ?? ''));
+  expect(paths).toHaveLength(2);
+  for (const d of paths) expect(d.length).toBeGreaterThan(20);
+  // the weighting beside χ²
+  expect(await page.getByTestId('fit-summary').innerText()).toMatch(/χ² \S+ \(modulus weighting\)/);
+  // typicality explained, map axes with their share of spread
+  expect(await page.getByTestId('typicality-text').innerText()).toMatch(/of the library's calibration distances are larger than the sample's/);
+  expect(await page.locator('ohm-library-map').innerText()).toMatch(/Map axis 1 \(\d+ % of spread\)/);
+  // the engine version is a detail, not a headline figure
+  expect(await page.locator('.headline').innerText()).not.toMatch(/Engine/);
+  expect(await page.getByTestId('engine-version').innerText()).toMatch(/\d+\.\d+/);
+  // the producer's lot code beside ours, and the claimed-lot check
+  expect(await page.getByTestId('nearest-lot').innerText()).toMatch(/RID-L\d{4}\s+producer's lot L24-1\d\d/);
+  expect(await page.getByTestId('claimed-lot').innerText()).toMatch(/The client claimed the producer's lot L24-118; the nearest lot RID-L\d{4} is (not )?that lot/);
+  // labels: none overlapping, none outside the chart
+  const histogram = await labelBoxes(page, 'ohm-analysis-result ohm-distance-histogram');
+  expect(histogram.boxes.map((b) => b.label.split(' ')[0]).sort()).toEqual(['Sample', 'T95', 'T99']);
+  expectApartAndInside(histogram);
+  const nyquist = await labelBoxes(page, 'ohm-analysis-result ohm-nyquist-chart');
+  expect(nyquist.boxes.length).toBeGreaterThanOrEqual(2);
+  expectApartAndInside(nyquist);
+  const map = await labelBoxes(page, 'ohm-analysis-result ohm-library-map');
+  expect(map.boxes.length).toBeGreaterThanOrEqual(3);
+  expectApartAndInside(map);
+}
+
+describe('result screens', () => {
+  it('the analyst reads the analysis: fit over data, residuals, weighting, typicality, lots', async () => {
+    Object.assign(handOn, await analysed());
+    const { context, page } = await signInAt(browser, 'lab', 'analyst@calder.test');
+    await page.goto(url(`/lab/samples/${handOn.sampleId}`));
+    await page.getByRole('tab', { name: 'Analysis' }).click();
+    await page.getByRole('status').filter({ hasText: 'Not consistent' }).first().waitFor();
+    await checkResult(page);
+    await look(page, 'analysis');
+    await context.close();
+  });
+
+  it('the reviewer sees the same on the review page', async () => {
+    const json = { 'content-type': 'application/json' };
+    const submitted = await api('analyst@calder.test', `/api/lab/analyses/${handOn.analysisId}/submit`, { method: 'POST', headers: json, body: '{}' });
+    expect(submitted.status).toBe(200);
+    const { context, page } = await signInAt(browser, 'lab', 'reviewer@calder.test');
+    await page.goto(url(`/lab/reviews/${handOn.analysisId}`));
+    await checkResult(page);
+    await look(page, 'review');
+    await context.close();
+  });
+
+  it('breaks no automated accessibility rule on these screens, light or dark', () => {
+    expect(describeFindings(findings)).toBe('');
+  });
+});
