@@ -1,4 +1,4 @@
-import { DatePipe, DecimalPipe, PercentPipe } from '@angular/common';
+import { DatePipe, DecimalPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
 import { MatTooltipModule } from '@angular/material/tooltip';
@@ -15,7 +15,7 @@ const NEAREST_SHOWN = 10;
 @Component({
   selector: 'ohm-analysis-result',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [DatePipe, DecimalPipe, PercentPipe, MatIconModule, MatTooltipModule, VerdictChip, BodeChart, NyquistChart, DistanceHistogram, LibraryMap, FitResidualChart, ScreeningCaution, LotDistancePager, Quantity, ParameterSymbol],
+  imports: [DatePipe, DecimalPipe, MatIconModule, MatTooltipModule, VerdictChip, BodeChart, NyquistChart, DistanceHistogram, LibraryMap, FitResidualChart, ScreeningCaution, LotDistancePager, Quantity, ParameterSymbol],
   templateUrl: './analysis-result.html',
   styleUrl: './analysis-result.scss',
 })

@@ -2,7 +2,7 @@ import PDFDocument from 'pdfkit';
 import { followsText, measurementTemperatureText, referralText } from './temperature-wording';
 import { ReportData } from './report-data';
 import { registerInter } from './inter-fonts';
-import { describeWithoutSymbol, formatQuantity, formatSymbol, sameLotCode } from '@ohmprint/contracts';
+import { MATRIX_LABELS, describeWithoutSymbol, formatQuantity, formatSymbol, sameLotCode } from '@ohmprint/contracts';
 import { INK, widthOf, write, writeParts } from './pen';
 import { CONTENT_WIDTH, Flow, PAGE } from './report-layout';
 import { drawBode, drawNyquist } from './spectrum-plots';
@@ -113,11 +113,17 @@ function writeParties(flow: Flow, data: ReportData): void {
   );
 }
 
+/** A matrix code in words ("fruit juice"); reports stored before codes were used keep their text. */
+function matrixInWords(matrix: string): string {
+  const label = (MATRIX_LABELS as Readonly<Record<string, string>>)[matrix];
+  return label ? label.toLowerCase() : matrix;
+}
+
 function writeSample(flow: Flow, data: ReportData): void {
   const s = data.sample;
   const rows: Array<[string, string]> = [
     ['Sample code', s.code],
-    ['Product', `${s.productName} (${s.matrix})`],
+    ['Product', `${s.productName} (${matrixInWords(s.matrix)})`],
     ['Lot claimed on the item', s.claimedLot ?? 'none stated'],
     ['Obtained', [s.obtainedWhere, s.obtainedOn ? formatDate(s.obtainedOn) : null].filter(Boolean).join(', ') || 'not stated by the client'],
     ['Label text', s.labelText ?? 'not recorded'],
