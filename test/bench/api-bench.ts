@@ -8,6 +8,7 @@
 import type { AddressInfo } from 'node:net';
 import { performance } from 'node:perf_hooks';
 import { line, round, stats } from './support/figures';
+import { approveAndWait, startInProcessJobs, stopInProcessJobs } from './support/bench-jobs';
 
 process.env.LOG_LEVEL = 'silent';
 process.env.OUTBOX_WORKER = 'false';
@@ -28,9 +29,7 @@ async function main(): Promise<void> {
   try {
     await dataSource.runMigrations({ transaction: 'each' });
     // Approvals queue the report as a job: this bench runs a worker in its own process, as tests do.
-    const jobs = await import('../../apps/api/src/core/jobs/jobs');
-    await jobs.installJobSchema();
-    await jobs.startJobs({ handlers: (await import('../../apps/api/src/job-handlers')).jobHandlers({ email: false }), pollingIntervalSeconds: 1 });
+    await startInProcessJobs();
     const { hashPassword } = await import('../../apps/api/src/modules/auth/passwords');
     const { seedAccounts } = await import('../../docker-free-scripts/seed/accounts');
     const { seedLabDemo } = await import('../../docker-free-scripts/seed/lab-demo');
@@ -72,16 +71,6 @@ async function main(): Promise<void> {
       const json = await res.json();
       if (!res.ok) throw new Error(`${method} ${path} answered ${res.status}: ${JSON.stringify(json)}`);
       return json;
-    };
-    /** Approves (202) and follows the issuance until the worker has issued the signed report. */
-    const approveAndWait = async (id: string, comments = 'Bench approval') => {
-      await call('POST', `/lab/analyses/${id}/approve`, reviewer, { comments });
-      for (;;) {
-        const s = await call('GET', `/lab/analyses/${id}/issuance`, reviewer);
-        if (s.state === 'issued') return s.report;
-        if (s.state === 'failed') throw new Error(`issuance of ${id} failed`);
-        await new Promise((r) => setTimeout(r, 20));
-      }
     };
     const bench = await call('GET', '/lab/bench', analyst);
     const files = demoFiles().filter((f) => f.sampleCode === 'OP-7K3M-Q9');
@@ -140,7 +129,7 @@ async function main(): Promise<void> {
       const a = await call('POST', `/lab/samples/${id}/analyses`, analyst, { libraryVersionId: versionId });
       await call('POST', `/lab/analyses/${a.id}/submit`, analyst);
       const start = performance.now();
-      await approveAndWait(a.id);
+      await approveAndWait(base, reviewer, a.id);
       const ms = performance.now() - start;
       if (i === 0) firstReport = ms;
       else reportTimings.push(ms);
@@ -152,7 +141,7 @@ async function main(): Promise<void> {
 
     // Four approvals at once against one alone, with a real worker process: api-jobs-bench.ts.
   } finally {
-    await (await import('../../apps/api/src/core/jobs/jobs')).stopJobs(5);
+    await stopInProcessJobs();
     await (await import('../../apps/api/src/core/cpu-pool/cpu-pool')).closeCpuPool();
     await new Promise((r) => (server ? server.close(r) : r(undefined)));
     await dataSource.destroy();
