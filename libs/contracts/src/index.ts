@@ -19,3 +19,4 @@ export * from './notifications';
 export * from './field-words';
 export * from './format';
 export * from './layout';
+export * from './lab/library-publication';
