@@ -20,3 +20,4 @@ export * from './field-words';
 export * from './format';
 export * from './layout';
 export * from './lab/library-publication';
+export * from './lab/analysis-run';
