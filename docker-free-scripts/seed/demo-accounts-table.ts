@@ -1,12 +1,13 @@
+import { rolesInWords } from '@ohmprint/contracts';
 import { DEMO_LABS, DEMO_OPERATOR, DEMO_PASSWORD } from './accounts-demo-data';
 
 /** The table npm start prints: role, e-mail, portal URL, password (invented demo accounts). */
 export function demoAccountsTable(baseUrl: string): string {
   const rows: [string, string, string][] = [['platform operator', DEMO_OPERATOR.email, `${baseUrl}/lab/`]];
   for (const lab of DEMO_LABS) {
-    for (const person of lab.staff) rows.push([`${person.roles.join(', ')} — ${lab.name}`, person.email, `${baseUrl}/lab/`]);
+    for (const person of lab.staff) rows.push([`${rolesInWords(person.roles)} — ${lab.name}`, person.email, `${baseUrl}/lab/`]);
     for (const client of lab.clients) {
-      for (const member of client.members) rows.push([`${member.role} — ${client.name} (client of ${lab.name})`, member.email, `${baseUrl}/`]);
+      for (const member of client.members) rows.push([`${rolesInWords([member.role])} — ${client.name} (client of ${lab.name})`, member.email, `${baseUrl}/`]);
     }
   }
   const width = rows.reduce((w, r) => [Math.max(w[0], r[0].length), Math.max(w[1], r[1].length), Math.max(w[2], r[2].length)], [4, 6, 6]);

@@ -64,6 +64,11 @@ export const DEMO_SAMPLES: DemoSample[] = [
     files: { adulteration: { kind: 'watered', waterFraction: 0.12 }, shape: 'tab-modulus-phase', replicates: 3, temperatureC: 21.0, expect: 'not-consistent' },
   },
   {
+    code: 'OP-2HNB-5W', product: 'ridgeline-red', order: { daysAgo: 5, placedBy: 'client-admin' }, state: 'accepted',
+    obtainedWhere: 'Invented hotel cellar, Demoport seafront', obtainedOn: '2026-11-21', labelText: 'Ridgeline Red 2024, capsule intact', claimedLot: 'L24-125',
+    files: { adulteration: { kind: 'none' }, shape: 'comma-real-imaginary', replicates: 3, temperatureC: 22.0, expect: 'consistent' },
+  },
+  {
     code: 'OP-3VNC-8P', product: 'ridgeline-red', order: { daysAgo: 1, placedBy: 'client-member' }, state: 'awaiting-arrival',
     obtainedWhere: 'Invented restaurant supplier, Quay Road', obtainedOn: '2026-11-28', labelText: 'Ridgeline Red 2024', claimedLot: 'L24-140',
   },

@@ -11,17 +11,15 @@
  * pass/fail: the budgets are printed beside them.
  */
 import type { AddressInfo } from 'node:net';
-import { loadavg } from 'node:os';
 import { monitorEventLoopDelay, performance } from 'node:perf_hooks';
+import { line, mb, percentile, round } from './support/figures';
 
 process.env.LOG_LEVEL = 'silent';
 process.env.OUTBOX_WORKER = 'false';
 
 const FLOOD_SECONDS = 10;
 const CONNECTIONS = 6;
-const round = (v: number) => Math.round(v * 10) / 10;
-const line = (o: object) => console.log(JSON.stringify({ ...o, loadAverage1m: round(loadavg()[0]) }));
-const p99 = (v: number[]) => (v.length ? round([...v].sort((a, b) => a - b)[Math.min(v.length - 1, Math.ceil(0.99 * v.length) - 1)]) : null);
+const p99 = (v: number[]) => (v.length ? round(percentile(v, 0.99)) : null);
 const max = (v: number[]) => (v.length ? round(Math.max(...v)) : null);
 
 /** The process's resident memory, sampled every 50 ms: the peak over the whole run and over each phase. */
@@ -33,7 +31,6 @@ const rssTimer = setInterval(() => {
   phasePeak = Math.max(phasePeak, rss);
 }, 50);
 rssTimer.unref();
-const mb = (bytes: number) => Math.round(bytes / 1048576);
 
 async function main(): Promise<void> {
   const { withMaintenanceConnection, quoteIdent } = await import('../../apps/api/src/testing/maintenance-db');

@@ -8,9 +8,9 @@
 import { spawn, type ChildProcess } from 'node:child_process';
 import { existsSync, mkdirSync, openSync } from 'node:fs';
 import { createServer, type AddressInfo } from 'node:net';
-import { loadavg } from 'node:os';
 import { join } from 'node:path';
 import { performance } from 'node:perf_hooks';
+import { line, median, round } from './support/figures';
 
 process.env.LOG_LEVEL = 'silent';
 
@@ -19,12 +19,6 @@ const CONCURRENT_ROUNDS = 3;
 const ROOT = join(__dirname, '..', '..');
 const DIST = join(ROOT, 'dist', 'api', 'apps', 'api', 'src');
 
-const round = (v: number) => Math.round(v * 10) / 10;
-const median = (v: number[]) => {
-  const s = [...v].sort((a, b) => a - b);
-  return s.length % 2 ? s[(s.length - 1) / 2] : (s[s.length / 2 - 1] + s[s.length / 2]) / 2;
-};
-const line = (o: object) => console.log(JSON.stringify({ ...o, loadAverage1m: round(loadavg()[0]) }));
 
 async function freePort(): Promise<number> {
   const server = createServer();

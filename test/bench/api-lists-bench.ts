@@ -8,21 +8,15 @@
  * `LISTS_BENCH_DATABASE=<name>` reuses an already migrated and seeded database (kept afterwards).
  */
 import type { AddressInfo } from 'node:net';
-import { loadavg } from 'node:os';
 import { performance } from 'node:perf_hooks';
+import { line, round, stats } from './support/figures';
 
 process.env.LOG_LEVEL = 'silent';
 process.env.OUTBOX_WORKER = 'false';
 
 const RUNS = Number(process.env.LISTS_BENCH_RUNS ?? 15);
 const BUDGET_P50_MS = 50;
-const round = (v: number) => Math.round(v * 10) / 10;
 
-function stats(ms: number[]) {
-  const s = [...ms].sort((a, b) => a - b);
-  const at = (p: number) => s[Math.min(s.length - 1, Math.ceil(p * s.length) - 1)];
-  return { n: s.length, p50Ms: round(at(0.5)), p95Ms: round(at(0.95)) };
-}
 
 type Who = 'labAdmin' | 'analyst' | 'reviewer' | 'clientAdmin';
 
@@ -54,7 +48,7 @@ async function main(): Promise<void> {
     const t0 = performance.now();
     const tenant = await dataSource.transaction((m) => seed100x(m, { passwordHash }));
     await dataSource.query(`UPDATE app_user SET password_hash = $1 WHERE lab_id = $2`, [passwordHash, tenant.labId]);
-    console.log(JSON.stringify({ bench: 'seed-100x', samples: tenant.samples, seconds: round((performance.now() - t0) / 1000), loadAverage1m: round(loadavg()[0]) }));
+    line({ bench: 'seed-100x', samples: tenant.samples, seconds: round((performance.now() - t0) / 1000) });
 
     const { createApp } = await import('../../apps/api/src/app');
     server = createApp().listen(0, '127.0.0.1');
@@ -115,14 +109,14 @@ async function main(): Promise<void> {
         }
         const s = stats(ms);
         worst = Math.max(worst, s.p50Ms);
-        console.log(JSON.stringify({
+        line({
           bench: 'list', route: `GET /api${route.path}${route.extra ? `?${route.extra}` : ''}`, case: label, rows: Number(count),
           items: first.items?.length ?? 0, total: first.totalIsLowerBound ? `${first.total}+` : first.total, ...s,
-          budgetP50Ms: BUDGET_P50_MS, loadAverage1m: round(loadavg()[0]),
-        }));
+          budgetP50Ms: BUDGET_P50_MS,
+        });
       }
     }
-    console.log(JSON.stringify({ bench: 'lists-worst-p50', ms: worst, budgetP50Ms: BUDGET_P50_MS, loadAverage1m: round(loadavg()[0]) }));
+    line({ bench: 'lists-worst-p50', ms: worst, budgetP50Ms: BUDGET_P50_MS });
   } finally {
     await new Promise<void>((r) => (server ? server.close(() => r()) : r()));
     await dataSource.destroy();

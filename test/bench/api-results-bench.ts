@@ -10,8 +10,8 @@
  * seeded with the invented demo, and drops it afterwards. Figures, not pass/fail.
  */
 import type { AddressInfo } from 'node:net';
-import { loadavg } from 'node:os';
 import { performance } from 'node:perf_hooks';
+import { line, mb, round, stats } from './support/figures';
 
 process.env.LOG_LEVEL = 'silent';
 process.env.OUTBOX_WORKER = 'false';
@@ -20,14 +20,6 @@ const LOTS = Number(process.env.BENCH_RESULTS_LOTS ?? 50_000);
 const RUNS = 20;
 const CODE = 'OP-7K3M-Q9';
 
-const round = (v: number) => Math.round(v * 10) / 10;
-function stats(ms: number[]) {
-  const s = [...ms].sort((a, b) => a - b);
-  const at = (p: number) => s[Math.min(s.length - 1, Math.ceil(p * s.length) - 1)];
-  return { n: s.length, p50Ms: round(at(0.5)), p95Ms: round(at(0.95)), maxMs: round(s[s.length - 1]) };
-}
-const line = (o: object) => console.log(JSON.stringify({ ...o, loadAverage1m: round(loadavg()[0]) }));
-const mb = (bytes: number) => Math.round(bytes / 1048576);
 
 async function main(): Promise<void> {
   const { withMaintenanceConnection, quoteIdent } = await import('../../apps/api/src/testing/maintenance-db');

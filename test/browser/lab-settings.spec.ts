@@ -9,10 +9,10 @@ import { join } from 'node:path';
 import forge from 'node-forge';
 import PDFDocument from 'pdfkit';
 import type { Browser, Page } from 'playwright-core';
-import { demoFiles } from '../../docker-free-scripts/seed/lab-demo-files';
 import { accessibilityFindings, describeFindings, type ScreenFinding } from './support/accessibility';
 import { launchBrowser, screenshot, url } from './support/browser';
-import { accessTokenFor, openFromMenu, signInAt } from './support/desk';
+import { openFromMenu, signInAt } from './support/desk';
+import { apiAs as api, measureAndAnalyse } from './support/lab-api';
 import { ARTIFACTS } from './support/stack';
 
 const SAMPLE = 'OP-4HXT-2B';
@@ -88,31 +88,12 @@ function p12File(): string {
   return file;
 }
 
-async function api(email: string, path: string, init: RequestInit = {}): Promise<Response> {
-  const headers = new Headers(init.headers);
-  headers.set('authorization', `Bearer ${await accessTokenFor(email)}`);
-  return fetch(url(path), { ...init, headers });
-}
 
 /** The analyst measures, analyses and submits the sample through the API, so the reviewer has it waiting. */
 async function submittedAnalysis(): Promise<string> {
   const analyst = 'analyst@calder.test';
-  const bench = (await (await api(analyst, '/api/lab/bench')).json()) as { instruments: { id: string }[]; cells: { id: string }[] };
-  const files = demoFiles().filter((f) => f.sampleCode === SAMPLE);
-  const form = new FormData();
-  form.set('instrumentId', bench.instruments[0].id);
-  form.set('cellId', bench.cells[0].id);
-  form.set('temperatureC', String(files[0].temperatureC));
-  for (const f of files) form.append('files', new Blob([f.text]), f.fileName);
-  const measured = await api(analyst, `/api/lab/samples/${SAMPLE}/measurements`, { method: 'POST', body: form });
-  expect(measured.status).toBe(201);
-  const sample = (await (await api(analyst, `/api/lab/samples/by-code/${SAMPLE}`)).json()) as { id: string; product: { id: string } };
-  const libraries = (await (await api(analyst, '/api/lab/libraries?pageSize=100')).json()) as { items: { product: { id: string }; versions: { id: string; status: string }[] }[] };
-  const version = libraries.items.find((l) => l.product.id === sample.product.id)!.versions.find((v) => v.status === 'published')!;
   const json = { 'content-type': 'application/json' };
-  const analysis = await api(analyst, `/api/lab/samples/${sample.id}/analyses`, { method: 'POST', headers: json, body: JSON.stringify({ libraryVersionId: version.id }) });
-  expect(analysis.status).toBe(201);
-  const { id } = (await analysis.json()) as { id: string };
+  const { analysisId: id } = await measureAndAnalyse(SAMPLE);
   await api(analyst, `/api/lab/analyses/${id}/remarks`, { method: 'PUT', headers: json, body: JSON.stringify({ remarks: 'Three replicates, none excluded.' }) });
   const submitted = await api(analyst, `/api/lab/analyses/${id}/submit`, { method: 'POST', headers: json, body: '{}' });
   expect(submitted.status).toBe(200);

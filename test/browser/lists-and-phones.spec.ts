@@ -5,14 +5,14 @@
 // its result above the fold. Every screen here is checked with axe-core, light and dark.
 import { join } from 'node:path';
 import type { Browser, Locator, Page } from 'playwright-core';
-import { demoFiles } from '../../docker-free-scripts/seed/lab-demo-files';
 import { accessibilityFindings, describeFindings, type ScreenFinding } from './support/accessibility';
 import { launchBrowser, url } from './support/browser';
-import { accessTokenFor, signInAt } from './support/desk';
+import { signInAt } from './support/desk';
+import { apiJson as api, measureAndAnalyse } from './support/lab-api';
 import { ARTIFACTS } from './support/stack';
 
 /** A seeded Ridgeline Red sample with demo exports that no other journey measures. */
-const SAMPLE = 'OP-9RWD-6F';
+const SAMPLE = 'OP-2HNB-5W';
 const PHONE = { width: 390, height: 844 };
 const LAB_ADMIN = 'admin@calder.test';
 const CLIENT_ADMIN = 'admin@hollinridge.test';
@@ -21,30 +21,11 @@ let browser: Browser;
 const findings: ScreenFinding[] = [];
 const revoked: { number?: string; code?: string } = {};
 
-async function api<T>(email: string, path: string, init: RequestInit = {}): Promise<T> {
-  const headers = new Headers(init.headers);
-  headers.set('authorization', `Bearer ${await accessTokenFor(email)}`);
-  if (init.body && typeof init.body === 'string') headers.set('content-type', 'application/json');
-  const res = await fetch(url(path), { ...init, headers });
-  if (!res.ok) throw new Error(`${init.method ?? 'GET'} ${path} answered ${res.status}: ${await res.text()}`);
-  return (await res.json()) as T;
-}
 
 /** Measures, analyses, approves and then revokes the sample's report, all through the API. */
 async function revokedReport(): Promise<{ number: string; code: string }> {
   const analyst = 'analyst@calder.test';
-  const bench = await api<{ instruments: { id: string }[]; cells: { id: string }[] }>(analyst, '/api/lab/bench');
-  const files = demoFiles().filter((f) => f.sampleCode === SAMPLE);
-  const form = new FormData();
-  form.set('instrumentId', bench.instruments[0].id);
-  form.set('cellId', bench.cells[0].id);
-  form.set('temperatureC', String(files[0].temperatureC));
-  for (const f of files) form.append('files', new Blob([f.text]), f.fileName);
-  await api(analyst, `/api/lab/samples/${SAMPLE}/measurements`, { method: 'POST', body: form });
-  const sample = await api<{ id: string; product: { id: string } }>(analyst, `/api/lab/samples/by-code/${SAMPLE}`);
-  const libraries = await api<{ items: { product: { id: string }; versions: { id: string; status: string }[] }[] }>(analyst, '/api/lab/libraries?pageSize=100');
-  const version = libraries.items.find((l) => l.product.id === sample.product.id)!.versions.find((v) => v.status === 'published')!;
-  const analysis = await api<{ id: string }>(analyst, `/api/lab/samples/${sample.id}/analyses`, { method: 'POST', body: JSON.stringify({ libraryVersionId: version.id }) });
+  const analysis = { id: (await measureAndAnalyse(SAMPLE)).analysisId };
   await api(analyst, `/api/lab/analyses/${analysis.id}/submit`, { method: 'POST', body: '{}' });
   await api('reviewer@calder.test', `/api/lab/analyses/${analysis.id}/approve`, { method: 'POST', body: JSON.stringify({ comments: 'Agreed (lists browser test).' }) });
   // issuance may finish after the approval answers: wait for the report to be listed

@@ -4,10 +4,10 @@
 // version in the details; chart labels laid out without overlap or clipping. Photographed and
 // checked with axe-core in the light and the dark scheme.
 import type { Browser, Page } from 'playwright-core';
-import { demoFiles } from '../../docker-free-scripts/seed/lab-demo-files';
 import { accessibilityFindings, describeFindings, type ScreenFinding } from './support/accessibility';
 import { launchBrowser, screenshot, url } from './support/browser';
-import { accessTokenFor, signInAt } from './support/desk';
+import { signInAt } from './support/desk';
+import { apiAs as api, measureAndAnalyse } from './support/lab-api';
 
 /**
  * A seeded Ridgeline Red check, watered by 12 %: far outside the library, so T95 and T99 crowd the
@@ -28,33 +28,6 @@ beforeAll(async () => {
 afterAll(async () => {
   await browser?.close();
 });
-
-async function api(email: string, path: string, init: RequestInit = {}): Promise<Response> {
-  const headers = new Headers(init.headers);
-  headers.set('authorization', `Bearer ${await accessTokenFor(email)}`);
-  return fetch(url(path), { ...init, headers });
-}
-
-/** The analyst measures and analyses the sample through the API; the screens are what is under test. */
-async function analysed(): Promise<{ analysisId: string; sampleId: string }> {
-  const analyst = 'analyst@calder.test';
-  const bench = (await (await api(analyst, '/api/lab/bench')).json()) as { instruments: { id: string }[]; cells: { id: string }[] };
-  const files = demoFiles().filter((f) => f.sampleCode === SAMPLE);
-  const form = new FormData();
-  form.set('instrumentId', bench.instruments[0].id);
-  form.set('cellId', bench.cells[0].id);
-  form.set('temperatureC', String(files[0].temperatureC));
-  for (const f of files) form.append('files', new Blob([f.text]), f.fileName);
-  const measured = await api(analyst, `/api/lab/samples/${SAMPLE}/measurements`, { method: 'POST', body: form });
-  expect(measured.status).toBe(201);
-  const sample = (await (await api(analyst, `/api/lab/samples/by-code/${SAMPLE}`)).json()) as { id: string; product: { id: string } };
-  const libraries = (await (await api(analyst, '/api/lab/libraries?pageSize=100')).json()) as { items: { product: { id: string }; versions: { id: string; status: string }[] }[] };
-  const version = libraries.items.find((l) => l.product.id === sample.product.id)!.versions.find((v) => v.status === 'published')!;
-  const json = { 'content-type': 'application/json' };
-  const analysis = await api(analyst, `/api/lab/samples/${sample.id}/analyses`, { method: 'POST', headers: json, body: JSON.stringify({ libraryVersionId: version.id }) });
-  expect(analysis.status).toBe(201);
-  return { analysisId: ((await analysis.json()) as { id: string }).id, sampleId: sample.id };
-}
 
 /** axe in both schemes, and a photograph of each, for the screen as it is now. */
 async function look(page: Page, name: string): Promise<void> {
@@ -141,7 +114,7 @@ async function checkResult(page: Page): Promise<void> {
 
 describe('result screens', () => {
   it('the analyst reads the analysis: fit over data, residuals, weighting, typicality, lots', async () => {
-    Object.assign(handOn, await analysed());
+    Object.assign(handOn, await measureAndAnalyse(SAMPLE));
     const { context, page } = await signInAt(browser, 'lab', 'analyst@calder.test');
     await page.goto(url(`/lab/samples/${handOn.sampleId}`));
     await page.getByRole('tab', { name: 'Analysis' }).click();

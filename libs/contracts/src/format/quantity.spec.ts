@@ -1,7 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { formatQuantity, quantityText, roundStandardError } from './quantity';
-import { formatSymbol } from './symbol';
+import { describeWithoutSymbol, formatSymbol } from './symbol';
 
 interface Case {
   value: number;
@@ -86,5 +86,12 @@ describe('formatSymbol', () => {
     expect(formatSymbol('q').text).toBe('Q');
     expect(formatSymbol('n').text).toBe('n');
     expect(formatSymbol('alpha').text).toBe('α');
+  });
+
+  it('drops the symbol from a description when a table draws it in its own column', () => {
+    expect(describeWithoutSymbol('High-frequency resistance R∞', 'rInf')).toBe('High-frequency resistance');
+    expect(describeWithoutSymbol('Charge-transfer resistance Rct', 'rct')).toBe('Charge-transfer resistance');
+    expect(describeWithoutSymbol('Relaxation time τ', 'tau')).toBe('Relaxation time');
+    expect(describeWithoutSymbol('Dispersion exponent α (1 = single relaxation)', 'alpha')).toBe('Dispersion exponent α (1 = single relaxation)');
   });
 });

@@ -45,3 +45,14 @@ export function formatSymbol(name: string): FormattedSymbol {
   const unicode = [...sub].every((c) => UNICODE_SUBSCRIPTS[c]) ? [...sub].map((c) => UNICODE_SUBSCRIPTS[c]).join('') : sub;
   return { parts, text: `${base}${unicode}` };
 }
+
+/**
+ * A parameter's description without its trailing symbol, for a table that draws the symbol in a
+ * column of its own: ("Series resistance Rs", "rs") → "Series resistance".
+ */
+export function describeWithoutSymbol(description: string, name: string): string {
+  const words = description.trim().split(/\s+/);
+  const plain = (t: string) => t.normalize('NFKD').replace(/[^\p{L}\p{N}∞]/gu, '').toLowerCase();
+  const symbol = plain(formatSymbol(name).parts.map((p) => p.text).join(''));
+  return words.length > 1 && plain(words[words.length - 1]) === symbol ? words.slice(0, -1).join(' ') : description;
+}

@@ -10,19 +10,8 @@ import { formatQuantity, formatSymbol, type QuantityPart, type Notation } from '
   selector: 'ohm-quantity',
   changeDetection: ChangeDetectionStrategy.OnPush,
   host: { class: 'ohm-quantity' },
-  template: `@for (part of parts(); track $index) {
-    @switch (part.role) {
-      @case ('sup') {
-        <sup>{{ part.text }}</sup>
-      }
-      @case ('sub') {
-        <sub>{{ part.text }}</sub>
-      }
-      @default {
-        {{ part.text }}
-      }
-    }
-  }`,
+  // One line: whitespace between the runs would print as a gap (10 ⁻⁶, R ∞).
+  template: `@for (part of parts(); track $index) {@if (part.role === 'sup') {<sup>{{ part.text }}</sup>} @else if (part.role === 'sub') {<sub>{{ part.text }}</sub>} @else {<span>{{ part.text }}</span>}}`,
   styles: `
     :host {
       white-space: nowrap;
@@ -57,13 +46,7 @@ export class Quantity {
 @Component({
   selector: 'ohm-symbol',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  template: `@for (part of parts(); track $index) {
-    @if (part.role === 'sub') {
-      <sub>{{ part.text }}</sub>
-    } @else {
-      {{ part.text }}
-    }
-  }`,
+  template: `@for (part of parts(); track $index) {@if (part.role === 'sub') {<sub>{{ part.text }}</sub>} @else {<span>{{ part.text }}</span>}}`,
   styles: `
     sub {
       font-size: 0.72em;

@@ -144,7 +144,15 @@ describe('AnalysisResult with a fit and producer lot codes', () => {
     expect(el.querySelectorAll('ohm-bode-chart path.series')).toHaveLength(4); // sample and fit, in |Z| and phase
     expect(el.querySelector('ohm-nyquist-chart')?.textContent).toContain('Fitted Cole–Cole relaxation model');
     expect(el.querySelectorAll('ohm-fit-residual-chart path.residual')).toHaveLength(2);
-    expect(el.querySelector('[data-testid="fit-summary"]')?.textContent).toMatch(/χ² 0\.0012\s*\(modulus weighting\)/);
+    expect(el.querySelector('[data-testid="fit-summary"]')?.textContent).toMatch(/χ²\s+0\.0012\s*\(modulus weighting\)/);
+  });
+
+  it('writes fitted values in the report’s number format: symbol with its subscript, value and SE to the same place', () => {
+    const el = render(fitted);
+    const row = el.querySelector('[aria-labelledby="fit-heading"] tbody tr')!;
+    // an SE of 1 has leading digits 100, so it keeps two digits (the 354/949 rule, libs/contracts/src/format)
+    expect(row.querySelector('ohm-symbol sub')?.textContent).toBe('∞');
+    expect(row.querySelector('ohm-quantity')?.textContent?.trim()).toBe('90.0 ± 1.0');
   });
 
   it('explains typicality, gives the map axes their share of spread, and keeps the engine version in the details', () => {

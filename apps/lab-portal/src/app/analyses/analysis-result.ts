@@ -1,9 +1,9 @@
-import { DatePipe, DecimalPipe, PercentPipe } from '@angular/common';
+import { DatePipe, DecimalPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
 import { MatTooltipModule } from '@angular/material/tooltip';
-import { typicalityText, weightingExplained, weightingText, type Analysis } from '@ohmprint/contracts';
-import { BodeChart, DistanceHistogram, FitResidualChart, LibraryMap, NyquistChart, fitResiduals, ScreeningCaution, VerdictChip, formatNumber, type DistanceHistogramInput, type MapPoint, type ReferenceBand, type SpectrumSeries } from '@ohmprint/ui';
+import { describeWithoutSymbol, typicalityText, weightingExplained, weightingText, type Analysis } from '@ohmprint/contracts';
+import { ParameterSymbol, Quantity, BodeChart, DistanceHistogram, FitResidualChart, LibraryMap, NyquistChart, fitResiduals, ScreeningCaution, VerdictChip, type DistanceHistogramInput, type MapPoint, type ReferenceBand, type SpectrumSeries } from '@ohmprint/ui';
 import { modelLabel } from '@ohmprint/spectral-engine';
 import { LotDistancePager } from './lot-distance-pager';
 import { referenceBandOf } from './reference-band';
@@ -15,7 +15,7 @@ const NEAREST_SHOWN = 10;
 @Component({
   selector: 'ohm-analysis-result',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [DatePipe, DecimalPipe, PercentPipe, MatIconModule, MatTooltipModule, VerdictChip, BodeChart, NyquistChart, DistanceHistogram, LibraryMap, FitResidualChart, ScreeningCaution, LotDistancePager],
+  imports: [DatePipe, DecimalPipe, MatIconModule, MatTooltipModule, VerdictChip, BodeChart, NyquistChart, DistanceHistogram, LibraryMap, FitResidualChart, ScreeningCaution, LotDistancePager, Quantity, ParameterSymbol],
   templateUrl: './analysis-result.html',
   styleUrl: './analysis-result.scss',
 })
@@ -27,7 +27,7 @@ export class AnalysisResult {
   protected readonly sampleSeries = computed<SpectrumSeries[]>(() => [{ label: `Sample ${this.analysis().sample.code} (replicate mean)`, ...this.analysis().sampleSpectrum }]);
 
   /** Significant digits, not decimals: fitted time constants run to microseconds. */
-  protected readonly fmt = formatNumber;
+  protected readonly describeWithoutSymbol = describeWithoutSymbol;
   protected readonly modelLabel = modelLabel;
   protected readonly result = computed(() => this.analysis().result);
   protected readonly temperature = computed(() => temperatureText(this.analysis()));

@@ -2,7 +2,7 @@ import PDFDocument from 'pdfkit';
 import { followsText, measurementTemperatureText, referralText } from './temperature-wording';
 import { ReportData } from './report-data';
 import { registerInter } from './inter-fonts';
-import { formatQuantity, formatSymbol, sameLotCode } from '@ohmprint/contracts';
+import { MATRIX_LABELS, describeWithoutSymbol, formatQuantity, formatSymbol, sameLotCode } from '@ohmprint/contracts';
 import { INK, widthOf, write, writeParts } from './pen';
 import { CONTENT_WIDTH, Flow, PAGE } from './report-layout';
 import { drawBode, drawNyquist } from './spectrum-plots';
@@ -113,11 +113,17 @@ function writeParties(flow: Flow, data: ReportData): void {
   );
 }
 
+/** A matrix code in words ("fruit juice"); reports stored before codes were used keep their text. */
+function matrixInWords(matrix: string): string {
+  const label = (MATRIX_LABELS as Readonly<Record<string, string>>)[matrix];
+  return label ? label.toLowerCase() : matrix;
+}
+
 function writeSample(flow: Flow, data: ReportData): void {
   const s = data.sample;
   const rows: Array<[string, string]> = [
     ['Sample code', s.code],
-    ['Product', `${s.productName} (${s.matrix})`],
+    ['Product', `${s.productName} (${matrixInWords(s.matrix)})`],
     ['Lot claimed on the item', s.claimedLot ?? 'none stated'],
     ['Obtained', [s.obtainedWhere, s.obtainedOn ? formatDate(s.obtainedOn) : null].filter(Boolean).join(', ') || 'not stated by the client'],
     ['Label text', s.labelText ?? 'not recorded'],
@@ -190,8 +196,7 @@ function writeMethod(flow: Flow, data: ReportData): void {
 }
 
 function writePlots(flow: Flow, data: ReportData): void {
-  flow.newPage();
-  flow.heading('Spectra');
+  flow.heading('Spectra', 16 + 215 + 26 + 24);
   const top = flow.y + 16;
   const plotH = 215;
   const nyW = 220;
@@ -207,7 +212,7 @@ function writePlots(flow: Flow, data: ReportData): void {
     7.5,
     INK.muted,
   );
-  flow.heading('The sample and the library');
+  flow.heading('The sample and the library', 16 + 170 + 26 + 24);
   const top2 = flow.y + 16;
   const w2 = (CONTENT_WIDTH - 38 - 50 - 14) / 2;
   drawDistanceHistogram(flow.doc, { x: PAGE.left + 38, y: top2, w: w2, h: 170 }, data.plots, data.results);
@@ -224,14 +229,6 @@ function writePlots(flow: Flow, data: ReportData): void {
   );
 }
 
-/** "Series resistance Rs" → "Series resistance" when the last word is the symbol drawn beside it. */
-function withoutTrailingSymbol(description: string, symbolText: string): string {
-  const words = description.split(' ');
-  const last = words[words.length - 1];
-  const plain = (t: string) => t.normalize('NFKD').replace(/[^\p{L}\p{N}∞]/gu, '').toLowerCase();
-  return words.length > 1 && plain(last) === plain(symbolText) ? words.slice(0, -1).join(' ') : description;
-}
-
 function writeParameters(flow: Flow, data: ReportData): void {
   const r = data.results;
   const rowH = 14;
@@ -244,7 +241,7 @@ function writeParameters(flow: Flow, data: ReportData): void {
     flow.ensure(rowH);
     const symbol = formatSymbol(p.name);
     const value = formatQuantity(p.value, { standardError: p.standardError, significant: 4 });
-    write(doc, withoutTrailingSymbol(p.description ?? p.name, symbol.text), { size: 8.5, lineBreak: false }, cols[0], flow.y);
+    write(doc, describeWithoutSymbol(p.description ?? p.name, p.name), { size: 8.5, lineBreak: false }, cols[0], flow.y);
     writeParts(doc, symbol.parts, { size: 8.5 }, cols[1], flow.y);
     const valueParts = p.standardError === null ? [...value.parts, { text: ' (SE not estimated)', role: 'normal' as const }] : value.parts;
     writeParts(doc, valueParts, { size: 8.5 }, cols[2], flow.y);
@@ -254,7 +251,7 @@ function writeParameters(flow: Flow, data: ReportData): void {
   if (r.fittedParameters.length) {
     flow.paragraph('Each value is rounded to the last decimal place of its standard error, which keeps one or two significant digits.', 7.5, INK.muted);
   } else flow.paragraph('No model was fitted.');
-  if (r.goodnessOfFit !== null) flow.paragraph(`Goodness of fit (weighted χ²${r.fitWeighting ? `, ${r.fitWeighting}` : ''}): ${formatNumber(r.goodnessOfFit, 3)}`);
+  if (r.goodnessOfFit !== null) flow.paragraph(`Goodness of fit (weighted χ²${r.fitWeighting ? `, ${r.fitWeighting}` : ''}): ${formatNumber(r.goodnessOfFit, 2)}`);
   flow.gap(2);
   if (r.qualityFlags.length === 0) flow.paragraph('Data quality: no flags raised.');
   else for (const q of r.qualityFlags) flow.paragraph(`${q.severity === 'warning' ? 'Warning' : 'Note'}: ${q.message}`);
@@ -270,10 +267,9 @@ function writeStatements(flow: Flow, data: ReportData): void {
 }
 
 function writeAuthorisation(flow: Flow, data: ReportData): void {
-  flow.heading('Authorisation and verification');
-  const { doc } = flow;
   const qr = 84;
-  flow.ensure(qr + 40);
+  flow.heading('Authorisation and verification', qr + 40);
+  const { doc } = flow;
   const top = flow.y;
   const textW = CONTENT_WIDTH - qr - 16;
   const rows: Array<[string, string]> = [
