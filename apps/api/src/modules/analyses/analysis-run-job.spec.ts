@@ -82,6 +82,19 @@ describe('analysing against a large library on a worker', () => {
     expect(await analysesOfSample()).toHaveLength(3);
   });
 
+  it('says why when every attempt of the worker failed, and running it again succeeds', async () => {
+    // a job the worker gave up on (its last error kept by the job system), as after repeated crashes
+    await t.db.query(`INSERT INTO pgboss.job (name, data, state, singleton_key, output) VALUES ('analysis-run', $1, 'failed', $2, '{"message":"worker thread exited"}')`, [JSON.stringify({ libraryVersionId: versionId }), sampleId]);
+    expect((await runOf()).body).toMatchObject({
+      state: 'failed', libraryVersionId: versionId, lotCount: lots, analysisId: null,
+      detail: 'The analysis stopped after several attempts: worker thread exited. Run it again to retry.',
+    });
+    expect((await analyse()).status).toBe(202);
+    await t.jobsIdle(60_000);
+    expect((await runOf()).body.state).toBe('done');
+    expect(await analysesOfSample()).toHaveLength(4);
+  });
+
   it('checks role and tenant on the status and the analyse routes', async () => {
     const path = `/api/lab/samples/${sampleId}/analysis-run`;
     expect((await request(t.app).get(path)).status).toBe(401);

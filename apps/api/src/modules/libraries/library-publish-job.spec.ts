@@ -97,6 +97,19 @@ describe('publishing a large library version as a job', () => {
     await request(t.app).delete(`/api/lab/library-versions/${strict}`).set(await t.authFor('lab-admin'));
   });
 
+  it('says why when every attempt of the worker failed, and publishing again succeeds', async () => {
+    const draft = await draftOf(methodVersionId);
+    // a job the worker gave up on (its last error kept by the job system), as after repeated crashes
+    await t.db.query(`INSERT INTO pgboss.job (name, data, state, singleton_key, output) VALUES ('library-publish', '{}', 'failed', $1, '{"message":"connection terminated unexpectedly"}')`, [draft]);
+    const failed = (await publication(draft)).body;
+    expect(failed).toMatchObject({ state: 'failed', lotCount: 7 });
+    expect(failed.detail).toBe('Publishing stopped after several attempts: connection terminated unexpectedly. Press publish to try again.');
+    expect((await publish(draft)).status).toBe(202);
+    await t.jobsIdle(60_000);
+    expect((await publication(draft)).body).toMatchObject({ state: 'published', detail: null });
+    expect(await audits(draft)).toHaveLength(1);
+  });
+
   it('checks role and tenant on the status and the publish routes', async () => {
     const path = `/api/lab/library-versions/${versionId}/publication`;
     expect((await request(t.app).get(path)).status).toBe(401);
