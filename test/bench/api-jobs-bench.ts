@@ -122,7 +122,9 @@ async function main(): Promise<void> {
     const all: number[] = [];
     const answers: number[] = [];
     for (let r = 0; r < CONCURRENT_ROUNDS; r++) {
-      const four = await Promise.all([submitted(), submitted(), submitted(), submitted()]);
+      // Prepared one after another (the API admits two uploads per lab at a time); only the approvals run at once.
+      const four: string[] = [];
+      for (let k = 0; k < 4; k++) four.push(await submitted());
       const timings = await Promise.all(four.map(approveToIssued));
       slowest.push(Math.max(...timings.map((t) => t.issuedMs)));
       all.push(...timings.map((t) => t.issuedMs));

@@ -1,5 +1,5 @@
 import { config } from './config';
-import { closeCpuPool } from './core/cpu-pool/cpu-pool';
+import { closeCpuPool, useEveryCoreForCpuTasks } from './core/cpu-pool/cpu-pool';
 import { startJobs, stopJobs } from './core/jobs/jobs';
 import { logger } from './core/logger';
 import { dataSource } from './db/data-source';
@@ -13,6 +13,7 @@ import { startOutboxWorker } from './modules/mail/outbox-worker';
  * job runs in one of them at a time.
  */
 async function main(): Promise<void> {
+  useEveryCoreForCpuTasks();
   await dataSource.initialize();
   await startJobs({ handlers: jobHandlers({ email: config.mail.workerEnabled }), supervise: true, maxConnections: 6 });
   // The sweep sends what no job did: retries after an outage, messages queued without a job.

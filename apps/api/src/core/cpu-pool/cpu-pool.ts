@@ -28,7 +28,18 @@ function workerFile(): string {
  * while health checks, lists and every other tenant's requests are answered on the other.
  */
 export function cpuWorkerCount(): number {
-  return config.cpuWorkers ?? Math.max(1, Math.min(2, availableParallelism() - 1));
+  return config.cpuWorkers ?? (wholeMachine ? Math.max(1, availableParallelism()) : Math.max(1, Math.min(2, availableParallelism() - 1)));
+}
+
+let wholeMachine = false;
+
+/**
+ * A job worker process answers no requests, so its pool may use every core (four reports render
+ * and sign side by side on two cores instead of one after another). Call before the first task;
+ * `CPU_WORKERS` still wins when set.
+ */
+export function useEveryCoreForCpuTasks(): void {
+  wholeMachine = true;
 }
 
 function thePool(): Piscina {

@@ -24,7 +24,7 @@ export interface QueueSettings {
 }
 
 export const QUEUES: Record<JobName, QueueSettings> = {
-  'report-issue': { policy: 'stately', retryLimit: 6, retryDelay: 5, retryBackoff: true, expireInSeconds: 300, concurrency: 2 },
+  'report-issue': { policy: 'stately', retryLimit: 6, retryDelay: 5, retryBackoff: true, expireInSeconds: 300, concurrency: 4 },
   'email-send': { policy: 'standard', retryLimit: 2, retryDelay: 30, retryBackoff: true, expireInSeconds: 120, concurrency: 2 },
   'library-publish': { policy: 'stately', retryLimit: 3, retryDelay: 10, retryBackoff: true, expireInSeconds: 1800, concurrency: 1 },
   'analysis-run': { policy: 'stately', retryLimit: 3, retryDelay: 5, retryBackoff: true, expireInSeconds: 900, concurrency: 1 },

@@ -31,12 +31,50 @@ export interface ComputedAnalysis {
   rankedBytes?: Uint8Array;
 }
 
-/** Lot indices nearest first, ties by lot order (lot code, then id). */
+/**
+ * Lot indices nearest first, ties by lot order (lot code, then id). Distances are finite and not
+ * negative, so their IEEE-754 bit patterns, read as unsigned integers, order as the numbers do: a
+ * stable least-significant-digit radix sort of the indices by those 64 bits (four 16-bit digits,
+ * skipping a digit every lot shares) gives the comparison sort's order, ties by index, in a few
+ * linear passes. Anything else (a negative, NaN or infinite distance, a big-endian host) takes the
+ * comparison sort.
+ */
 export function rankLots(distances: ArrayLike<number>): Uint32Array {
-  const order = new Uint32Array(distances.length);
-  for (let i = 0; i < order.length; i++) order[i] = i;
-  return order.sort((a, b) => distances[a] - distances[b] || a - b);
+  const count = distances.length;
+  const order = new Uint32Array(count);
+  for (let i = 0; i < count; i++) order[i] = i;
+  const values = distances instanceof Float64Array ? distances : Float64Array.from(distances);
+  let radixable = LITTLE_ENDIAN;
+  for (let i = 0; i < count && radixable; i++) radixable = values[i] >= 0 && values[i] < Infinity;
+  if (!radixable) return order.sort((a, b) => distances[a] - distances[b] || a - b);
+  const words = new Uint32Array(values.buffer, values.byteOffset, 2 * count);
+  const counts = new Uint32Array(RADIX);
+  let from = order;
+  let to = new Uint32Array(count);
+  for (let digit = 0; digit < 4; digit++) {
+    const word = digit >> 1;
+    const shift = (digit & 1) * 16;
+    counts.fill(0);
+    for (let i = 0; i < count; i++) counts[(words[2 * i + word] >>> shift) & 0xffff]++;
+    if (count === 0 || counts[(words[word] >>> shift) & 0xffff] === count) continue;
+    let start = 0;
+    for (let b = 0; b < RADIX; b++) {
+      const c = counts[b];
+      counts[b] = start;
+      start += c;
+    }
+    for (let i = 0; i < count; i++) {
+      const lot = from[i];
+      to[counts[(words[2 * lot + word] >>> shift) & 0xffff]++] = lot;
+    }
+    const swap = from;
+    from = to;
+    to = swap;
+  }
+  return from;
 }
+const RADIX = 1 << 16;
+const LITTLE_ENDIAN = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1;
 
 const points = (s: Spectrum): SpectrumPoints => ({ frequencyHz: Array.from(s.frequencyHz), re: Array.from(s.re), im: Array.from(s.im) });
 
@@ -107,7 +145,8 @@ export function computeAnalysis(replicates: readonly Replicate[], library: Publi
   if (judgement.reason) flags.push({ code: 'too-few-lots', severity: 'warning', message: `No verdict: ${judgement.reason}.` });
   const lotDistance = (i: number) => ({ lotId: library.lots[i].id, lotCode: library.lots[i].lotCode, distance: judgement.distances[i] });
 
-  const ranking = rankLots(judgement.distances);
+  const lotDistances = Float64Array.from(judgement.distances);
+  const ranking = rankLots(lotDistances);
   const nearestLots = Array.from(ranking.subarray(0, NEAREST_LOTS));
   const mapIndices = nearestLots.slice(0, MAP_LOTS);
   let map: AnalysisResult['map'] = { sample: [0, 0], lots: [] };
@@ -156,7 +195,7 @@ export function computeAnalysis(replicates: readonly Replicate[], library: Publi
       thresholds: thresholdStatement(library.calibration),
     },
     sampleSpectrum: points(sample),
-    lotDistances: Float64Array.from(judgement.distances),
+    lotDistances,
     ranking,
   };
 }

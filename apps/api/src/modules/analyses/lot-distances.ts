@@ -8,9 +8,10 @@ const ENTRY = 12;
 /** Every lot's distance, nearest first, as stored: `ranking` holds lot indices in that order. */
 export function encodeRanked(ranking: ArrayLike<number>, distances: ArrayLike<number>): Buffer {
   const buf = Buffer.alloc(ENTRY * ranking.length);
-  for (let r = 0; r < ranking.length; r++) {
-    buf.writeUInt32LE(ranking[r], ENTRY * r);
-    buf.writeDoubleLE(distances[ranking[r]], ENTRY * r + 4);
+  const view = new DataView(buf.buffer, buf.byteOffset, buf.byteLength);
+  for (let r = 0, o = 0; r < ranking.length; r++, o += ENTRY) {
+    view.setUint32(o, ranking[r], true);
+    view.setFloat64(o + 4, distances[ranking[r]], true);
   }
   return buf;
 }

@@ -3,6 +3,7 @@ import { NEAREST_LOTS } from '@ohmprint/contracts';
 import { seedLabDemo } from '../../../../../docker-free-scripts/seed/lab-demo';
 import { insertLargePublishedLibrary } from '../../../../../test/bench/fixtures/large-library';
 import { measureDemoSample, useTestApp } from '../../testing';
+import { approveAndIssue } from '../../testing/report-issuance';
 
 jest.setTimeout(120_000);
 
@@ -121,9 +122,8 @@ describe('an analysis against a library of thousands of lots', () => {
     const [{ sample_id }] = await t.db.query(`SELECT sample_id FROM analysis WHERE id = $1`, [analysisId]);
     const fresh = await request(t.app).post(`/api/lab/samples/${sample_id}/analyses`).set(await t.authFor('analyst')).send({ libraryVersionId: versionId });
     await request(t.app).post(`/api/lab/analyses/${fresh.body.id}/submit`).set(await t.authFor('analyst'));
-    const res = await request(t.app).post(`/api/lab/analyses/${fresh.body.id}/approve`).set(await t.authFor('reviewer')).send({ comments: 'Agreed.' });
-    expect(res.status).toBe(200);
-    const [report] = await t.db.query(`SELECT content, octet_length(content::text) AS bytes FROM test_report WHERE id = $1`, [res.body.report.id]);
+    const issued = await approveAndIssue(t, fresh.body.id);
+    const [report] = await t.db.query(`SELECT content, octet_length(content::text) AS bytes FROM test_report WHERE id = $1`, [issued.id]);
     const plots = report.content.plots;
     expect(plots.calibrationDistances).toBeUndefined();
     expect(plots.calibrationHistogram).toEqual({ binEdges: fresh.body.result.histogram.binEdges, counts: fresh.body.result.histogram.counts });

@@ -41,7 +41,15 @@ export function packLibrary(library: PublishedLibrary): PackedLibrary {
  * Only the lot list is the worker's own memory; the spectra stay shared.
  */
 const unpacked = new Map<string, PublishedLibrary>();
-const WORKER_KEEPS = 4;
+/**
+ * Bounded by lots, not by libraries: an analysis reads its own library and every other published
+ * library of the lab (for the does-not-belong flag), so a count of four thrashed as soon as a lab
+ * had five, and a 50,000-lot lot list was rebuilt on every analysis. Small libraries cost little;
+ * the lots of the task at hand are always kept.
+ */
+const WORKER_KEEPS_LOTS = 200_000;
+const WORKER_KEEPS = 32;
+let keptLots = 0;
 
 export function unpackLibrary(p: PackedLibrary): PublishedLibrary {
   const kept = unpacked.get(p.versionId);
@@ -58,7 +66,16 @@ export function unpackLibrary(p: PackedLibrary): PublishedLibrary {
       })
     : [];
   const library: PublishedLibrary = { ...rest, lots, spectra: spectraOver(p.packed, p.grid) };
+  if (kept) {
+    unpacked.delete(p.versionId);
+    keptLots -= kept.lots.length;
+  }
   unpacked.set(p.versionId, library);
-  if (unpacked.size > WORKER_KEEPS) unpacked.delete(unpacked.keys().next().value as string);
+  keptLots += lots.length;
+  while (unpacked.size > 1 && (unpacked.size > WORKER_KEEPS || keptLots > WORKER_KEEPS_LOTS)) {
+    const oldest = unpacked.keys().next().value as string;
+    keptLots -= (unpacked.get(oldest) as PublishedLibrary).lots.length;
+    unpacked.delete(oldest);
+  }
   return library;
 }

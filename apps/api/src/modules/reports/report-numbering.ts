@@ -105,6 +105,20 @@ export async function claimReportNumber(manager: EntityManager, lab: { id: strin
         ORDER BY c.value LIMIT 1 FOR UPDATE SKIP LOCKED`,
       [lab.id, year],
     );
+    // The row is locked now, so nobody can change it; but the holder test above may have read
+    // session activity cached before the row's last takeover committed (PostgreSQL re-checks a
+    // row updated under it with the statistics snapshot it already took). Look again, fresh,
+    // and leave a claim whose holder is still at work to that holder.
+    if (abandoned.length) {
+      await own.query('SELECT pg_stat_clear_snapshot()');
+      const stillAbandoned: unknown[] = await own.query(
+        `SELECT 1 FROM report_number_claim c
+          WHERE c.lab_id = $1 AND c.year = $2 AND c.value = $3 AND c.state = 'held'
+            AND NOT EXISTS (SELECT 1 FROM pg_stat_activity a WHERE a.pid = c.holder_pid AND a.xact_start <= c.held_at)`,
+        [lab.id, year, abandoned[0].value],
+      );
+      if (!stillAbandoned.length) abandoned.length = 0;
+    }
     if (abandoned.length) {
       await own.query(`UPDATE report_number_claim SET held_at = now(), holder_pid = $4 WHERE lab_id = $1 AND year = $2 AND value = $3`, [lab.id, year, abandoned[0].value, holder]);
       return { prefix, value: abandoned[0].value };
@@ -118,7 +132,7 @@ export async function claimReportNumber(manager: EntityManager, lab: { id: strin
     await own.query(`INSERT INTO report_number_claim (lab_id, year, value, state, holder_pid) VALUES ($1, $2, $3, 'held', $4)`, [lab.id, year, rows[0].last_value, holder]);
     return { prefix, value: rows[0].last_value };
   });
-  const locked: unknown[] = await manager.query(`SELECT 1 FROM report_number_claim WHERE lab_id = $1 AND year = $2 AND value = $3 AND state = 'held' FOR UPDATE`, [lab.id, year, value]);
+  const locked: unknown[] = await manager.query(`SELECT 1 FROM report_number_claim WHERE lab_id = $1 AND year = $2 AND value = $3 AND state = 'held' AND holder_pid = $4 FOR UPDATE`, [lab.id, year, value, holder]);
   if (!locked.length) throw new Error(`Report number claim ${lab.id}/${year}/${value} was taken over before it could be locked.`);
   return { labId: lab.id, year, value, number: `${prefix}-${year}-${String(value).padStart(6, '0')}` };
 }
