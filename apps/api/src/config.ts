@@ -62,7 +62,7 @@ const EnvSchema = z.object({
   /** A library version with more included lots than this is published by a worker (202 + status), not on the request. */
   LIBRARY_PUBLISH_JOB_LOTS: z.coerce.number().int().min(0).default(500),
   /** An analysis against a library version with more included lots than this runs on a worker (202 + status). */
-  ANALYSIS_JOB_LOTS: z.coerce.number().int().min(0).default(2000),
+  ANALYSIS_JOB_LOTS: z.coerce.number().int().min(0).default(20000),
   SHUTDOWN_TIMEOUT_MS: z.coerce.number().int().min(100).default(10000),
   OHMPRINT_DATA_DIR: z.string().default('.data'),
   PORTALS_DIR: z.string().default('dist'),
