@@ -59,6 +59,10 @@ const EnvSchema = z.object({
   CPU_WORKERS: z.coerce.number().int().min(1).max(64).optional(),
   /** Decoded published libraries kept in memory, in megabytes (estimated), least recently used out first. */
   LIBRARY_CACHE_MAX_MB: z.coerce.number().int().min(1).max(65536).default(192),
+  /** A library version with more included lots than this is published by a worker (202 + status), not on the request. */
+  LIBRARY_PUBLISH_JOB_LOTS: z.coerce.number().int().min(0).default(500),
+  /** An analysis against a library version with more included lots than this runs on a worker (202 + status). */
+  ANALYSIS_JOB_LOTS: z.coerce.number().int().min(0).default(20000),
   SHUTDOWN_TIMEOUT_MS: z.coerce.number().int().min(100).default(10000),
   OHMPRINT_DATA_DIR: z.string().default('.data'),
   PORTALS_DIR: z.string().default('dist'),
@@ -135,6 +139,7 @@ export function buildConfig(env: Env) {
     },
     cpuWorkers: env.CPU_WORKERS,
     libraryCacheMaxBytes: env.LIBRARY_CACHE_MAX_MB * 1024 * 1024,
+    jobs: { libraryPublishLots: env.LIBRARY_PUBLISH_JOB_LOTS, analysisLots: env.ANALYSIS_JOB_LOTS },
     shutdownTimeoutMs: env.SHUTDOWN_TIMEOUT_MS,
     dataDir: env.OHMPRINT_DATA_DIR,
     portalsDir: env.PORTALS_DIR,

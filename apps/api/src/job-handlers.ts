@@ -2,6 +2,8 @@ import type { JobHandler, JobName } from './core/jobs/jobs';
 import { dataSource } from './db/data-source';
 import { createMailTransport } from './modules/mail/mail-transport';
 import { deliverOutboxMessage } from './modules/mail/outbox-worker';
+import { publishLibraryVersion, type LibraryPublishPayload } from './modules/libraries/library-publish-job';
+import { runRequestedAnalysis, type AnalysisRunPayload } from './modules/analyses/analysis-run-job';
 import { issueApprovedReport, type ReportIssuancePayload } from './modules/reviews/report-issuance-job';
 
 /**
@@ -11,6 +13,8 @@ import { issueApprovedReport, type ReportIssuancePayload } from './modules/revie
 export function jobHandlers(options: { email: boolean }): Partial<Record<JobName, JobHandler>> {
   const handlers: Partial<Record<JobName, JobHandler>> = {
     'report-issue': (payload) => issueApprovedReport(payload as unknown as ReportIssuancePayload),
+    'analysis-run': (payload) => runRequestedAnalysis(payload as unknown as AnalysisRunPayload),
+    'library-publish': (payload) => publishLibraryVersion(payload as unknown as LibraryPublishPayload),
   };
   if (options.email) {
     const transport = createMailTransport();

@@ -19,3 +19,5 @@ export * from './notifications';
 export * from './field-words';
 export * from './format';
 export * from './layout';
+export * from './lab/library-publication';
+export * from './lab/analysis-run';

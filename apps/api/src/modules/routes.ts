@@ -26,6 +26,7 @@ import { analysesRouter } from './analyses/router';
 import { slimResultsRouter } from './analyses/slim-results.router';
 import { reviewsRouter } from './reviews/router';
 import { reportIssuanceRouter } from './reviews/report-issuance.router';
+import { analysisRunRouter } from './analyses/analysis-run.router';
 import { clientOrdersRouter } from './orders/router';
 import { clientOrderingRouter } from './orders/client-ordering.router';
 import { clientBillingRouter } from './billing/client-billing.router';
@@ -39,6 +40,7 @@ export function apiRoutes(): Router {
   const api = Router();
   api.use(healthRouter());
   api.use(reportIssuanceRouter());
+  api.use(analysisRunRouter());
   api.use('/auth', authRouter());
   api.use('/invitations', invitationsRouter());
   api.use('/me', meRouter());

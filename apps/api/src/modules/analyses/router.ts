@@ -17,7 +17,8 @@ import { dataSource } from '../../db/data-source';
 import { registerRoute } from '../../openapi/registry';
 import { requireRole } from '../auth/require-auth';
 import { LAB_STAFF } from '../samples/lab-roles';
-import { reproduceAnalysis, runAnalysis, submitForReview, updateRemarks } from './analysis-service';
+import { reproduceAnalysis, submitForReview, updateRemarks } from './analysis-service';
+import { requestAnalysis } from './analysis-run-job';
 import { analysisView, listAnalyses } from './analysis-views';
 
 const tag = 'Analyses';
@@ -28,11 +29,12 @@ export function analysesRouter(): Router {
   const analyst = requireRole('analyst');
   const id = (params: unknown) => (params as { id: string }).id;
 
-  registerRoute({ method: 'post', path: '/lab/samples/:id/analyses', tag, summary: 'Analyse the sample’s included replicates against a published library version', roles: ['analyst'], params: IdParamsSchema, body: RunAnalysisSchema, response: AnalysisSchema, status: 201 });
+  registerRoute({ method: 'post', path: '/lab/samples/:id/analyses', tag, summary: 'Analyse the sample’s included replicates against a published library version. Above ANALYSIS_JOB_LOTS lots a worker runs it: 202 with where it is (see …/analysis-run)', roles: ['analyst'], params: IdParamsSchema, body: RunAnalysisSchema, response: AnalysisSchema, status: 201 });
   router.post('/samples/:id/analyses', analyst, validate({ params: IdParamsSchema, body: RunAnalysisSchema }), async (_req, res) => {
     const labId = labIdOf(res.locals.auth);
-    const analysisId = await dataSource.transaction((m) => runAnalysis(m, res.locals.auth, labId, id(res.locals.params), (res.locals.body as RunAnalysis).libraryVersionId));
-    res.status(201).json(await analysisView(dataSource.manager, labId, analysisId));
+    const asked = await requestAnalysis(res.locals.auth, labId, id(res.locals.params), (res.locals.body as RunAnalysis).libraryVersionId);
+    if ('run' in asked) res.status(202).json(asked.run);
+    else res.status(201).json(await analysisView(dataSource.manager, labId, asked.analysisId));
   });
 
   registerRoute({ method: 'get', path: '/lab/analyses', tag, summary: 'Analyses of the lab (filter by status, e.g. submitted for the review queue, or by sample)', roles: LAB_STAFF, query: AnalysisListQuerySchema, response: AnalysisPageSchema });

@@ -8,6 +8,7 @@ import {
   LibraryLotQuerySchema,
   LibraryOverviewSchema,
   LibraryProductPageSchema,
+  LibraryPublicationSchema,
   LibraryProductQuerySchema,
   LibraryVersionDetailSchema,
   LotInclusionSchema,
@@ -28,7 +29,7 @@ import { createLibraryDraft, discardDraft, recalibrateDraft, retireVersion, setL
 import { libraryLots } from './library-lots';
 import { libraryOverview } from './library-overview';
 import { libraryProducts } from './library-products';
-import { publishVersion } from './library-versions';
+import { publicationOf, requestPublication } from './library-publish-job';
 import { libraryVersionDetail } from './library-views';
 
 const tag = 'Reference libraries';
@@ -74,10 +75,15 @@ export function libraryBuildRouter(): Router {
     res.json(await libraryVersionDetail(dataSource.manager, labId, id(res.locals.params)));
   });
 
-  route({ method: 'post', path: '/lab/library-versions/:id/publish', tag, summary: 'Publish (freeze) a draft; 409 naming why when it has too few lots or a threshold interval is too wide', roles: PUBLISHERS, params: IdParamsSchema, response: LibraryVersionDetailSchema }, async (_req, res) => {
+  route({ method: 'post', path: '/lab/library-versions/:id/publish', tag, summary: 'Publish (freeze) a draft; 409 naming why when it has too few lots or a threshold interval is too wide. Above LIBRARY_PUBLISH_JOB_LOTS included lots a worker publishes it: 202 with the publication’s state (see …/publication)', roles: PUBLISHERS, params: IdParamsSchema, response: LibraryVersionDetailSchema }, async (_req, res) => {
     const labId = labIdOf(res.locals.auth);
-    await dataSource.transaction((m) => publishVersion(m, labId, id(res.locals.params), res.locals.auth.userId));
-    res.json(await libraryVersionDetail(dataSource.manager, labId, id(res.locals.params)));
+    const { queued, publication } = await requestPublication(labId, id(res.locals.params), res.locals.auth.userId);
+    if (queued) res.status(202).json(publication);
+    else res.json(await libraryVersionDetail(dataSource.manager, labId, id(res.locals.params)));
+  });
+
+  route({ method: 'get', path: '/lab/library-versions/:id/publication', tag, summary: 'Where a version’s publication is: draft, queued, running (calibrating its lots), published, or failed with the reason', roles: READERS, params: IdParamsSchema, response: LibraryPublicationSchema }, async (_req, res) => {
+    res.json(await publicationOf(dataSource.manager, labIdOf(res.locals.auth), id(res.locals.params)));
   });
 
   route({ method: 'post', path: '/lab/library-versions/:id/retire', tag, summary: 'Retire a published version: no new analyses; earlier ones stay reproducible', roles: PUBLISHERS, params: IdParamsSchema, body: RetireLibraryVersionSchema, response: LibraryVersionDetailSchema }, async (_req, res) => {

@@ -2,12 +2,14 @@ import { HttpClient, HttpParams } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import {
   AnalysisPageSchema,
+  AnalysisRunSchema,
   AnalysisSchema,
   ApprovalResultSchema,
   LibraryPageSchema,
   LotDistancePageSchema,
   ReferenceBandViewSchema,
   type Analysis,
+  type AnalysisRun,
   type AnalysisPage,
   type ApprovalResult,
   type LibraryItem,
@@ -58,10 +60,15 @@ export class AnalysesData {
     return this.http.get(`/api/lab/analyses/${id}`).pipe(map((r) => AnalysisSchema.parse(r)));
   }
 
-  run(sampleId: string, libraryVersionId: string): Observable<Analysis> {
+  /** Runs an analysis: at once (the analysis), or against a large library on a worker (202 and where it is; follow it with `analysisRun`). */
+  run(sampleId: string, libraryVersionId: string): Observable<{ analysis: Analysis } | { run: AnalysisRun }> {
     return this.http
-      .post(`/api/lab/samples/${sampleId}/analyses`, { libraryVersionId }, { context: quietRequest() })
-      .pipe(map((r) => AnalysisSchema.parse(r)));
+      .post(`/api/lab/samples/${sampleId}/analyses`, { libraryVersionId }, { context: quietRequest(), observe: 'response' })
+      .pipe(map((r) => (r.status === 202 ? { run: AnalysisRunSchema.parse(r.body) } : { analysis: AnalysisSchema.parse(r.body) })));
+  }
+
+  analysisRun(sampleId: string): Observable<AnalysisRun> {
+    return this.http.get(`/api/lab/samples/${sampleId}/analysis-run`, { context: quietRequest() }).pipe(map((r) => AnalysisRunSchema.parse(r)));
   }
 
   saveRemarks(id: string, remarks: string): Observable<Analysis> {

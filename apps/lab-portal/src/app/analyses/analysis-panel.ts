@@ -1,5 +1,5 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, output, signal, untracked } from '@angular/core';
+import { ChangeDetectionStrategy, Component, DestroyRef, computed, effect, inject, input, output, signal, untracked } from '@angular/core';
 import { FormControl, FormsModule, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -7,7 +7,8 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
-import type { Analysis, LibraryItem, SampleDetail } from '@ohmprint/contracts';
+import type { Analysis, AnalysisRun, LibraryItem, SampleDetail } from '@ohmprint/contracts';
+import { switchMap, takeWhile, timer, type Subscription } from 'rxjs';
 import { ApiProblem, Notice, Notifier } from '@ohmprint/ui';
 import { AnalysesData } from './analyses-data';
 import { AnalysisResult } from './analysis-result';
@@ -44,6 +45,9 @@ export class AnalysisPanel {
   protected readonly current = signal<Analysis | null>(null);
   protected readonly running = signal(false);
   protected readonly runError = signal<string | null>(null);
+  /** An analysis against a large library on a worker, polled every second while queued or running. */
+  protected readonly waiting = signal<AnalysisRun | null>(null);
+  private polling: Subscription | null = null;
   protected readonly submitting = signal(false);
   protected readonly remarks = new FormControl('', { nonNullable: true });
   protected readonly published = computed(() => (this.library()?.versions ?? []).filter((v) => v.status === 'published').sort((a, b) => b.version - a.version));
@@ -65,7 +69,10 @@ export class AnalysisPanel {
         this.versionId.set(this.published()[0]?.id ?? null);
       });
       this.loadHistory(s.id, true);
+      // an analysis asked for earlier may still be on a worker
+      this.follow(s.id, false);
     });
+    inject(DestroyRef).onDestroy(() => this.polling?.unsubscribe());
   }
 
   protected open(id: string): void {
@@ -81,7 +88,13 @@ export class AnalysisPanel {
     this.running.set(true);
     this.runError.set(null);
     this.data.run(this.sample().id, versionId).subscribe({
-      next: (a) => {
+      next: (r) => {
+        if ('run' in r) {
+          this.waiting.set(r.run);
+          this.follow(this.sample().id, true);
+          return;
+        }
+        const a = r.analysis;
         this.running.set(false);
         this.current.set(a);
         this.remarks.setValue(a.remarks);
@@ -93,6 +106,43 @@ export class AnalysisPanel {
         this.runError.set(ApiProblem.from(e).summary);
       },
     });
+  }
+
+  /** Polls the sample's analysis on a worker until it is done (then opens it) or failed (then says why). */
+  private follow(sampleId: string, asked: boolean): void {
+    this.polling?.unsubscribe();
+    let seenBusy = asked;
+    this.polling = timer(0, 1000)
+      .pipe(
+        switchMap(() => this.data.analysisRun(sampleId)),
+        takeWhile((r) => r.state === 'queued' || r.state === 'running', true),
+      )
+      .subscribe({
+        next: (r) => {
+          const busy = r.state === 'queued' || r.state === 'running';
+          this.waiting.set(busy ? r : null);
+          if (busy) {
+            seenBusy = true;
+            this.running.set(true);
+            return;
+          }
+          // on opening the page, only a run seen on the worker is reported
+          if (!seenBusy) return;
+          this.running.set(false);
+          if (r.state === 'done' && r.analysisId) {
+            this.open(r.analysisId);
+            this.loadHistory(sampleId, false);
+            this.changed.emit();
+          } else if (r.state === 'failed') {
+            this.runError.set(r.detail ?? 'The analysis failed.');
+          }
+        },
+        error: (e: unknown) => {
+          this.running.set(false);
+          this.waiting.set(null);
+          this.runError.set(ApiProblem.from(e).summary);
+        },
+      });
   }
 
   protected saveRemarks(): void {

@@ -6,6 +6,7 @@ import {
   LibraryLotPageSchema,
   LibraryOverviewSchema,
   LibraryProductPageSchema,
+  LibraryPublicationSchema,
   LibraryVersionDetailSchema,
   MethodPageSchema,
   MethodVersionDetailSchema,
@@ -17,6 +18,7 @@ import {
   type LibraryDraftCreated,
   type LibraryLotPage,
   type LibraryOverview,
+  type LibraryPublication,
   type LibraryVersionDetail,
   type MethodSettings,
   type MethodVersionDetail,
@@ -96,6 +98,20 @@ export class LibrariesData {
 
   act(id: string, action: 'calibrate' | 'publish' | 'retire', body: object = {}): Observable<LibraryVersionDetail> {
     return this.http.post(`/api/lab/library-versions/${id}/${action}`, body).pipe(map((r) => LibraryVersionDetailSchema.parse(r)));
+  }
+
+  /**
+   * Publishes a draft: a small one at once (its detail), a large one by a worker (202 and where its
+   * publication is; follow it with `publication`).
+   */
+  publish(id: string): Observable<{ detail: LibraryVersionDetail } | { publication: LibraryPublication }> {
+    return this.http
+      .post(`/api/lab/library-versions/${id}/publish`, {}, { observe: 'response' })
+      .pipe(map((r) => (r.status === 202 ? { publication: LibraryPublicationSchema.parse(r.body) } : { detail: LibraryVersionDetailSchema.parse(r.body) })));
+  }
+
+  publication(id: string): Observable<LibraryPublication> {
+    return this.http.get(`/api/lab/library-versions/${id}/publication`, { context: quietRequest() }).pipe(map((r) => LibraryPublicationSchema.parse(r)));
   }
 
   discard(id: string): Observable<unknown> {

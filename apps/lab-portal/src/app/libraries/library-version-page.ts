@@ -1,15 +1,17 @@
 import { DatePipe, DecimalPipe, PercentPipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, inject, input, signal, effect } from '@angular/core';
+import { ChangeDetectionStrategy, Component, DestroyRef, computed, inject, input, signal, effect } from '@angular/core';
 import { FormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatPaginatorModule } from '@angular/material/paginator';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { RouterLink } from '@angular/router';
-import { MATRIX_LABELS, THRESHOLD_ESTIMATOR_LABELS, type CrossProductCheck, type LibraryLot, type LibraryOverview, type LibraryVersionDetail } from '@ohmprint/contracts';
-import { BodeChart, DistanceHistogram, LibraryMap, Notifier, ServerList, Session, oneOfOr, type DistanceHistogramInput, type MapPoint, type ReferenceBand, type SpectrumSeries } from '@ohmprint/ui';
+import { MATRIX_LABELS, THRESHOLD_ESTIMATOR_LABELS, type CrossProductCheck, type LibraryLot, type LibraryOverview, type LibraryPublication, type LibraryVersionDetail } from '@ohmprint/contracts';
+import { ApiProblem, BodeChart, DistanceHistogram, LibraryMap, Notice, Notifier, ServerList, Session, oneOfOr, type DistanceHistogramInput, type MapPoint, type ReferenceBand, type SpectrumSeries } from '@ohmprint/ui';
+import { switchMap, takeWhile, timer, type Subscription } from 'rxjs';
 import { LibrariesData } from './libraries-data';
 
 const LOT_FILTERS = ['all', 'included', 'excluded'] as const;
@@ -25,7 +27,7 @@ type LotSort = 'distance' | 'lotCode' | 'producedOn';
 @Component({
   selector: 'ohm-library-version-page',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [DatePipe, DecimalPipe, PercentPipe, FormsModule, RouterLink, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatPaginatorModule, MatSelectModule, BodeChart, LibraryMap, DistanceHistogram],
+  imports: [DatePipe, DecimalPipe, PercentPipe, FormsModule, RouterLink, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatPaginatorModule, MatSelectModule, BodeChart, LibraryMap, DistanceHistogram, MatProgressBarModule, Notice],
   styles: `
     section { margin-bottom: 1.75rem; }
     .facts { display: grid; grid-template-columns: repeat(auto-fill, minmax(14rem, 1fr)); gap: .5rem 1.5rem; margin: 0; }
@@ -40,6 +42,7 @@ type LotSort = 'distance' | 'lotCode' | 'producedOn';
     th, td { text-align: left; padding: .35rem .5rem; border-bottom: 1px solid var(--mat-sys-outline-variant); }
     td.num, th.num { text-align: right; font-variant-numeric: tabular-nums; }
     tr.outlier td { font-weight: 600; }
+    .publishing { margin: 1rem 0; max-width: 48rem; }
     .flag { display: inline-flex; align-items: center; gap: .25rem; }
     .flag mat-icon { font-size: 18px; width: 18px; height: 18px; }
   `,
@@ -83,7 +86,7 @@ type LotSort = 'distance' | 'lotCode' | 'producedOn';
         <h2 id="actions-heading" class="cdk-visually-hidden">Actions</h2>
         @if (v.status === 'draft') {
           @if (isAnalyst()) { <button mat-stroked-button type="button" (click)="act('calibrate')"><mat-icon>calculate</mat-icon>Calibrate</button> }
-          @if (canPublish()) { <button mat-flat-button type="button" [disabled]="v.publishBlockers.length > 0" (click)="act('publish')"><mat-icon>verified</mat-icon>Publish version {{ v.version }}</button> }
+          @if (canPublish()) { <button mat-flat-button type="button" [disabled]="v.publishBlockers.length > 0 || publishing()" (click)="publish()"><mat-icon>verified</mat-icon>Publish version {{ v.version }}</button> }
           @if (isAnalyst()) { <button mat-button type="button" (click)="discard()"><mat-icon>delete</mat-icon>Discard draft</button> }
         }
         @if (v.status === 'published' && canPublish()) {
@@ -91,6 +94,18 @@ type LotSort = 'distance' | 'lotCode' | 'producedOn';
           <button mat-stroked-button type="button" [disabled]="retireReason.trim().length < 3" (click)="act('retire', { reason: retireReason })"><mat-icon>archive</mat-icon>Retire</button>
         }
       </section>
+
+      @if (publication(); as p) {
+        @if (p.state === 'queued' || p.state === 'running') {
+          <section class="publishing" role="status" aria-live="polite">
+            <p><strong>{{ p.state === 'queued' ? 'Waiting to publish…' : 'Calibrating ' + p.lotCount + ' lots…' }}</strong>
+              Version {{ p.version }} is being published by a worker: every lot is compared with every other and the thresholds are set. You may leave this page; it carries on.</p>
+            <mat-progress-bar mode="indeterminate" [attr.aria-label]="'Publishing version ' + p.version" />
+          </section>
+        } @else if (p.state === 'failed') {
+          <ohm-notice tone="error" icon="error">Version {{ p.version }} was not published. {{ p.detail }}</ohm-notice>
+        }
+      }
 
       @if (v.changes; as ch) {
         <section aria-labelledby="changes-heading">
@@ -200,6 +215,10 @@ export class LibraryVersionPage {
   });
   protected readonly isAnalyst = computed(() => this.session.hasAnyRole(['analyst']));
   protected readonly canPublish = computed(() => this.session.hasAnyRole(['lab-admin', 'reviewer']));
+  /** A large draft's publication by a worker, polled every second while queued or running. */
+  protected readonly publication = signal<LibraryPublication | null>(null);
+  protected readonly publishing = computed(() => ['queued', 'running'].includes(this.publication()?.state ?? ''));
+  private polling: Subscription | null = null;
   protected retireReason = '';
   protected lotReason = '';
 
@@ -224,10 +243,17 @@ export class LibraryVersionPage {
 
   constructor() {
     effect(() => this.reload(this.id()));
+    inject(DestroyRef).onDestroy(() => this.polling?.unsubscribe());
   }
 
   private reload(id: string): void {
-    this.data.version(id).subscribe((v) => this.version.set(v));
+    this.polling?.unsubscribe();
+    this.publication.set(null);
+    this.data.version(id).subscribe((v) => {
+      this.version.set(v);
+      // A draft may be waiting for, or have failed, its publication by a worker.
+      if (v.status === 'draft') this.follow(id, false);
+    });
     this.data.overview(id).subscribe((o) => this.overview.set(o));
     this.data.crossProduct(id).subscribe((x) => this.cross.set(x));
   }
@@ -272,6 +298,40 @@ export class LibraryVersionPage {
       this.notifier.success(action === 'publish' ? `Version ${v.version} is published and frozen.` : action === 'retire' ? `Version ${v.version} is retired.` : 'Calibrated.');
       this.list.reload();
     });
+  }
+
+  protected publish(): void {
+    this.data.publish(this.id()).subscribe((r) => {
+      if ('detail' in r) {
+        this.version.set(r.detail);
+        this.notifier.success(`Version ${r.detail.version} is published and frozen.`);
+        this.list.reload();
+        return;
+      }
+      this.publication.set(r.publication);
+      this.follow(this.id(), true);
+    });
+  }
+
+  /** Polls a draft's publication every second while it is queued or running; published, reloads the version. */
+  private follow(id: string, announce: boolean): void {
+    this.polling?.unsubscribe();
+    this.polling = timer(0, 1000)
+      .pipe(
+        switchMap(() => this.data.publication(id)),
+        takeWhile((p) => p.state === 'queued' || p.state === 'running', true),
+      )
+      .subscribe({
+        next: (p) => {
+          this.publication.set(p.state === 'draft' ? null : p);
+          if (p.state === 'published') {
+            this.publication.set(null);
+            this.reload(id);
+            if (announce) this.notifier.success(`Version ${p.version} is published and frozen.`);
+          }
+        },
+        error: (e: unknown) => this.notifier.problem(ApiProblem.from(e)),
+      });
   }
 
   protected discard(): void {

@@ -1,0 +1,100 @@
+import type { EntityManager } from 'typeorm';
+import type { LibraryPublication } from '@ohmprint/contracts';
+import { ApiError } from '../../core/api-error';
+import { enqueue, latestJob } from '../../core/jobs/jobs';
+import { config } from '../../config';
+import { dataSource } from '../../db/data-source';
+import { LibraryVersion } from './library-version.entity';
+import { publishVersion } from './library-versions';
+
+export interface LibraryPublishPayload {
+  labId: string;
+  versionId: string;
+  userId: string;
+}
+
+async function includedLots(manager: EntityManager, labId: string, versionId: string): Promise<number> {
+  const [{ n }]: Array<{ n: number }> = await manager.query('SELECT count(*)::int AS n FROM reference_lot WHERE library_version_id = $1 AND lab_id = $2 AND included', [versionId, labId]);
+  return n;
+}
+
+/**
+ * A reviewer or lab admin asks to publish a draft. Up to `LIBRARY_PUBLISH_JOB_LOTS` included lots it
+ * is published at once (`published`); above, a `library-publish` job is queued (one waiting job per
+ * version: a second press while it waits queues nothing) and the answer says `queued`. Either way
+ * the work is `publishVersion`.
+ */
+export async function requestPublication(labId: string, versionId: string, userId: string): Promise<{ queued: boolean; publication: LibraryPublication }> {
+  return dataSource.transaction(async (manager) => {
+    const version = await manager.findOne(LibraryVersion, { where: { id: versionId, labId }, lock: { mode: 'pessimistic_write', onLocked: 'skip_locked' } });
+    if (!version) {
+      // Locked: a worker (or another person's press) is publishing it right now.
+      const busy = await manager.findOne(LibraryVersion, { where: { id: versionId, labId } });
+      if (!busy) throw ApiError.notFound('Library version');
+      return { queued: true, publication: { versionId, version: busy.version, state: 'running', lotCount: await includedLots(manager, labId, versionId), detail: null } };
+    }
+    if (version.status !== 'draft') throw ApiError.conflict(`Version ${version.version} is already ${version.status}.`);
+    const lotCount = await includedLots(manager, labId, versionId);
+    if (lotCount <= config.jobs.libraryPublishLots) {
+      await publishVersion(manager, labId, versionId, userId);
+      return { queued: false, publication: { versionId, version: version.version, state: 'published', lotCount, detail: null } };
+    }
+    const current = await publicationState(manager, labId, version, lotCount);
+    if (current.state !== 'queued' && current.state !== 'running') {
+      await enqueue(manager, 'library-publish', { labId, versionId, userId } satisfies LibraryPublishPayload, { singletonKey: versionId });
+    }
+    return { queued: true, publication: { ...current, state: current.state === 'running' ? 'running' : 'queued', detail: null } };
+  });
+}
+
+/**
+ * The job: publishes the draft once. The version row is locked while it runs and the job ends at
+ * once when the version is no longer a draft, so a retry or a second job publishes (and audits)
+ * nothing twice. A draft the method refuses (too few lots, no thresholds, an interval too wide) ends
+ * the job with the reason instead of retrying it.
+ */
+export async function publishLibraryVersion(payload: LibraryPublishPayload): Promise<{ published: boolean; refused?: string }> {
+  const { labId, versionId, userId } = payload;
+  try {
+    return await dataSource.transaction(async (manager) => {
+      const version = await manager.findOne(LibraryVersion, { where: { id: versionId, labId }, lock: { mode: 'pessimistic_write' } });
+      if (!version) return { published: false, refused: 'The version no longer exists.' };
+      if (version.status !== 'draft') return { published: false };
+      await publishVersion(manager, labId, versionId, userId);
+      return { published: true };
+    });
+  } catch (err) {
+    if (err instanceof ApiError && err.status === 409) return { published: false, refused: err.detail ?? err.message };
+    throw err;
+  }
+}
+
+async function publicationState(manager: EntityManager, labId: string, version: LibraryVersion, lotCount: number): Promise<LibraryPublication> {
+  const base = { versionId: version.id, version: version.version, lotCount };
+  if (version.status !== 'draft') return { ...base, state: 'published', detail: null };
+  const job = await latestJob(manager, 'library-publish', version.id);
+  if (!job) return { ...base, state: 'draft', detail: null };
+  const output = (job.output ?? {}) as { refused?: string; message?: string };
+  switch (job.state) {
+    case 'created':
+    case 'retry':
+      return { ...base, state: 'queued', detail: null };
+    case 'active':
+      return { ...base, state: 'running', detail: null };
+    case 'completed':
+      return output.refused ? { ...base, state: 'failed', detail: output.refused } : { ...base, state: 'draft', detail: null };
+    default:
+      return {
+        ...base,
+        state: 'failed',
+        detail: `Publishing stopped after several attempts${output.message ? `: ${String(output.message).slice(0, 300)}` : ''}. Press publish to try again.`,
+      };
+  }
+}
+
+/** Where a version's publication is (the library screen polls this while it waits). */
+export async function publicationOf(manager: EntityManager, labId: string, versionId: string): Promise<LibraryPublication> {
+  const version = await manager.findOne(LibraryVersion, { where: { id: versionId, labId } });
+  if (!version) throw ApiError.notFound('Library version');
+  return publicationState(manager, labId, version, await includedLots(manager, labId, versionId));
+}
