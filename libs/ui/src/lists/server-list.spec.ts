@@ -32,8 +32,16 @@ class Things {
   });
 }
 
+/** A page that takes its time to open (a lazy chunk on a busy machine): released by `arrive()`. */
+let arrive: () => void = () => undefined;
+@Component({ selector: 'ohm-thing', template: '', changeDetection: ChangeDetectionStrategy.OnPush })
+class Thing {}
+
 async function open(url: string) {
-  TestBed.configureTestingModule({ providers: [...provideTestPortal({ routes: [{ path: 'things', component: Things }] }), provideLocationMocks()] });
+  const slowly = () => new Promise<boolean>((resolve) => (arrive = () => resolve(true)));
+  TestBed.configureTestingModule({
+    providers: [...provideTestPortal({ routes: [{ path: 'things', component: Things }, { path: 'things/:id', component: Thing, canActivate: [slowly] }] }), provideLocationMocks()],
+  });
   const harness = await RouterTestingHarness.create();
   // as the app's initial navigation does: Back and Forward become navigations
   TestBed.inject(Router).setUpLocationChangeListener();
@@ -146,6 +154,18 @@ describe('ServerList', () => {
     list.reload();
     expect(list.failed()).toBe(false);
     expect(list.rows()).toEqual(['fresh']);
+  });
+
+  it('lets a followed row link finish: a search settling meanwhile does not pull the person back', async () => {
+    const { harness, list, location } = await open('/things');
+    const router = TestBed.inject(Router);
+    const leaving = router.navigateByUrl('/things/42');
+    await settle();
+    list.search('ridge');
+    arrive();
+    expect(await leaving).toBe(true);
+    await harness.fixture.whenStable();
+    expect(location.path()).toBe('/things/42');
   });
 
   it('does not navigate when nothing changed', async () => {

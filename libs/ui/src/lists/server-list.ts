@@ -121,6 +121,18 @@ export class ServerList<T, F extends object = Record<never, never>> implements L
   private show(patch: Partial<ListState<F>>, replaceUrl = false): void {
     const next = { ...this.current(), ...patch };
     if (sameListState(next, this.current())) return;
+    if (this.leaving()) return;
     void this.router.navigate([], { queryParams: listStateParams(this.options, next), queryParamsHandling: 'merge', replaceUrl });
+  }
+
+  /**
+   * A navigation to another page is under way (a row's link was followed while a search was still
+   * settling): a late search, sort or page change must not cancel it and pull the person back.
+   */
+  private leaving(): boolean {
+    const navigation = this.router.currentNavigation();
+    if (!navigation) return false;
+    const pathOf = (url: string) => url.split(/[?#]/)[0];
+    return pathOf(this.router.serializeUrl(navigation.extractedUrl)) !== pathOf(this.router.url);
   }
 }
