@@ -49,6 +49,9 @@ export interface StartJobsOptions {
 
 let boss: PgBoss | null = null;
 let listener: Client | null = null;
+/** Job handlers of this process that are running now (stopJobs waits for them to end). */
+let handlersRunning = 0;
+let handlersStarted = 0;
 const workersByQueue = new Map<JobName, string[]>();
 
 function connectionOptions(): { host?: string; port?: number; user?: string; password?: string; database?: string } {
@@ -102,6 +105,8 @@ export async function startJobs(options: StartJobsOptions = {}): Promise<void> {
       ids.push(
         await b.work<Record<string, unknown>>(name, { pollingIntervalSeconds: options.pollingIntervalSeconds ?? 2, batchSize: 1, includeMetadata: true }, async ([job]) => {
           const started = Date.now();
+          handlersRunning += 1;
+          handlersStarted += 1;
           try {
             const result = await handler(job.data, { id: job.id, retryCount: job.retryCount });
             logger.info({ queue: name, jobId: job.id, ms: Date.now() - started }, 'job done');
@@ -109,6 +114,8 @@ export async function startJobs(options: StartJobsOptions = {}): Promise<void> {
           } catch (err) {
             logger.warn({ queue: name, jobId: job.id, err }, 'job failed (retried while attempts remain)');
             throw err;
+          } finally {
+            handlersRunning -= 1;
           }
         }),
       );
@@ -133,7 +140,17 @@ export async function stopJobs(timeoutSeconds = 20): Promise<void> {
   workersByQueue.clear();
   await listener?.end().catch(() => undefined);
   listener = null;
-  if (b) await b.stop({ graceful: true, wait: true, timeout: timeoutSeconds * 1000 });
+  if (!b) return;
+  const startedBefore = handlersStarted;
+  const busy = handlersRunning > 0;
+  await b.stop({ graceful: true, wait: true, timeout: timeoutSeconds * 1000 });
+  if (!busy && handlersStarted === startedBefore) return;
+  // pg-boss checks its workers once a second until each has left its loop; a job still running when
+  // the stop timed out keeps that check (and its timers) going after stop() resolves. Wait for our
+  // handlers, then one more check, so nothing of the job system runs after the caller moves on.
+  const until = Date.now() + timeoutSeconds * 1000;
+  while (handlersRunning > 0 && Date.now() < until) await new Promise((r) => setTimeout(r, 50));
+  await new Promise((r) => setTimeout(r, 1100));
 }
 
 export interface EnqueueOptions {
