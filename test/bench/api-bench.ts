@@ -5,10 +5,10 @@
  * Runs against a freshly migrated database of its own, seeded with the invented demo, and drops
  * it afterwards. Figures, not pass/fail: the budgets are printed beside them.
  */
-import type { AddressInfo } from 'node:net';
 import { performance } from 'node:perf_hooks';
 import { line, round, stats } from './support/figures';
 import { approveAndWait, startInProcessJobs, stopInProcessJobs } from './support/bench-jobs';
+import { startBenchApi } from './support/bench-api';
 
 process.env.LOG_LEVEL = 'silent';
 process.env.OUTBOX_WORKER = 'false';
@@ -58,20 +58,11 @@ async function main(): Promise<void> {
     });
     line({ bench: 'publish-library', lots: LIBRARY_LOTS, ms: round(performance.now() - t0), note: 'store, calibrate (leave-one-out) and freeze' });
 
-    const { createApp } = await import('../../apps/api/src/app');
-    const { signAccessToken } = await import('../../apps/api/src/modules/auth/access-token');
     const { demoFiles } = await import('../../docker-free-scripts/seed/lab-demo-files');
-    server = createApp().listen(0, '127.0.0.1');
-    await new Promise((r) => server!.once('listening', r));
-    const base = `http://127.0.0.1:${(server.address() as AddressInfo).port}/api`;
-    const analyst = { Authorization: `Bearer ${signAccessToken(ctx.analyst_id)}` };
-    const reviewer = { Authorization: `Bearer ${signAccessToken(ctx.reviewer_id)}` };
-    const call = async (method: string, path: string, auth: Record<string, string>, body?: unknown) => {
-      const res = await fetch(`${base}${path}`, { method, headers: { ...auth, ...(body ? { 'content-type': 'application/json' } : {}) }, body: body ? JSON.stringify(body) : undefined });
-      const json = await res.json();
-      if (!res.ok) throw new Error(`${method} ${path} answered ${res.status}: ${JSON.stringify(json)}`);
-      return json;
-    };
+    const api = await startBenchApi(ctx);
+    server = api.server;
+    const { base, analyst, reviewer } = api;
+    const call = async (method: string, path: string, auth: Record<string, string>, body?: unknown) => (await api.call(method, path, auth, body)).json;
     const bench = await call('GET', '/lab/bench', analyst);
     const files = demoFiles().filter((f) => f.sampleCode === 'OP-7K3M-Q9');
 

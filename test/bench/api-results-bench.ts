@@ -9,10 +9,10 @@
  * (test/bench/fixtures/large-library.ts). Runs against a freshly migrated database of its own,
  * seeded with the invented demo, and drops it afterwards. Figures, not pass/fail.
  */
-import type { AddressInfo } from 'node:net';
 import { performance } from 'node:perf_hooks';
 import { line, mb, round, stats } from './support/figures';
 import { approveAndWait, startInProcessJobs, stopInProcessJobs } from './support/bench-jobs';
+import { startBenchApi } from './support/bench-api';
 
 process.env.LOG_LEVEL = 'silent';
 process.env.OUTBOX_WORKER = 'false';
@@ -55,21 +55,11 @@ async function main(): Promise<void> {
     const { versionId } = await dataSource.transaction((m) => insertLargePublishedLibrary(m, { labId: ctx.lab_id, productId: ctx.product_id, lots: LOTS, publishedByUserId: ctx.admin_id }));
     line({ bench: 'results-build-library', lots: LOTS, ms: round(performance.now() - t0), note: 'bulk insert of invented lots, publish, band stored' });
 
-    const { createApp } = await import('../../apps/api/src/app');
-    const { signAccessToken } = await import('../../apps/api/src/modules/auth/access-token');
     const { demoFiles } = await import('../../docker-free-scripts/seed/lab-demo-files');
     const { libraryCacheBytes } = await import('../../apps/api/src/modules/libraries/published-library');
-    server = createApp().listen(0, '127.0.0.1');
-    await new Promise((r) => server!.once('listening', r));
-    const base = `http://127.0.0.1:${(server.address() as AddressInfo).port}/api`;
-    const analyst = { Authorization: `Bearer ${signAccessToken(ctx.analyst_id)}` };
-    const reviewer = { Authorization: `Bearer ${signAccessToken(ctx.reviewer_id)}` };
-    const call = async (method: string, path: string, auth: Record<string, string>, body?: unknown) => {
-      const res = await fetch(`${base}${path}`, { method, headers: { ...auth, ...(body ? { 'content-type': 'application/json' } : {}) }, body: body ? JSON.stringify(body) : undefined });
-      const text = await res.text();
-      if (!res.ok) throw new Error(`${method} ${path} answered ${res.status}: ${text.slice(0, 400)}`);
-      return { json: JSON.parse(text), bytes: Buffer.byteLength(text) };
-    };
+    const api = await startBenchApi(ctx);
+    server = api.server;
+    const { base, analyst, reviewer, call } = api;
     const bench = (await call('GET', '/lab/bench', analyst)).json;
     const files = demoFiles().filter((f) => f.sampleCode === CODE);
     // The demo sample the invented exports were made for, measured once; every analysis re-scores it.
