@@ -60,8 +60,17 @@ function query(page: Page): URLSearchParams {
 }
 
 /** A single-choice toggle group's button is a radio: checked is chosen. */
-async function pressed(toggle: Locator): Promise<boolean> {
-  return (await toggle.getAttribute('aria-checked')) === 'true';
+/**
+ * Whether the toggle shows as chosen once the page has caught up with its address: after Back the
+ * browser changes the URL first and the list renders from it a moment later.
+ */
+async function pressed(toggle: Locator, withinMs = 15_000): Promise<boolean> {
+  const until = Date.now() + withinMs;
+  for (;;) {
+    if ((await toggle.getAttribute('aria-checked')) === 'true') return true;
+    if (Date.now() > until) return false;
+    await new Promise((r) => setTimeout(r, 100));
+  }
 }
 
 async function look(page: Page, name: string, fullPage = false): Promise<void> {
