@@ -1,3 +1,4 @@
+import { tmpdir } from 'node:os';
 import { z } from 'zod';
 
 const REQUIRED_SECRET = 'is required (the local scripts export it from .data/secrets.env)';
@@ -59,6 +60,7 @@ const EnvSchema = z.object({
   CPU_WORKERS: z.coerce.number().int().min(1).max(64).optional(),
   /** Decoded published libraries kept in memory, in megabytes (estimated), least recently used out first. */
   LIBRARY_CACHE_MAX_MB: z.coerce.number().int().min(1).max(65536).default(192),
+  UPLOAD_TMP_DIR: z.string().min(1).optional(),
   /** A library version with more included lots than this is published by a worker (202 + status), not on the request. */
   LIBRARY_PUBLISH_JOB_LOTS: z.coerce.number().int().min(0).default(500),
   /** An analysis against a library version with more included lots than this runs on a worker (202 + status). */
@@ -139,6 +141,8 @@ export function buildConfig(env: Env) {
     },
     cpuWorkers: env.CPU_WORKERS,
     libraryCacheMaxBytes: env.LIBRARY_CACHE_MAX_MB * 1024 * 1024,
+    /** Where uploads stream to, each in a private folder removed after its answer (default: the OS temp folder). */
+    uploadTmpDir: env.UPLOAD_TMP_DIR ?? tmpdir(),
     jobs: { libraryPublishLots: env.LIBRARY_PUBLISH_JOB_LOTS, analysisLots: env.ANALYSIS_JOB_LOTS },
     shutdownTimeoutMs: env.SHUTDOWN_TIMEOUT_MS,
     dataDir: env.OHMPRINT_DATA_DIR,

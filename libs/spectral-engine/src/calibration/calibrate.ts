@@ -34,6 +34,7 @@ export function calibrate(library: readonly Spectrum[], options: CalibrationOpti
   const settings = checkedOptions(options);
   const nearestDistances: number[] = [];
   const nearestLots: number[] = [];
+  const onProgress = options.onProgress;
   if (library.length >= 2) {
     const index = createSpectrumIndex(library);
     library.forEach((lot, i) => {
@@ -42,7 +43,10 @@ export function calibrate(library: readonly Spectrum[], options: CalibrationOpti
       if (!other) throw new RangeError(`calibration: lot ${i + 1} has no other lot to compare with`);
       nearestDistances.push(other.distance);
       nearestLots.push(other.index);
+      onProgress?.(i + 1, library.length);
     });
+  } else {
+    onProgress?.(library.length, library.length);
   }
   const { bootstrapResamples, ...kept } = settings;
   const bootstrap = { resamples: bootstrapResamples, confidenceLevel: BOOTSTRAP_CONFIDENCE, seed: BOOTSTRAP_SEED };

@@ -22,6 +22,11 @@ export interface CalibrationOptions {
   readonly thresholdEstimator?: ThresholdEstimator;
   /** Bootstrap resamples behind the threshold intervals (default BOOTSTRAP_RESAMPLES). */
   readonly bootstrapResamples?: number;
+  /**
+   * Told how far the leave-one-out comparison is: after each lot (`lotsDone` of `lotCount`), and
+   * once more with `lotsDone === lotCount` before the thresholds are estimated. Not stored.
+   */
+  readonly onProgress?: (lotsDone: number, lotCount: number) => void;
 }
 
 /**

@@ -1,3 +1,7 @@
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { SAMPLE_CODE_PATTERN } from '@ohmprint/contracts';
 import { ApiError } from '../api-error';
 import { closeCpuPool, cpuWorkerCount, runCpuTask } from './cpu-pool';
 
@@ -11,19 +15,21 @@ describe('the CPU worker pool', () => {
     expect(await runCpuTask('verifyPassword', { password: 'wrong horse battery', hash })).toBe(false);
   });
 
-  it('parses exports in a worker, keeping each bad file’s line and column beside the good ones', async () => {
+  it('parses an export from its file in a worker, naming a bad file’s line and column', async () => {
     const good = "Frequency (Hz);Z' (Ω);Z'' (Ω)\n1000;120;-30\n100;150;-60\n10;200;-90\n1;260;-40\n0.1;300;-10\n";
     const bad = good.replace('10;200;-90', '10;200;abc');
-    const [a, b] = await runCpuTask('parseExports', {
-      files: [
-        { name: 'good.csv', bytes: new TextEncoder().encode(good) },
-        { name: 'bad.csv', bytes: new TextEncoder().encode(bad) },
-      ],
-      maxPoints: 100,
-      kkLimitPercent: 2,
-    });
-    expect(a.ok && Array.from(a.spectrum.frequencyHz)).toEqual([0.1, 1, 10, 100, 1000]);
-    expect(b).toMatchObject({ name: 'bad.csv', ok: false, line: 4, column: 8 });
+    const dir = mkdtempSync(join(tmpdir(), 'ohmprint-pool-spec-'));
+    try {
+      writeFileSync(join(dir, 'a'), good);
+      writeFileSync(join(dir, 'b'), '# Sample: OP-7K3M-Q9\n' + bad);
+      const options = { maxPoints: 100, kkLimitPercent: 2, codePattern: SAMPLE_CODE_PATTERN.source };
+      const a = await runCpuTask('parseExportFile', { file: { name: 'good.csv', path: join(dir, 'a') }, ...options });
+      const b = await runCpuTask('parseExportFile', { file: { name: 'bad.csv', path: join(dir, 'b') }, ...options });
+      expect(a).toMatchObject({ name: 'good.csv', ok: true, points: 5, literals: { frequencyHz: '{0.1,1,10,100,1000}' } });
+      expect(b).toMatchObject({ name: 'bad.csv', ok: false, line: 5, column: 8 });
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
 
   it('carries a refusal from a worker back as the same ApiError', async () => {

@@ -1,11 +1,12 @@
 import { availableParallelism } from 'node:os';
+import type { TransferListItem } from 'node:worker_threads';
 import { extname, join } from 'node:path';
 import { Piscina } from 'piscina';
 import { config } from '../../config';
 import { ApiError } from '../api-error';
 import type * as Tasks from './cpu-tasks';
 
-type TaskName = Exclude<keyof typeof Tasks, 'TaskRefusal' | 'ExportFile' | 'ParsedExport' | 'SpectrumLiterals' | 'transferredBytes'>;
+type TaskName = Exclude<keyof typeof Tasks, 'TaskRefusal' | 'ExportFile' | 'ParsedExport' | 'SpectrumLiterals' | 'transferredBytes' | 'CALIBRATION_PROGRESS_MS'>;
 type TaskInput<N extends TaskName> = Parameters<(typeof Tasks)[N]>[0];
 type TaskOutput<N extends TaskName> = Awaited<ReturnType<(typeof Tasks)[N]>>;
 
@@ -59,11 +60,15 @@ function thePool(): Piscina {
  * `queueLimit`: refuse at once (503 with Retry-After) when that many tasks already wait, rather
  * than queue without bound (sign-ins use it, so a flood cannot build a backlog of hashes).
  */
-export async function runCpuTask<N extends TaskName>(name: N, input: TaskInput<N>, options: { queueLimit?: number } = {}): Promise<Exclude<TaskOutput<N>, Tasks.TaskRefusal>> {
+export async function runCpuTask<N extends TaskName>(
+  name: N,
+  input: TaskInput<N>,
+  options: { queueLimit?: number; transferList?: TransferListItem[] } = {},
+): Promise<Exclude<TaskOutput<N>, Tasks.TaskRefusal>> {
   if (options.queueLimit !== undefined && thePool().queueSize >= options.queueLimit) {
     throw new ApiError(503, 'Busy', 'The server is checking many passwords at the moment; try again in a few seconds.', { type: 'busy', headers: { 'Retry-After': '2' } });
   }
-  const result = (await thePool().run(input, { name })) as TaskOutput<N>;
+  const result = (await thePool().run(input, { name, ...(options.transferList ? { transferList: options.transferList } : {}) })) as TaskOutput<N>;
   if (result && typeof result === 'object' && 'refused' in result) {
     const r = (result as Tasks.TaskRefusal).refused;
     throw new ApiError(r.status, r.title, r.detail, { type: r.type === 'about:blank' ? undefined : r.type });

@@ -7,7 +7,7 @@
  */
 import bcrypt from 'bcryptjs';
 import { move } from 'piscina';
-import type { calibrate, FitResult, ModelReference, Spectrum } from '@ohmprint/spectral-engine';
+import type { calibrate, ExportMetadata, FitResult, ModelReference, Spectrum } from '@ohmprint/spectral-engine';
 import type { KramersKronigSummary } from '@ohmprint/contracts';
 import type { ComputedAnalysis } from '../../modules/analyses/compute-analysis';
 import type { OtherLibrary } from '../../modules/analyses/does-not-belong';
@@ -47,11 +47,12 @@ export function verifyPassword(input: { password: string; hash: string }): boole
 
 export interface ExportFile {
   name: string;
-  bytes: Uint8Array;
+  /** The export as uploaded, in the upload's private temporary folder. */
+  path: string;
 }
 
 export type ParsedExport =
-  | { name: string; ok: true; spectrum: Spectrum; kramersKronig: KramersKronigSummary; literals: SpectrumLiterals }
+  | { name: string; ok: true; kramersKronig: KramersKronigSummary; literals: SpectrumLiterals; metadata: ExportMetadata; points: number }
   | { name: string; ok: false; line: number | null; column: number | null; message: string };
 
 /**
@@ -66,21 +67,28 @@ export interface SpectrumLiterals {
 }
 const arrayLiteral = (values: Float64Array): string => `{${Array.prototype.join.call(values, ',')}}`;
 
-/** Reads each instrument export and runs its Kramers–Kronig check; a bad file does not stop the others. */
-export async function parseExports(input: { files: ExportFile[]; maxPoints: number; kkLimitPercent: number }): Promise<ParsedExport[]> {
-  const { parseSpectrumFile, SpectrumImportError } = load<typeof import('./engine-entry')>('./engine-entry');
+/**
+ * Reads one instrument export from its temporary file, parses it, runs its Kramers–Kronig check
+ * and reads what the file says about itself (sample code, temperature; `codePattern` is the lab's
+ * sample-code format as RegExp source). The file's bytes and text never reach the event loop: only
+ * the column text and the small summaries go back. A bad file is an answer (line, column), not an error.
+ */
+export async function parseExportFile(input: { file: ExportFile; maxPoints: number; kkLimitPercent: number; codePattern: string }): Promise<ParsedExport> {
+  const { parseSpectrumFile, SpectrumImportError, readExportMetadata } = load<typeof import('./engine-entry')>('./engine-entry');
   const { kramersKronigCheck } = load<typeof import('../../modules/measurements/kramers-kronig-check')>('../../modules/measurements/kramers-kronig-check');
-  const decoder = new TextDecoder('utf-8');
-  return input.files.map((file): ParsedExport => {
-    try {
-      const spectrum = parseSpectrumFile(decoder.decode(file.bytes), { maxPoints: input.maxPoints });
-      const literals = { frequencyHz: arrayLiteral(spectrum.frequencyHz), re: arrayLiteral(spectrum.re), im: arrayLiteral(spectrum.im) };
-      return { name: file.name, ok: true, spectrum, kramersKronig: kramersKronigCheck(spectrum, input.kkLimitPercent), literals };
-    } catch (err) {
-      if (!(err instanceof SpectrumImportError)) throw err;
-      return { name: file.name, ok: false, line: err.line ?? null, column: err.column ?? null, message: err.message };
-    }
-  });
+  const { readFileSync } = load<typeof import('node:fs')>('node:fs');
+  const { file } = input;
+  let text: string | null = new TextDecoder('utf-8').decode(readFileSync(file.path));
+  try {
+    const spectrum = parseSpectrumFile(text, { maxPoints: input.maxPoints });
+    const metadata = readExportMetadata(file.name, text, { codePattern: new RegExp(input.codePattern) });
+    text = null;
+    const literals = { frequencyHz: arrayLiteral(spectrum.frequencyHz), re: arrayLiteral(spectrum.re), im: arrayLiteral(spectrum.im) };
+    return { name: file.name, ok: true, kramersKronig: kramersKronigCheck(spectrum, input.kkLimitPercent), literals, metadata, points: spectrum.frequencyHz.length };
+  } catch (err) {
+    if (!(err instanceof SpectrumImportError)) throw err;
+    return { name: file.name, ok: false, line: err.line ?? null, column: err.column ?? null, message: err.message };
+  }
 }
 
 export async function analyse(input: { replicates: Replicate[]; library: PackedLibrary; others?: (Omit<OtherLibrary, 'library'> & { library: PackedLibrary })[] }): Promise<ComputedAnalysis | TaskRefusal> {
@@ -98,9 +106,31 @@ export async function analyse(input: { replicates: Replicate[]; library: PackedL
   }
 }
 
-export async function calibrateLibrary(input: { args: Parameters<typeof calibrate> }): Promise<ReturnType<typeof calibrate>> {
+/** How often a calibration reports its progress on `progress` (and once when the comparison is done). */
+export const CALIBRATION_PROGRESS_MS = 200;
+
+/**
+ * Calibrates a library. With a `progress` port (transferred with the task), the number of lots
+ * compared so far is posted on it as `{ lotsDone, lotCount }` at most every CALIBRATION_PROGRESS_MS
+ * while the comparison runs, and once when it is complete; the port is closed at the end.
+ */
+export async function calibrateLibrary(input: { args: Parameters<typeof calibrate>; progress?: import('node:worker_threads').MessagePort }): Promise<ReturnType<typeof calibrate>> {
   const engine = load<typeof import('./engine-entry')>('./engine-entry');
-  return engine.calibrate(...input.args);
+  const [library, options] = input.args;
+  const port = input.progress;
+  if (!port) return engine.calibrate(library, options);
+  let last = 0;
+  const onProgress = (lotsDone: number, lotCount: number) => {
+    const now = Date.now();
+    if (lotsDone < lotCount && now - last < CALIBRATION_PROGRESS_MS) return;
+    last = now;
+    port.postMessage({ lotsDone, lotCount });
+  };
+  try {
+    return engine.calibrate(library, { ...options, onProgress });
+  } finally {
+    port.close();
+  }
 }
 
 /** Renders the report and signs it; the bytes come back as a Uint8Array (a transferable copy). */

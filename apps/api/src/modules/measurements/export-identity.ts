@@ -1,5 +1,5 @@
-import { readExportMetadata } from '@ohmprint/spectral-engine';
-import { SAMPLE_CODE_PATTERN, type DeclaredExport, type RejectedFile, type TemperatureSource, type UploadConfirmation } from '@ohmprint/contracts';
+import type { ExportMetadata } from '@ohmprint/spectral-engine';
+import { type DeclaredExport, type RejectedFile, type TemperatureSource, type UploadConfirmation } from '@ohmprint/contracts';
 
 /** The form's limits on a typed temperature apply to a file's too: outside them it is not a liquid on the bench. */
 const TEMPERATURE_RANGE_C = { min: -10, max: 90 } as const;
@@ -17,7 +17,8 @@ export type ExportCheck = { ok: true; value: AcceptedExport } | { ok: false; ref
 export interface ExportCheckInput {
   sampleCode: string;
   fileName: string;
-  text: string;
+  /** What the file says about itself (the engine's `readExportMetadata`, run in the worker with the lab's code pattern). */
+  metadata: ExportMetadata;
   /** The typed temperature, °C, if any. */
   enteredTemperatureC: number | undefined;
   /** The method's `temperatureMismatchLimitC`. */
@@ -34,8 +35,8 @@ const formatC = (c: number) => `${Number(c.toFixed(2))} °C`;
  * limit needs a reason too. A file that names no code is accepted as it is.
  */
 export function checkExportIdentity(input: ExportCheckInput): ExportCheck {
-  const { sampleCode, fileName, text } = input;
-  const read = readExportMetadata(fileName, text, { codePattern: SAMPLE_CODE_PATTERN });
+  const { sampleCode, fileName } = input;
+  const read = input.metadata;
   const confirmation = (about: UploadConfirmation['about']) => input.confirmations.find((c) => c.fileName === fileName && c.about === about);
   const refuse = (problem: RejectedFile['problem'], message: string, extra: Partial<RejectedFile> = {}): ExportCheck => ({
     ok: false,

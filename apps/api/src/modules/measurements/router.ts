@@ -1,5 +1,4 @@
 import { Router } from 'express';
-import multer from 'multer';
 import { z } from 'zod';
 import {
   BenchEquipmentSchema,
@@ -24,6 +23,7 @@ import { requireMeasurementUploader } from '../instrument-keys/measurement-uploa
 import { LAB_STAFF } from '../samples/lab-roles';
 import { keyedConcurrencyLimit } from '../../core/concurrency-limit';
 import { multerLimits, multipart } from '../samples/multipart-problem';
+import { uploadToTempFiles } from '../samples/temp-upload-dir';
 import { benchEquipment, recordCellCalibration } from './bench-equipment';
 import { Replicate } from './replicate.entity';
 import { excludeReplicate, replicateSpectrum, sampleMeasurements } from './sample-measurements';
@@ -40,7 +40,8 @@ const UploadBodySchema = z.object({
 /** Bench equipment, measurement uploads and replicates (mounted at /lab). */
 export function measurementsRouter(): Router {
   const router = Router();
-  const upload = multipart(multer({ storage: multer.memoryStorage(), limits: multerLimits(MEASUREMENT_LIMITS) }).array('files'), MEASUREMENT_LIMITS);
+  // Files stream to a private temporary folder (removed when the answer is sent) and are parsed from there in the worker pool.
+  const upload = multipart(uploadToTempFiles({ limits: multerLimits(MEASUREMENT_LIMITS) }, (m) => m.array('files')), MEASUREMENT_LIMITS);
   // Two uploads of one lab at a time in this process: a third waits for its turn (429, Retry-After) before its files are read.
   const uploadsPerLab = keyedConcurrencyLimit(CONCURRENT_UPLOADS_PER_LAB, 'measurement uploads of one lab', (res) => String(res.locals.uploaderLabId));
   const analyst = requireRole('analyst');
@@ -73,9 +74,7 @@ export function measurementsRouter(): Router {
   });
   router.post('/samples/:id/measurements', requireMeasurementUploader, validate({ params: UploadParamsSchema }), uploadsPerLab, upload, validate({ body: MeasurementUploadFieldsSchema }), async (req, res) => {
     const files = (req.files as Express.Multer.File[] | undefined) ?? [];
-    const result = await dataSource.transaction((m) =>
-      uploadMeasurements(m, res.locals.uploader, res.locals.uploaderLabId, (res.locals.params as { id: string }).id, res.locals.body as MeasurementUploadFields, files),
-    );
+    const result = await uploadMeasurements(res.locals.uploader, res.locals.uploaderLabId, (res.locals.params as { id: string }).id, res.locals.body as MeasurementUploadFields, files);
     res.status(201).json(result);
   });
 

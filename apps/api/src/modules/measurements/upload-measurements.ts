@@ -1,9 +1,10 @@
+import { readFile } from 'node:fs/promises';
 import type { EntityManager } from 'typeorm';
-import type { Spectrum } from '@ohmprint/spectral-engine';
-import { fieldInWords, type KramersKronigSummary, type MeasurementUploadFields, type MeasurementUploadResult, type RejectedFile, type SampleState } from '@ohmprint/contracts';
+import { fieldInWords, SAMPLE_CODE_PATTERN, type KramersKronigSummary, type MeasurementUploadFields, type MeasurementUploadResult, type RejectedFile, type SampleState } from '@ohmprint/contracts';
 import { runCpuTask } from '../../core/cpu-pool/cpu-pool';
-import type { SpectrumLiterals } from '../../core/cpu-pool/cpu-tasks';
+import type { ParsedExport, SpectrumLiterals } from '../../core/cpu-pool/cpu-tasks';
 import { ApiError } from '../../core/api-error';
+import { dataSource } from '../../db/data-source';
 import { recordAudit } from '../audit/record-audit';
 import { DEFAULT_METHOD } from '../libraries/default-method';
 import { labMethod } from '../libraries/lab-method';
@@ -22,9 +23,11 @@ import { requireCellInControl } from '../validation/cell-control';
 /** Who is posting: a signed-in analyst, or a bench computer holding an instrument key. */
 export type Uploader = { kind: 'user'; userId: string } | { kind: 'instrument-key'; keyId: string };
 
+/** One instrument export as multer left it in the upload's private temporary folder. */
 export interface UploadedExport {
   originalname: string;
-  buffer: Buffer;
+  path: string;
+  size: number;
 }
 
 /**
@@ -40,10 +43,10 @@ export const CONCURRENT_UPLOADS_PER_LAB = 2;
 const MEASURABLE: readonly SampleState[] = ['accepted', 'measuring', 'analysed', 'returned-for-rework', 'reported'];
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
-/** A sample named by id (the portal) or by its printed code (a bench computer). */
-async function sampleByReference(manager: EntityManager, labId: string, reference: string): Promise<Sample> {
-  if (UUID.test(reference)) return findLabSample(manager, labId, reference, true);
-  const found = await manager.findOne(Sample, { where: { labId, code: reference.trim().toUpperCase() }, lock: { mode: 'pessimistic_write' } });
+/** A sample named by id (the portal) or by its printed code (a bench computer); `lock` inside a transaction. */
+async function sampleByReference(manager: EntityManager, labId: string, reference: string, lock: boolean): Promise<Sample> {
+  if (UUID.test(reference)) return findLabSample(manager, labId, reference, lock);
+  const found = await manager.findOne(Sample, { where: { labId, code: reference.trim().toUpperCase() }, ...(lock ? { lock: { mode: 'pessimistic_write' as const } } : {}) });
   if (!found) throw ApiError.notFound(`Sample ${reference}`);
   return found;
 }
@@ -79,22 +82,9 @@ function nothingSaved(rejected: RejectedFile[]): ApiError {
   });
 }
 
-/**
- * Saves one replicate per readable file whose identity and temperature check out; each other file
- * is reported under its own name (the engine's line and column for an unreadable one; the code
- * and line for one naming another sample; the temperatures for a mismatch) and does not stop the
- * others. The sample moves to `measuring`. Nothing is saved when no file is accepted.
- */
-export async function uploadMeasurements(
-  manager: EntityManager,
-  uploader: Uploader,
-  labId: string,
-  sampleReference: string,
-  fields: MeasurementUploadFields,
-  files: UploadedExport[],
-): Promise<MeasurementUploadResult> {
-  if (!files.length) throw ApiError.badRequest('Send one instrument export per replicate in the "files" field.', [{ field: 'files', message: 'is required' }]);
-  const sample = await sampleByReference(manager, labId, sampleReference);
+/** Everything an upload is checked against: the sample (locked inside a transaction), its bench and the lab's method. */
+async function uploadTarget(manager: EntityManager, labId: string, sampleReference: string, fields: MeasurementUploadFields, lock: boolean) {
+  const sample = await sampleByReference(manager, labId, sampleReference, lock);
   requireSampleState(sample, MEASURABLE, 'uploading measurements');
   await requireRevokedIfReported(manager, sample, 'uploading measurements');
   const [instrument, cell] = await Promise.all([
@@ -109,15 +99,59 @@ export async function uploadMeasurements(
   await requireCellInControl(manager, labId, fields.cellId, sample.code);
   const { k, calibrationId } = await cellConstantFor(manager, labId, fields);
   const method = await labMethod(manager, labId);
+  return { sample, k, calibrationId, method };
+}
 
-  // Parsing and the Kramers–Kronig check run in a worker thread; each bad file is reported alone.
-  const results = await runCpuTask('parseExports', {
-    files: files.map((f) => ({ name: f.originalname, bytes: new Uint8Array(f.buffer.buffer, f.buffer.byteOffset, f.buffer.byteLength) })),
-    maxPoints: MEASUREMENT_LIMITS.pointsPerFile,
-    kkLimitPercent: method.kkResidualLimitPercent,
-  });
+/**
+ * Each export parsed in the worker pool straight from its temporary file, one file per task, so
+ * other work (a sign-in's hash, a report) takes its turn between two files of a large upload.
+ */
+async function parseUploadedExports(files: UploadedExport[], kkLimitPercent: number): Promise<ParsedExport[]> {
+  const results: ParsedExport[] = [];
+  for (const f of files) {
+    results.push(
+      await runCpuTask('parseExportFile', {
+        file: { name: f.originalname, path: f.path },
+        maxPoints: MEASUREMENT_LIMITS.pointsPerFile,
+        kkLimitPercent,
+        codePattern: SAMPLE_CODE_PATTERN.source,
+      }),
+    );
+  }
+  return results;
+}
+
+/**
+ * Saves one replicate per readable file whose identity and temperature check out; each other file
+ * is reported under its own name (the engine's line and column for an unreadable one; the code
+ * and line for one naming another sample; the temperatures for a mismatch) and does not stop the
+ * others. The sample moves to `measuring`. Nothing is saved when no file is accepted.
+ *
+ * No database connection waits on the parsing: the sample and bench are checked first (read only,
+ * so a wrong request is refused before any file is read), the files are parsed in the worker pool,
+ * then one short transaction locks the sample, checks again and stores the replicates — each
+ * file's bytes read from its temporary file just before its own row is written, so at most one
+ * file is in memory at a time.
+ */
+export async function uploadMeasurements(uploader: Uploader, labId: string, sampleReference: string, fields: MeasurementUploadFields, files: UploadedExport[]): Promise<MeasurementUploadResult> {
+  if (!files.length) throw ApiError.badRequest('Send one instrument export per replicate in the "files" field.', [{ field: 'files', message: 'is required' }]);
+  const before = await uploadTarget(dataSource.manager, labId, sampleReference, fields, false);
+  const results = await parseUploadedExports(files, before.method.kkResidualLimitPercent);
+  return dataSource.transaction((manager) => storeUpload(manager, uploader, labId, sampleReference, fields, files, results));
+}
+
+async function storeUpload(
+  manager: EntityManager,
+  uploader: Uploader,
+  labId: string,
+  sampleReference: string,
+  fields: MeasurementUploadFields,
+  files: UploadedExport[],
+  results: ParsedExport[],
+): Promise<MeasurementUploadResult> {
+  const { sample, k, calibrationId, method } = await uploadTarget(manager, labId, sampleReference, fields, true);
   const rejected: RejectedFile[] = [];
-  const parsed: { file: UploadedExport; spectrum: Spectrum; kramersKronig: KramersKronigSummary; literals: SpectrumLiterals; identity: AcceptedExport }[] = [];
+  const parsed: { file: UploadedExport; kramersKronig: KramersKronigSummary; literals: SpectrumLiterals; identity: AcceptedExport }[] = [];
   const confirmations = fields.confirmations ?? [];
   results.forEach((result, i) => {
     if (!result.ok) {
@@ -127,12 +161,12 @@ export async function uploadMeasurements(
     const checked = checkExportIdentity({
       sampleCode: sample.code,
       fileName: files[i].originalname,
-      text: files[i].buffer.toString('utf8'),
+      metadata: result.metadata,
       enteredTemperatureC: fields.temperatureC,
       mismatchLimitC: method.temperatureMismatchLimitC ?? DEFAULT_METHOD.temperatureMismatchLimitC,
       confirmations,
     });
-    if (checked.ok) parsed.push({ file: files[i], spectrum: result.spectrum, kramersKronig: result.kramersKronig, literals: result.literals, identity: checked.value });
+    if (checked.ok) parsed.push({ file: files[i], kramersKronig: result.kramersKronig, literals: result.literals, identity: checked.value });
     else rejected.push(checked.refusal);
   });
   if (!parsed.length) throw nothingSaved(rejected);
@@ -146,7 +180,6 @@ export async function uploadMeasurements(
     sampleId: sample.id,
     replicateNumber: Number(max) + i + 1,
     fileName: file.originalname,
-    rawFile: file.buffer,
     frequencyHz: asColumn(literals.frequencyHz),
     re: asColumn(literals.re),
     im: asColumn(literals.im),
@@ -164,13 +197,17 @@ export async function uploadMeasurements(
     instrumentKeyId: uploader.kind === 'instrument-key' ? uploader.keyId : null,
     uploadedAt: now,
   }));
-  const inserted = await manager.insert(Replicate, rows);
+  const ids: string[] = [];
+  for (const [i, row] of rows.entries()) {
+    // One file's bytes in memory at a time, read back from the upload's temporary file.
+    const inserted = await manager.insert(Replicate, { ...row, rawFile: await readFile(parsed[i].file.path) });
+    ids.push(inserted.identifiers[0].id as string);
+  }
   if (sample.state !== 'measuring') {
     const wasReported = sample.state === 'reported';
     await moveSample(manager, sample, 'measuring');
     if (wasReported) await refreshOrderStatus(manager, labId, sample.orderId);
   }
-  const ids = inserted.identifiers.map((x) => x.id as string);
   const actorUserId = uploader.kind === 'user' ? uploader.userId : null;
   for (const [i, { file, identity }] of parsed.entries()) {
     for (const c of identity.confirmed) {

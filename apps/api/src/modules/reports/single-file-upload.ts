@@ -9,12 +9,13 @@ export function sizeInWords(bytes: number): string {
 }
 
 /**
- * Multipart upload of one file held in memory (it is hashed or parsed, never written to disk),
- * with multer's errors turned into problems that name the field and the limit.
+ * Multipart upload of one file, held in memory (small files: a logo, a PKCS#12 file) unless a
+ * `storage` engine takes it as it streams (the public PDF check only hashes it), with multer's
+ * errors turned into problems that name the field and the limit.
  */
-export function singleFileUpload(field: string, maxBytes: number, what: string) {
+export function singleFileUpload(field: string, maxBytes: number, what: string, storage: multer.StorageEngine = multer.memoryStorage()) {
   const limits = { fileSizeBytes: maxBytes, files: 1 };
-  const upload = multer({ storage: multer.memoryStorage(), limits: multerLimits(limits) }).single(field);
+  const upload = multer({ storage, limits: multerLimits(limits) }).single(field);
   return (req: Request, res: Response, next: NextFunction): void => {
     upload(req, res, (err: unknown) => {
       if (err instanceof multer.MulterError) {

@@ -12,11 +12,12 @@ import { PostgresRateStore } from '../../core/postgres-rate-store';
 import { dataSource } from '../../db/data-source';
 import { registerRoute } from '../../openapi/registry';
 import { singleFileUpload } from '../reports/single-file-upload';
+import { pdfDigestStorage, type PdfDigest } from './pdf-digest-storage';
 import { verifyByCode, verifyUpload } from './verify-report';
 
 const tag = 'Public verification';
 export const MAX_UPLOAD_BYTES = 20 * 1024 * 1024;
-/** Anonymous PDF checks handled at once per API process (each may hold up to 20 MB). */
+/** Anonymous PDF checks handled at once per API process (each is hashed as it streams in). */
 export const MAX_CONCURRENT_UPLOADS = 4;
 
 export interface VerificationRouterOptions {
@@ -48,12 +49,13 @@ export function verificationRouter({ limit = 30, windowMs = 60_000 }: Verificati
   });
 
   registerRoute({ method: 'post', path: '/public/verify/upload', tag, summary: 'Check an uploaded PDF (field "file", ≤ 20 MB) against the issued reports by SHA-256', roles: [], body: VerifyUploadFieldsSchema, requestMediaType: 'multipart/form-data', response: VerificationResultSchema });
-  router.post('/upload', concurrencyLimit(MAX_CONCURRENT_UPLOADS, 'uploaded PDF checks'), singleFileUpload('file', MAX_UPLOAD_BYTES, 'PDF'), validate({ body: VerifyUploadFieldsSchema }), async (req, res) => {
-    const pdf = req.file!.buffer;
-    if (pdf.subarray(0, 5).toString('latin1') !== '%PDF-') {
+  router.post('/upload', concurrencyLimit(MAX_CONCURRENT_UPLOADS, 'uploaded PDF checks'), singleFileUpload('file', MAX_UPLOAD_BYTES, 'PDF', pdfDigestStorage()), validate({ body: VerifyUploadFieldsSchema }), async (req, res) => {
+    // Hashed as it arrived; the file itself was never held (see pdfDigestStorage).
+    const digest = (req.file as Express.Multer.File & { digest: PdfDigest }).digest;
+    if (!digest.startsLikePdf) {
       throw ApiError.badRequest('The uploaded file is not a PDF (it does not start with "%PDF-").', [{ field: 'file', message: 'must be a PDF' }]);
     }
-    res.set('Cache-Control', 'no-store').json(await verifyUpload(dataSource.manager, pdf, res.locals.body as { report?: string; code?: string }));
+    res.set('Cache-Control', 'no-store').json(await verifyUpload(dataSource.manager, digest, res.locals.body as { report?: string; code?: string }));
   });
 
   return router;

@@ -1,4 +1,4 @@
-import { createHash } from 'node:crypto';
+import type { PdfDigest } from './pdf-digest-storage';
 import type { EntityManager } from 'typeorm';
 import type { VerificationResult } from '@ohmprint/contracts';
 import { TestReport } from '../reports/test-report.entity';
@@ -65,19 +65,13 @@ export async function verifyByCode(manager: EntityManager, number: string, code:
   return report ? describe(manager, report, null) : NOT_FOUND;
 }
 
-/** The report number an Ohmprint-signed PDF names in its signature's reason, read from the file itself. */
-export function claimedNumber(pdf: Buffer): string | null {
-  const match = pdf.toString('latin1').match(/\/Reason\s*\(Test report ([A-Z0-9-]{8,40})\)/);
-  return match ? match[1] : null;
-}
 
 /**
  * Checks an uploaded file: byte-identical to an issued report (by SHA-256), or not. With the
  * number and code as well, a file that differs is named as not being the report issued under them.
  */
-export async function verifyUpload(manager: EntityManager, pdf: Buffer, claimed: { report?: string; code?: string }): Promise<VerificationResult> {
-  const sha256 = createHash('sha256').update(pdf).digest('hex');
-  const fromFile = claimedNumber(pdf);
+export async function verifyUpload(manager: EntityManager, digest: Pick<PdfDigest, 'sha256' | 'claimedNumber'>, claimed: { report?: string; code?: string }): Promise<VerificationResult> {
+  const { sha256, claimedNumber: fromFile } = digest;
   const exact = await manager.findOneBy(TestReport, { sha256 });
   if (exact) return describe(manager, exact, { sha256, identical: true, claimedNumber: fromFile });
   const file = { sha256, identical: false, claimedNumber: fromFile };

@@ -4,6 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import request from 'supertest';
 import type { EntityManager } from 'typeorm';
+import { runCpuTask } from '../../../core/cpu-pool/cpu-pool';
 import { useTestApp } from '../../../testing';
 import { demoReportContent } from '../pdf/demo-report-content';
 import { issueReport } from '../issue-report';
@@ -50,6 +51,23 @@ describe('the signing credential routes', () => {
     expect(Buffer.compare(row.sealed_p12, p12)).not.toBe(0);
     const [audit] = await t.db.query(`SELECT action FROM audit_event WHERE subject_id = $1`, [res.body.credential.id]);
     expect(audit.action).toBe('signing-credential.uploaded');
+  });
+
+  it('holds no database transaction while the file’s keys are derived (the worker pool first, then a short transaction)', async () => {
+    // Keep the pool busy so the derivation waits its turn; meanwhile look for open transactions.
+    const busy = Promise.all(Array.from({ length: 6 }, () => runCpuTask('hashPassword', { password: 'keep the pool busy', cost: 11 })));
+    let poolDone = false;
+    void busy.finally(() => (poolDone = true));
+    const answer = post(p12, 'uploaded passphrase').then((r) => r);
+    const idleInTransaction: number[] = [];
+    while (!poolDone) {
+      const [{ n }] = await t.db.query(`SELECT count(*)::int AS n FROM pg_stat_activity WHERE datname = current_database() AND state = 'idle in transaction' AND pid <> pg_backend_pid()`);
+      idleInTransaction.push(n);
+      await new Promise((r) => setTimeout(r, 20));
+    }
+    expect(idleInTransaction.length).toBeGreaterThan(5);
+    expect(Math.max(...idleInTransaction)).toBe(0);
+    expect((await answer).status).toBe(201);
   });
 
   it('signs the next report with the uploaded credential', async () => {

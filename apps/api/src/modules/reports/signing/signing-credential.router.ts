@@ -5,7 +5,7 @@ import { dataSource } from '../../../db/data-source';
 import { registerRoute } from '../../../openapi/registry';
 import { requireRole } from '../../auth/require-auth';
 import { singleFileUpload } from '../single-file-upload';
-import { currentCredential, describeCredential, uploadCredential } from './signing-credentials';
+import { currentCredential, describeCredential, openUploadedCredential, uploadCredential } from './signing-credentials';
 
 const tag = 'Reports';
 
@@ -24,9 +24,10 @@ export function signingCredentialRouter(): Router {
   router.post('/', requireRole('lab-admin'), singleFileUpload('file', 1024 * 1024, 'PKCS#12 file'), validate({ body: UploadSigningCredentialFieldsSchema }), async (req, res) => {
     const auth = res.locals.auth;
     const { passphrase } = res.locals.body as { passphrase: string };
-    const stored = await dataSource.transaction((manager) =>
-      uploadCredential(manager, { labId: labIdOf(auth), actorUserId: auth.userId, p12: req.file!.buffer, passphrase }),
-    );
+    const p12 = req.file!.buffer;
+    // Keys derived in the worker pool first; only then the short transaction that stores the credential.
+    const details = await openUploadedCredential(p12, passphrase);
+    const stored = await dataSource.transaction((manager) => uploadCredential(manager, { labId: labIdOf(auth), actorUserId: auth.userId, p12, passphrase, details }));
     res.status(201).json({ credential: describeCredential(stored) } satisfies SigningCredentialState);
   });
 

@@ -96,11 +96,14 @@ export async function credentialForSigning(manager: EntityManager, lab: { id: st
   return open(credential);
 }
 
-/** Replaces the lab's credential with an uploaded PKCS#12 file, after checking it opens and is in date. */
-export async function uploadCredential(manager: EntityManager, input: { labId: string; actorUserId: string; p12: Buffer; passphrase: string }): Promise<SigningCredential> {
-  let details: CredentialDetails;
+/**
+ * Opens an uploaded PKCS#12 file in the worker pool (key derivation is slow by design) and checks
+ * it is in date, before any database work: a wrong passphrase or a bad file is a 400 naming the
+ * field, and no connection waits on the derivation.
+ */
+export async function openUploadedCredential(p12: Buffer, passphrase: string): Promise<CredentialDetails> {
   try {
-    details = await readCredentialOffThread(input.p12, input.passphrase);
+    return await readCredentialOffThread(p12, passphrase);
   } catch (error) {
     if (error instanceof CredentialError) {
       const field = /passphrase/.test(error.message) ? 'passphrase' : 'file';
@@ -108,6 +111,15 @@ export async function uploadCredential(manager: EntityManager, input: { labId: s
     }
     throw error;
   }
+}
+
+/**
+ * Replaces the lab's credential with an uploaded PKCS#12 file, opened and checked first
+ * (`openUploadedCredential`, outside any transaction); the transaction only retires the old
+ * credential and stores the new one.
+ */
+export async function uploadCredential(manager: EntityManager, input: { labId: string; actorUserId: string; p12: Buffer; passphrase: string; details: CredentialDetails }): Promise<SigningCredential> {
+  const { details } = input;
   const previous = await currentCredential(manager, input.labId);
   if (previous) await manager.update(SigningCredential, { id: previous.id }, { retiredAt: new Date() });
   const stored = await store(manager, input.labId, 'uploaded', input.p12, input.passphrase, input.actorUserId, details);

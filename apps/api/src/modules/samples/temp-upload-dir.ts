@@ -1,0 +1,37 @@
+import { randomUUID } from 'node:crypto';
+import { mkdtemp, rm } from 'node:fs/promises';
+import { join } from 'node:path';
+import type { NextFunction, Request, RequestHandler, Response } from 'express';
+import multer from 'multer';
+import { config } from '../../config';
+
+/** Prefix of every upload's private temporary folder (in `UPLOAD_TMP_DIR`, by default the OS temp folder). */
+export const UPLOAD_DIR_PREFIX = 'ohmprint-upload-';
+
+/**
+ * Multer with its files written to a private temporary folder instead of memory, so an upload of
+ * many megabytes costs the API a few buffers of the stream, not the whole body. Each request gets
+ * its own folder (`mkdtemp`, readable by this user only) and random file names; the folder and
+ * everything in it is removed when the response ends, whatever happened — answered, refused by a
+ * limit, failed, or the client gone mid-stream. `select` picks the fields, e.g.
+ * `(m) => m.array('files')`; the files arrive with `path` and `size` (no `buffer`).
+ */
+export function uploadToTempFiles(options: Omit<multer.Options, 'storage' | 'dest'>, select: (m: multer.Multer) => RequestHandler): RequestHandler {
+  return (req: Request, res: Response, next: NextFunction) => {
+    void mkdtemp(join(config.uploadTmpDir, UPLOAD_DIR_PREFIX)).then(
+      (dir) => {
+        // Removed twice on purpose: when the response closes (answered or cut off), and when the
+        // parser stops, in case a file was still being opened when the first removal ran.
+        const removeDir = () => void rm(dir, { recursive: true, force: true, maxRetries: 3 }).catch(() => undefined);
+        res.once('close', removeDir);
+        const storage = multer.diskStorage({ destination: dir, filename: (_r, _f, cb) => cb(null, randomUUID()) });
+        select(multer({ ...options, storage }))(req, res, (err?: unknown) => {
+          // Already answered or the client gone (the request itself is always finished by now).
+          if (res.writableEnded || res.destroyed) removeDir();
+          next(err);
+        });
+      },
+      (err: unknown) => next(err),
+    );
+  };
+}
