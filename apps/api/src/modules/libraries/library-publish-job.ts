@@ -1,5 +1,5 @@
 import type { EntityManager } from 'typeorm';
-import type { LibraryPublication } from '@ohmprint/contracts';
+import type { LibraryPublication, LibraryPublicationProgress, LibraryPublicationStage } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
 import { enqueue, latestJob } from '../../core/jobs/jobs';
 import { config } from '../../config';
@@ -41,6 +41,8 @@ export async function requestPublication(labId: string, versionId: string, userI
     }
     const current = await publicationState(manager, labId, version, lotCount);
     if (current.state !== 'queued' && current.state !== 'running') {
+      // A new attempt starts from nothing: an earlier attempt's figure is not shown for it.
+      await manager.query(`DELETE FROM library_publication_progress WHERE library_version_id = $1 AND lab_id = $2`, [versionId, labId]);
       await enqueue(manager, 'library-publish', { labId, versionId, userId } satisfies LibraryPublishPayload, { singletonKey: versionId });
     }
     return { queued: true, publication: { ...current, state: current.state === 'running' ? 'running' : 'queued', detail: null } };
@@ -55,18 +57,66 @@ export async function requestPublication(labId: string, versionId: string, userI
  */
 export async function publishLibraryVersion(payload: LibraryPublishPayload): Promise<{ published: boolean; refused?: string }> {
   const { labId, versionId, userId } = payload;
+  const progress = publicationProgressWriter(labId, versionId);
   try {
     return await dataSource.transaction(async (manager) => {
       const version = await manager.findOne(LibraryVersion, { where: { id: versionId, labId }, lock: { mode: 'pessimistic_write' } });
       if (!version) return { published: false, refused: 'The version no longer exists.' };
       if (version.status !== 'draft') return { published: false };
-      await publishVersion(manager, labId, versionId, userId);
+      await publishVersion(manager, labId, versionId, userId, progress.lots, () => progress.stage('storing'));
       return { published: true };
     });
   } catch (err) {
     if (err instanceof ApiError && err.status === 409) return { published: false, refused: err.detail ?? err.message };
     throw err;
+  } finally {
+    await progress.finished();
   }
+}
+
+/** How often a running publication writes how far it is (the library screen polls about as often). */
+export const PROGRESS_WRITE_MS = 500;
+
+/**
+ * Writes a publication's progress through the pool, not the job's transaction (which holds the
+ * version's lock until the end, so nothing it writes is seen before then): the lots compared at
+ * most every PROGRESS_WRITE_MS, each stage change at once, one write at a time. The job never
+ * waits for a write until it has ended (the table has no key on the locked version row either).
+ */
+function publicationProgressWriter(labId: string, versionId: string) {
+  let writing: Promise<void> = Promise.resolve();
+  let pending: { stage: LibraryPublicationStage; lotsDone: number; lotCount: number } | null = null;
+  let last = { stage: '' as string, at: 0, lotCount: 0 };
+  const write = (next: { stage: LibraryPublicationStage; lotsDone: number; lotCount: number }, force: boolean): Promise<void> => {
+    const now = Date.now();
+    if (!force && next.stage === last.stage && now - last.at < PROGRESS_WRITE_MS) return writing;
+    last = { stage: next.stage, at: now, lotCount: next.lotCount };
+    // Only the newest figure waits while a write is under way.
+    const queued = pending === null;
+    pending = next;
+    if (!queued) return writing;
+    writing = writing.then(async () => {
+      const row = pending!;
+      pending = null;
+      await dataSource
+        .query(
+          `INSERT INTO library_publication_progress (library_version_id, lab_id, stage, lots_done, lot_count, updated_at) VALUES ($1, $2, $3, $4, $5, now())
+           ON CONFLICT (library_version_id) DO UPDATE SET stage = EXCLUDED.stage, lots_done = EXCLUDED.lots_done, lot_count = EXCLUDED.lot_count, updated_at = now()`,
+          [versionId, labId, row.stage, row.lotsDone, row.lotCount],
+        )
+        .catch(() => undefined); // progress is a courtesy: never fail the publication for it
+    });
+    return writing;
+  };
+  return {
+    lots: (lotsDone: number, lotCount: number) => {
+      const done = lotsDone >= lotCount;
+      void write({ stage: done ? 'estimating-thresholds' : 'comparing-lots', lotsDone, lotCount }, done || last.stage === '');
+    },
+    stage: (stage: LibraryPublicationStage) => void write({ stage, lotsDone: last.lotCount, lotCount: last.lotCount }, true),
+    /** After the job: the last write done. The row stays until the next press (a finished job's state speaks from here). */
+    finished: () => writing,
+  };
 }
 
 async function publicationState(manager: EntityManager, labId: string, version: LibraryVersion, lotCount: number): Promise<LibraryPublication> {
@@ -79,8 +129,10 @@ async function publicationState(manager: EntityManager, labId: string, version: 
     case 'created':
     case 'retry':
       return { ...base, state: 'queued', detail: null };
-    case 'active':
-      return { ...base, state: 'running', detail: null };
+    case 'active': {
+      const progress = await publicationProgress(manager, labId, version.id);
+      return { ...base, state: 'running', detail: null, ...(progress ? { progress } : {}) };
+    }
     case 'completed':
       return output.refused ? { ...base, state: 'failed', detail: output.refused } : { ...base, state: 'draft', detail: null };
     default:
@@ -90,6 +142,14 @@ async function publicationState(manager: EntityManager, labId: string, version: 
         detail: `Publishing stopped after several attempts${output.message ? `: ${String(output.message).slice(0, 300)}` : ''}. Press publish to try again.`,
       };
   }
+}
+
+async function publicationProgress(manager: EntityManager, labId: string, versionId: string): Promise<LibraryPublicationProgress | null> {
+  const [row]: Array<{ stage: LibraryPublicationStage; lots_done: number; lot_count: number; updated_at: Date }> = await manager.query(
+    `SELECT stage, lots_done, lot_count, updated_at FROM library_publication_progress WHERE library_version_id = $1 AND lab_id = $2`,
+    [versionId, labId],
+  );
+  return row ? { stage: row.stage, lotsDone: row.lots_done, lotCount: row.lot_count, updatedAt: row.updated_at.toISOString() } : null;
 }
 
 /** Where a version's publication is (the library screen polls this while it waits). */

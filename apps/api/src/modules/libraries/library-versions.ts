@@ -1,5 +1,6 @@
+import { MessageChannel } from 'node:worker_threads';
 import type { EntityManager } from 'typeorm';
-import { ENGINE_VERSION, relativeWidth, type Calibration, type Spectrum } from '@ohmprint/spectral-engine';
+import { ENGINE_VERSION, relativeWidth, type calibrate, type Calibration, type Spectrum } from '@ohmprint/spectral-engine';
 import type { Chemistry, LotQuality, MethodSettings } from '@ohmprint/contracts';
 import { runCpuTask } from '../../core/cpu-pool/cpu-pool';
 import { ApiError } from '../../core/api-error';
@@ -73,8 +74,26 @@ export async function createDraftVersion(
   return versionId;
 }
 
+/** Lots compared so far by a running calibration (each lot against every other, leave-one-out). */
+export type CalibrationProgress = (lotsDone: number, lotCount: number) => void;
+
+/**
+ * `calibrate` in the worker pool; with `onProgress`, told on this thread how many lots are compared
+ * while it runs (a message port handed to the worker with the task).
+ */
+export async function calibrateInPool(args: Parameters<typeof calibrate>, onProgress?: CalibrationProgress): Promise<Calibration> {
+  if (!onProgress) return runCpuTask('calibrateLibrary', { args });
+  const { port1, port2 } = new MessageChannel();
+  port1.on('message', (m: { lotsDone: number; lotCount: number }) => onProgress(m.lotsDone, m.lotCount));
+  try {
+    return await runCpuTask('calibrateLibrary', { args, progress: port2 }, { transferList: [port2] });
+  } finally {
+    port1.close();
+  }
+}
+
 /** The engine's calibration of a version's included lots (in the stored order, the order analyses read them in). */
-export async function calibrateVersion(manager: EntityManager, labId: string, version: LibraryVersion): Promise<Calibration> {
+export async function calibrateVersion(manager: EntityManager, labId: string, version: LibraryVersion, onProgress?: CalibrationProgress): Promise<Calibration> {
   const rows: { spectrum: Buffer }[] = await manager.query(
     `SELECT spectrum FROM reference_lot WHERE library_version_id = $1 AND lab_id = $2 AND included ORDER BY lot_code, id`,
     [version.id, labId],
@@ -82,12 +101,13 @@ export async function calibrateVersion(manager: EntityManager, labId: string, ve
   const grid = Float64Array.from(version.gridHz);
   const m = version.method;
   // Calibration compares every lot with every other and bootstraps the thresholds: a worker thread does it.
-  return runCpuTask('calibrateLibrary', {
-    args: [
+  return calibrateInPool(
+    [
       rows.map((r) => decodeLotSpectrum(r.spectrum, grid)),
       { lowerQuantile: m.lowerQuantile, upperQuantile: m.upperQuantile, minimumLots: m.minimumLots, thresholdEstimator: m.thresholdEstimator ?? 'empirical-type7' },
     ],
-  });
+    onProgress,
+  );
 }
 
 const percentOf = (x: number) => `${Math.round(x * 100)} %`;
@@ -126,11 +146,11 @@ export function publishBlockers(method: MethodSettings, calibration: Calibration
  * below the method's minimum number of lots, without thresholds, or when a threshold's interval
  * is wider than the method allows.
  */
-export async function publishVersion(manager: EntityManager, labId: string, versionId: string, userId: string): Promise<void> {
+export async function publishVersion(manager: EntityManager, labId: string, versionId: string, userId: string, onProgress?: CalibrationProgress, onStoring?: () => void): Promise<void> {
   const version = await manager.findOne(LibraryVersion, { where: { id: versionId, labId }, lock: { mode: 'pessimistic_write' } });
   if (!version) throw ApiError.notFound('Library version');
   if (version.status !== 'draft') throw ApiError.conflict(`Version ${version.version} is already ${version.status}.`);
-  const calibration = await calibrateVersion(manager, labId, version);
+  const calibration = await calibrateVersion(manager, labId, version, onProgress);
   const blockers = publishBlockers(version.method, calibration);
   if (blockers.length) {
     throw new ApiError(409, 'Library version cannot be published', `Version ${version.version} cannot be published: ${blockers.map((b) => b.message).join(' ')}`, {
@@ -138,6 +158,7 @@ export async function publishVersion(manager: EntityManager, labId: string, vers
       extensions: { reasons: blockers.map((b) => b.code).join(',') },
     });
   }
+  onStoring?.();
   await manager.update(LibraryVersion, { id: versionId, labId }, { calibration, status: 'published', publishedAt: new Date(), publishedByUserId: userId, engineVersion: ENGINE_VERSION });
   await storeReferenceBand(manager, labId, versionId);
   await recordAudit(manager, {

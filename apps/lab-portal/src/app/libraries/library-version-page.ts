@@ -9,7 +9,7 @@ import { MatPaginatorModule } from '@angular/material/paginator';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { RouterLink } from '@angular/router';
-import { MATRIX_LABELS, THRESHOLD_ESTIMATOR_LABELS, type CrossProductCheck, type LibraryLot, type LibraryOverview, type LibraryPublication, type LibraryVersionDetail } from '@ohmprint/contracts';
+import { MATRIX_LABELS, publicationProgressText, THRESHOLD_ESTIMATOR_LABELS, type CrossProductCheck, type LibraryLot, type LibraryOverview, type LibraryPublication, type LibraryVersionDetail } from '@ohmprint/contracts';
 import { ApiProblem, BodeChart, DistanceHistogram, LibraryMap, Notice, Notifier, ServerList, Session, oneOfOr, type DistanceHistogramInput, type MapPoint, type ReferenceBand, type SpectrumSeries } from '@ohmprint/ui';
 import { switchMap, takeWhile, timer, type Subscription } from 'rxjs';
 import { LibrariesData } from './libraries-data';
@@ -98,9 +98,14 @@ type LotSort = 'distance' | 'lotCode' | 'producedOn';
       @if (publication(); as p) {
         @if (p.state === 'queued' || p.state === 'running') {
           <section class="publishing" role="status" aria-live="polite">
-            <p><strong>{{ p.state === 'queued' ? 'Waiting to publish…' : 'Calibrating ' + p.lotCount + ' lots…' }}</strong>
+            @let said = progressText(p);
+            <p><strong>{{ said.headline }}</strong>
               Version {{ p.version }} is being published by a worker: every lot is compared with every other and the thresholds are set. You may leave this page; it carries on.</p>
-            <mat-progress-bar mode="indeterminate" [attr.aria-label]="'Publishing version ' + p.version" />
+            @if (said.percent !== null) {
+              <mat-progress-bar mode="determinate" [value]="said.percent" [attr.aria-label]="'Publishing version ' + p.version + ': lots compared'" />
+            } @else {
+              <mat-progress-bar mode="indeterminate" [attr.aria-label]="'Publishing version ' + p.version" />
+            }
           </section>
         } @else if (p.state === 'failed') {
           <ohm-notice tone="error" icon="error">Version {{ p.version }} was not published. {{ p.detail }}</ohm-notice>
@@ -217,6 +222,7 @@ export class LibraryVersionPage {
   protected readonly canPublish = computed(() => this.session.hasAnyRole(['lab-admin', 'reviewer']));
   /** A large draft's publication by a worker, polled every second while queued or running. */
   protected readonly publication = signal<LibraryPublication | null>(null);
+  protected readonly progressText = publicationProgressText;
   protected readonly publishing = computed(() => ['queued', 'running'].includes(this.publication()?.state ?? ''));
   private polling: Subscription | null = null;
   protected retireReason = '';
