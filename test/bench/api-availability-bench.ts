@@ -5,13 +5,19 @@
  *   - the same flood spread over many addresses, as a proxy's X-Forwarded-For shows them when
  *     TRUST_PROXY is on (a second app instance with the setting, on its own port);
  *   - the largest measurement upload the limits allow (20 files × the most points per file);
- * with the event loop's longest stall (perf_hooks monitorEventLoopDelay) and the process's peak
- * resident memory (budget 512 MB; the API runs in this process). Runs against a freshly migrated
+ * with the event loop's delay (p99) and longest stall (perf_hooks monitorEventLoopDelay), the
+ * process's peak resident memory (budget 512 MB; the API runs in this process), the worker pool's
+ * and the database pool's longest queues and the load average. The load and the probes run in a
+ * client process of their own (support/availability-client.ts), so the API's event loop is its own. Runs against a freshly migrated
  * database of its own, seeded with the invented demo, and drops it afterwards. Figures, not
  * pass/fail: the budgets are printed beside them.
  */
+import { fork } from 'node:child_process';
 import type { AddressInfo } from 'node:net';
-import { monitorEventLoopDelay, performance } from 'node:perf_hooks';
+import { loadavg } from 'node:os';
+import { join } from 'node:path';
+import { monitorEventLoopDelay } from 'node:perf_hooks';
+import type { ClientPhase, ClientResult } from './support/availability-client';
 import { line, mb, percentile, round } from './support/figures';
 
 process.env.LOG_LEVEL = 'silent';
@@ -25,10 +31,15 @@ const max = (v: number[]) => (v.length ? round(Math.max(...v)) : null);
 /** The process's resident memory, sampled every 50 ms: the peak over the whole run and over each phase. */
 let rssPeak = 0;
 let phasePeak = 0;
+/** Of the peak, how much is the JavaScript heap and how much buffers outside it (each sampled at its own peak). */
+let heapPeak = 0;
+let externalPeak = 0;
 const rssTimer = setInterval(() => {
-  const rss = process.memoryUsage().rss;
-  rssPeak = Math.max(rssPeak, rss);
-  phasePeak = Math.max(phasePeak, rss);
+  const m = process.memoryUsage();
+  rssPeak = Math.max(rssPeak, m.rss);
+  phasePeak = Math.max(phasePeak, m.rss);
+  heapPeak = Math.max(heapPeak, m.heapUsed);
+  externalPeak = Math.max(externalPeak, m.external);
 }, 50);
 rssTimer.unref();
 
@@ -70,35 +81,41 @@ async function main(): Promise<void> {
     const analyst = { Authorization: `Bearer ${signAccessToken(ctx.analyst_id)}` };
     const bench = await (await fetch(`${base}/lab/bench`, { headers: analyst })).json();
 
-    /** Probes /api/health and the samples list while `load` runs, with the loop's delay and the memory peak. */
-    const probe = async (name: string, load: () => Promise<Record<string, unknown>>) => {
-      const health: number[] = [];
-      const list: number[] = [];
-      let running = true;
+    const { cpuPoolLoad } = await import('../../apps/api/src/core/cpu-pool/cpu-pool');
+    // The load and the probes run in a client process of their own; this process is the API alone.
+    const client = fork(join(__dirname, 'support', 'availability-client.ts'), { stdio: 'inherit' });
+    const inClient = (phase: ClientPhase) =>
+      new Promise<ClientResult>((resolve, reject) => {
+        client.once('message', (m: ClientResult | { error: string }) => ('error' in m ? reject(new Error(m.error)) : resolve(m)));
+        client.send(phase);
+      });
+    /** The database pool's waiting requests (pg's Pool), for the figures: starvation shows here. */
+    const dbPool = () => (dataSource.driver as unknown as { master: { waitingCount: number; totalCount: number } }).master;
+
+    /** Runs one phase in the client while this process watches its event loop, memory, CPU pool queue and database pool. */
+    const probe = async (name: string, load: ClientPhase['load'], facts: Record<string, unknown> = {}) => {
       phasePeak = process.memoryUsage().rss;
+      heapPeak = 0;
+      externalPeak = 0;
       const loop = monitorEventLoopDelay({ resolution: 10 });
       loop.enable();
-      const prober = (async () => {
-        while (running) {
-          let t = performance.now();
-          await fetch(`${base}/health`).then((r) => r.arrayBuffer());
-          health.push(performance.now() - t);
-          t = performance.now();
-          await fetch(`${base}/lab/samples?pageSize=25`, { headers: analyst }).then((r) => r.arrayBuffer());
-          list.push(performance.now() - t);
-          await new Promise((r) => setTimeout(r, 20));
-        }
-      })();
-      const start = performance.now();
-      const extra = await load();
-      const ms = performance.now() - start;
-      running = false;
-      await prober;
+      let cpuQueuePeak = 0;
+      let dbWaitingPeak = 0;
+      const watch = setInterval(() => {
+        cpuQueuePeak = Math.max(cpuQueuePeak, cpuPoolLoad().queued);
+        dbWaitingPeak = Math.max(dbWaitingPeak, dbPool().waitingCount);
+      }, 10);
+      const cpuBefore = process.cpuUsage();
+      const loadBefore = loadavg()[0];
+      const { health, list, loadMs, extra } = await inClient({ base, analyst, load });
+      const cpu = process.cpuUsage(cpuBefore);
+      clearInterval(watch);
       loop.disable();
       const worst = Math.max(p99(health) ?? 0, p99(list) ?? 0);
       line({
         bench: name,
-        loadMs: round(ms),
+        loadMs: round(loadMs),
+        ...facts,
         ...extra,
         healthP99Ms: p99(health),
         healthMaxMs: max(health),
@@ -108,6 +125,12 @@ async function main(): Promise<void> {
         eventLoopDelayP99Ms: round(loop.percentile(99) / 1e6),
         eventLoopStallMaxMs: round(loop.max / 1e6),
         rssPeakMb: mb(phasePeak),
+        heapUsedPeakMb: mb(heapPeak),
+        externalPeakMb: mb(externalPeak),
+        cpuQueuePeak,
+        dbPoolWaitingPeak: dbWaitingPeak,
+        apiCpuSeconds: round((cpu.user + cpu.system) / 1e6),
+        loadAverage1mAtStartAndEnd: [round(loadBefore), round(loadavg()[0])],
         budgetP99Ms: 250,
         budgetRssMb: 512,
         withinBudget: worst <= 250 && mb(phasePeak) < 512,
@@ -115,30 +138,15 @@ async function main(): Promise<void> {
       });
     };
 
-    const flood = async (target: string, body: () => object, headers: () => Record<string, string> = () => ({})) => {
-      const statuses: Record<string, number> = {};
-      const until = performance.now() + FLOOD_SECONDS * 1000;
-      await Promise.all(
-        Array.from({ length: CONNECTIONS }, async () => {
-          while (performance.now() < until) {
-            const res = await fetch(`${target}/auth/sign-in`, { method: 'POST', headers: { 'content-type': 'application/json', ...headers() }, body: JSON.stringify(body()) });
-            await res.arrayBuffer();
-            statuses[res.status] = (statuses[res.status] ?? 0) + 1;
-          }
-        }),
-      );
-      return { connections: CONNECTIONS, seconds: FLOOD_SECONDS, statuses };
-    };
-    const randomEmail = () => ({ email: `nobody-${Math.random().toString(36).slice(2)}@flood.test`, password: 'guess-guess-guess' });
-    const randomAddress = () => `198.51.100.${1 + Math.floor(Math.random() * 254)}, 203.0.113.${1 + Math.floor(Math.random() * 254)}`;
+    const floodOf = (target: string, body: 'random-email' | { email: string; password: string }, spreadAddresses = false): ClientPhase['load'] => ({ kind: 'flood', target, seconds: FLOOD_SECONDS, connections: CONNECTIONS, body, spreadAddresses });
 
     await dataSource.query(`DELETE FROM rate_limit_window`);
-    await probe('availability-sign-in-flood-one-address', () => flood(base, randomEmail));
+    await probe('availability-sign-in-flood-one-address', floodOf(base, 'random-email'));
     await dataSource.query(`DELETE FROM rate_limit_window`);
-    await probe('availability-sign-in-flood-spread-over-addresses', () => flood(proxied, randomEmail, () => ({ 'x-forwarded-for': randomAddress() })));
+    await probe('availability-sign-in-flood-spread-over-addresses', floodOf(proxied, 'random-email', true));
     await dataSource.query(`DELETE FROM rate_limit_window`);
     // Correct passwords are never refused by the failure limits: every request is a real bcrypt check.
-    await probe('availability-sign-in-flood-correct-passwords', () => flood(base, () => ({ email: 'analyst@calder.test', password: 'bench-password-not-secret' })));
+    await probe('availability-sign-in-flood-correct-passwords', floodOf(base, { email: 'analyst@calder.test', password: 'bench-password-not-secret' }));
     await dataSource.query(`DELETE FROM rate_limit_window`);
 
     const { MEASUREMENT_LIMITS } = await import('../../apps/api/src/modules/measurements/upload-measurements');
@@ -151,26 +159,22 @@ async function main(): Promise<void> {
       }
       return rows.join('\n');
     })();
-    const maximalUpload = async () => {
-      const [s] = await dataSource.query(
-        `INSERT INTO sample (lab_id, order_id, code, state, obtained_where, obtained_on, received_at) VALUES ($1, $2, $3, 'accepted', 'Bench (invented)', '2026-11-30', now()) RETURNING id`,
-        [ctx.lab_id, ctx.order_id, newSampleCode()],
-      );
-      const form = new FormData();
-      form.set('instrumentId', bench.instruments[0].id);
-      form.set('cellId', bench.cells[0].id);
-      form.set('temperatureC', '22');
-      for (let i = 0; i < MEASUREMENT_LIMITS.files; i++) form.append('files', new Blob([largest]), `largest-${i}.csv`);
-      const res = await fetch(`${base}/lab/samples/${s.id}/measurements`, { method: 'POST', headers: analyst, body: form });
-      const body = (await res.json()) as { saved?: unknown[] };
-      return { status: res.status, saved: body.saved?.length ?? 0 };
+    const newSamples = async (n: number): Promise<string[]> => {
+      const ids: string[] = [];
+      for (let i = 0; i < n; i++) {
+        const [s] = await dataSource.query(
+          `INSERT INTO sample (lab_id, order_id, code, state, obtained_where, obtained_on, received_at) VALUES ($1, $2, $3, 'accepted', 'Bench (invented)', '2026-11-30', now()) RETURNING id`,
+          [ctx.lab_id, ctx.order_id, newSampleCode()],
+        );
+        ids.push(s.id);
+      }
+      return ids;
     };
+    const uploadsOf = (sampleIds: string[]): ClientPhase['load'] => ({ kind: 'uploads', sampleIds, instrumentId: bench.instruments[0].id, cellId: bench.cells[0].id, files: MEASUREMENT_LIMITS.files, fileText: largest });
     const uploadFacts = { files: MEASUREMENT_LIMITS.files, pointsPerFile: MEASUREMENT_LIMITS.pointsPerFile, uploadMb: round((largest.length * MEASUREMENT_LIMITS.files) / 1048576) };
-    await probe('availability-maximal-upload', async () => ({ ...uploadFacts, ...(await maximalUpload()) }));
-    await probe('availability-three-maximal-uploads-at-once', async () => {
-      const answers = await Promise.all([maximalUpload(), maximalUpload(), maximalUpload()]);
-      return { ...uploadFacts, uploads: 3, statuses: answers.map((a) => a.status) };
-    });
+    await probe('availability-maximal-upload', uploadsOf(await newSamples(1)), uploadFacts);
+    await probe('availability-three-maximal-uploads-at-once', uploadsOf(await newSamples(3)), uploadFacts);
+    client.kill();
     line({ bench: 'availability-api-rss-peak', rssPeakMb: mb(rssPeak), budgetRssMb: 512, withinBudget: mb(rssPeak) < 512, note: 'the API runs in the bench process; peak over every phase above' });
     await closeCpuPool();
   } finally {

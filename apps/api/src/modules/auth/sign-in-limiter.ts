@@ -1,5 +1,6 @@
 import type { NextFunction, Request, Response } from 'express';
 import { ipKeyGenerator, rateLimit, type Options } from 'express-rate-limit';
+import pLimit from 'p-limit';
 import { config } from '../../config';
 import { ApiError } from '../../core/api-error';
 import { PostgresRateStore } from '../../core/postgres-rate-store';
@@ -65,16 +66,31 @@ function signInLimits() {
   return limits;
 }
 
+let limitCounting: pLimit.Limit | undefined;
+/**
+ * Sign-in limits are counted in PostgreSQL, one query after another, by at most half the
+ * database pool at once: a flood of sign-ins (anonymous, and mostly refused) waits here for its
+ * turn instead of taking every pooled connection from the signed-in people's lists and saves.
+ */
+function countingLimits<T>(work: () => Promise<T>): Promise<T> {
+  limitCounting ??= pLimit(Math.max(1, Math.floor(((dataSource.options as { poolSize?: number }).poolSize ?? config.database.poolSize) / 2)));
+  return limitCounting(work);
+}
+
 /** Checks every sign-in limit before the password is looked at. */
 export function signInLimiter() {
   return async (req: Request, _res: Response, next: NextFunction): Promise<void> => {
     const l = signInLimits();
     const address = addressOf(req);
     const email = normalisedEmail(req);
-    if (await l.global.hitIsOver('all')) {
+    const reached = await countingLimits(async () => {
+      if (await l.global.hitIsOver('all')) return 'busy' as const;
+      return [await l.address.reached(address), await l.addressAndEmail.reached(`${address}|${email}`), email ? await l.account.reached(email) : false] as const;
+    });
+    if (reached === 'busy') {
       return next(tooMany('Sign-in busy', 'Too many sign-in attempts are arriving at the moment', 1));
     }
-    const [byAddress, byPair, byAccount] = await Promise.all([l.address.reached(address), l.addressAndEmail.reached(`${address}|${email}`), email ? l.account.reached(email) : false]);
+    const [byAddress, byPair, byAccount] = reached;
     if (byAddress) return next(tooMany('Too many failed sign-ins', 'Too many failed sign-in attempts from this network address', l.address.windowMinutes));
     if (byPair) return next(tooMany('Too many failed sign-ins', 'Too many failed sign-in attempts for this e-mail address', l.addressAndEmail.windowMinutes));
     if (byAccount) return next(tooMany('Too many failed sign-ins', 'Too many failed sign-in attempts for this account', l.account.windowMinutes));
@@ -87,7 +103,11 @@ export async function countFailedSignIn(req: Request, email: string): Promise<vo
   const l = signInLimits();
   const address = addressOf(req);
   const normalised = email.trim().toLowerCase();
-  await Promise.all([l.address.fail(address), l.addressAndEmail.fail(`${address}|${normalised}`), l.account.fail(normalised)]);
+  await countingLimits(async () => {
+    await l.address.fail(address);
+    await l.addressAndEmail.fail(`${address}|${normalised}`);
+    await l.account.fail(normalised);
+  });
 }
 
 let passwordChange: FailureLimit | undefined;
