@@ -93,6 +93,15 @@ describe('every list route and its search', () => {
     }
     expect(wrong).toEqual([]);
   });
+  it('never answers 500 to a search of several kilobytes (an e-mail address pasted whole, say), on every route that searches', async () => {
+    const searching = routes.filter((r) => r.method === 'get' && r.op.parameters.some((p) => p.in === 'query' && p.name === 'q'));
+    const wrong: unknown[] = [];
+    for (const r of searching) {
+      const res = await send(r, await callerOf(r.op), `${concrete(r.path)}?q=${encodeURIComponent(`${'a'.repeat(3000)}@calder.test`)}`);
+      if (res.status >= 500) wrong.push({ route: r.path, ...summary(res) });
+    }
+    expect(wrong).toEqual([]);
+  });
 });
 
 describe('every JSON body', () => {
