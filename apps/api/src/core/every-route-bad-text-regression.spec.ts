@@ -137,6 +137,20 @@ describe('every JSON body', () => {
   });
 });
 
+describe('every path with an id or code in it', () => {
+  it('answers a NUL character in a path parameter with 400, never a 500', async () => {
+    const withParams = routes.filter((r) => /\{[^}]+\}/.test(r.path));
+    expect(withParams.length).toBeGreaterThan(50);
+    const wrong: unknown[] = [];
+    for (const r of withParams) {
+      const url = r.path.replace(/\{[^}]+\}/, 'OP%00X').replace(/\{[^}]+\}/g, ANY_UUID);
+      const res = await send(r, await callerOf(r.op), url);
+      if (res.status !== 400 || !summary(res).fields.some((f) => f === '(path)' || r.op.parameters.some((p) => p.in === 'path' && p.name === f))) wrong.push({ route: `${r.method.toUpperCase()} ${r.path}`, ...summary(res) });
+    }
+    expect(wrong).toEqual([]);
+  });
+});
+
 describe('every multipart upload', () => {
   const multipartRoutes = () => routes.filter((r) => r.method !== 'get' && r.op.requestBody?.content['multipart/form-data']);
 
