@@ -27,8 +27,6 @@ export interface ComputedAnalysis {
   lotDistances: Float64Array;
   /** Lot indices nearest first (see `rankLots`). */
   ranking: Uint32Array;
-  /** `encodeRanked(ranking, lotDistances)`, when the worker thread packed it already. */
-  rankedBytes?: Uint8Array;
 }
 
 /**

@@ -22,9 +22,10 @@ function decodeEntries(bytes: Buffer): { index: number; distance: number }[] {
   return out;
 }
 
-export async function storeLotDistances(manager: EntityManager, labId: string, analysisId: string, ranking: ArrayLike<number>, distances: ArrayLike<number>, packed?: Uint8Array): Promise<void> {
-  const bytes = packed ? Buffer.from(packed.buffer, packed.byteOffset, packed.byteLength) : encodeRanked(ranking, distances);
-  await manager.query(`INSERT INTO analysis_lot_distance (analysis_id, lab_id, lot_count, ranked) VALUES ($1, $2, $3, $4)`, [analysisId, labId, ranking.length, bytes]);
+/** Stores every lot's distance as `encodeRanked` packed them (in the worker thread). */
+export async function storeLotDistances(manager: EntityManager, labId: string, analysisId: string, lotCount: number, ranked: Uint8Array): Promise<void> {
+  const bytes = Buffer.from(ranked.buffer, ranked.byteOffset, ranked.byteLength);
+  await manager.query(`INSERT INTO analysis_lot_distance (analysis_id, lab_id, lot_count, ranked) VALUES ($1, $2, $3, $4)`, [analysisId, labId, lotCount, bytes]);
 }
 
 /** Every lot's distance in the version's lot order, as stored; null for an analysis from before they were stored apart. */
