@@ -124,7 +124,8 @@ export async function analyse(input: {
     const missing = [input.library, ...(input.others ?? []).map((o) => o.library)].filter((_, i) => (i === 0 ? library : others[i - 1].library) === null).map((h) => h.versionId);
     if (missing.length) return { missing };
     const t1 = performance.now();
-    const computed = computeAnalysis(input.replicates, library as PublishedLibrary, others as OtherLibrary[]);
+    const inside: Record<string, number> = {};
+    const computed = computeAnalysis(input.replicates, library as PublishedLibrary, others as OtherLibrary[], inside);
     const t2 = performance.now();
     // Every lot's distance packed for storage here, so the request thread only hands the bytes on.
     const ranked = encodeRanked(computed.ranking, computed.lotDistances);
@@ -137,7 +138,7 @@ export async function analyse(input: {
       lotCount: computed.lotDistances.length,
       rankedBytes,
       lotDistances,
-      workerMs: { receive: t1 - t0, compute: t2 - t1, encode: t3 - t2 },
+      workerMs: { receive: t1 - t0, compute: t2 - t1, ...Object.fromEntries(Object.entries(inside).map(([k, ms]) => [`compute-${k}`, ms])), encode: t3 - t2 },
     };
     return withTransfers(answer, [rankedBytes.buffer as ArrayBuffer, ...(lotDistances ? [lotDistances.buffer as ArrayBuffer] : [])]);
   } catch (err) {

@@ -26,11 +26,16 @@ export async function runAnalysis(manager: EntityManager, auth: AuthContext, lab
     return found;
   });
   const library = await timed('library-load', () => publishedLibrary(manager, labId, libraryVersionId));
-  const [{ status }] = await manager.query(`SELECT status FROM library_version WHERE id = $1 AND lab_id = $2`, [libraryVersionId, labId]);
+  // the version's status read fresh (a cached library may have been retired since), with the order, in one round trip
+  const [{ status, ...order }] = await timed('version-and-order', () =>
+    manager.query(
+      `SELECT v.status, o.product_id, o.client_organisation_id FROM library_version v JOIN test_order o ON o.id = $3 AND o.lab_id = v.lab_id WHERE v.id = $1 AND v.lab_id = $2`,
+      [libraryVersionId, labId, sample.orderId],
+    ),
+  );
   if (status === 'retired') {
     throw new ApiError(409, 'Library version retired', `Library version ${library.version} of ${library.productName} is retired; analyse against a current version.`, { type: 'library-version-retired' });
   }
-  const [order] = await manager.query(`SELECT product_id, client_organisation_id FROM test_order WHERE id = $1 AND lab_id = $2`, [sample.orderId, labId]);
   if (order.product_id !== library.productId) {
     throw ApiError.badRequest(`Library version ${library.version} is of ${library.productName}, not of the product this sample was ordered for.`, [
       { field: 'libraryVersionId', message: 'belongs to another product' },
@@ -60,10 +65,12 @@ export async function runAnalysis(manager: EntityManager, auth: AuthContext, lab
     return inserted.identifiers[0].id as string;
   });
   await timed('lot-distances-write', () => storeLotDistances(manager, labId, id, computed.lotCount, computed.rankedBytes));
-  const wasReported = sample.state === 'reported';
-  await moveSample(manager, sample, 'analysed');
-  if (wasReported) await refreshOrderStatus(manager, labId, sample.orderId);
-  await recordAudit(manager, { labId, actorUserId: auth.userId, action: 'analysis.run', subjectType: 'analysis', subjectId: id, details: { sampleCode: sample.code, libraryVersionId, verdict: computed.result.verdict } });
+  await timed('sample-move-and-audit', async () => {
+    const wasReported = sample.state === 'reported';
+    await moveSample(manager, sample, 'analysed');
+    if (wasReported) await refreshOrderStatus(manager, labId, sample.orderId);
+    await recordAudit(manager, { labId, actorUserId: auth.userId, action: 'analysis.run', subjectType: 'analysis', subjectId: id, details: { sampleCode: sample.code, libraryVersionId, verdict: computed.result.verdict } });
+  });
   return id;
 }
 
