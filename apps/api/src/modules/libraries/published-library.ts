@@ -49,6 +49,12 @@ export function createLibraryCache(maxBytes: number): LRUCache<string, Published
  */
 const cache = createLibraryCache(config.libraryCacheMaxBytes);
 
+/** The version as the cache holds it for this lab, without loading it; null when it is not held. */
+export function cachedLibrary(labId: string, versionId: string): PublishedLibrary | null {
+  const held = cache.get(versionId);
+  return held && held.labId === labId ? held : null;
+}
+
 /** Bytes the cache holds now, for the benchmark. */
 export function libraryCacheBytes(): number {
   return cache.calculatedSize;
