@@ -62,29 +62,38 @@ export function libraryCacheBytes(): number {
 
 /**
  * The lots' spectra (bytea, sent by PostgreSQL as hex text) written straight into one buffer, lot
- * after lot: hex to bytes is native code, and the bytes go to a worker thread by transfer, where
- * they become the shared float64 array (`decodeLibrarySpectra`). The request thread never reads a
- * number of them.
+ * after lot, as each row arrives: hex to bytes is native code, done a row at a time between socket
+ * reads rather than in one long pass, and the bytes go to a worker thread by transfer, where they
+ * become the shared float64 array (`decodeLibrarySpectra`). The request thread never reads a
+ * number of them. `expected` (the tally's lot count) sizes the buffer; it grows if more rows come.
  */
 async function lotRows(manager: EntityManager, labId: string, versionId: string, n: number, expected: number): Promise<{ lots: { id: string; lotCode: string }[]; bytes: Uint8Array }> {
   const runner = manager.queryRunner ?? manager.connection.createQueryRunner();
   const own = !manager.queryRunner;
+  const perLot = 16 * n;
+  let bytes = Buffer.from(new ArrayBuffer(Math.max(8, perLot * expected)));
+  let written = 0;
+  const into = (hex: string): number => {
+    // '\\x', then two hex digits a byte
+    if (hex.length !== 2 + 2 * perLot || !hex.startsWith('\\x')) throw new RangeError(`a lot spectrum for a ${n}-point grid has ${perLot} bytes, not ${(hex.length - 2) / 2}`);
+    if (bytes.length < perLot * (written + 1)) {
+      const grown = Buffer.from(new ArrayBuffer(Math.max(2 * bytes.length, perLot * (written + 1))));
+      bytes.copy(grown, 0, 0, perLot * written);
+      bytes = grown;
+    }
+    if (bytes.write(hex.substring(2), perLot * written, perLot, 'hex') !== perLot) throw new RangeError(`lot ${written + 1} of library version ${versionId} has a malformed spectrum`);
+    return written++;
+  };
   try {
     const client = (await runner.connect()) as PgClient;
-    const raw = (value: string) => value;
-    const { rows }: { rows: { id: string; lot_code: string; spectrum: string }[] } = await client.query({
+    const { rows }: { rows: { id: string; lot_code: string; spectrum: number }[] } = await client.query({
       text: `SELECT id, lot_code, spectrum FROM reference_lot WHERE library_version_id = $1 AND lab_id = $2 AND included ORDER BY lot_code, id`,
       values: [versionId, labId],
-      types: { getTypeParser: (oid: number, format?: string) => (oid === BYTEA_OID ? raw : pgTypes.getTypeParser(oid, format as 'text')) },
+      types: { getTypeParser: (oid: number, format?: string) => (oid === BYTEA_OID ? into : pgTypes.getTypeParser(oid, format as 'text')) },
     });
-    const perLot = 16 * n;
-    const bytes = Buffer.from(new ArrayBuffer(Math.max(8, perLot * Math.max(expected, rows.length))));
-    const lots = new Array<{ id: string; lotCode: string }>(rows.length);
-    rows.forEach((r, i) => {
-      // '\\x', then two hex digits a byte
-      if (r.spectrum.length !== 2 + 2 * perLot || !r.spectrum.startsWith('\\x')) throw new RangeError(`a lot spectrum for a ${n}-point grid has ${perLot} bytes, not ${(r.spectrum.length - 2) / 2}`);
-      if (bytes.write(r.spectrum.substring(2), perLot * i, perLot, 'hex') !== perLot) throw new RangeError(`lot ${r.lot_code} of library version ${versionId} has a malformed spectrum`);
-      lots[i] = { id: r.id, lotCode: r.lot_code };
+    const lots = rows.map((r, i) => {
+      if (r.spectrum !== i) throw new Error(`library version ${versionId}: lot ${i + 1}'s spectrum arrived out of order`);
+      return { id: r.id, lotCode: r.lot_code };
     });
     return { lots, bytes: new Uint8Array(bytes.buffer, 0, perLot * rows.length) };
   } finally {
