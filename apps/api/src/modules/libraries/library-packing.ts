@@ -54,7 +54,9 @@ const packedForms = new WeakMap<PublishedLibrary, PackedLibrary>();
 export function packLibrary(library: PublishedLibrary): PackedLibrary {
   let packed = packedForms.get(library);
   if (!packed) {
-    const { spectra: _spectra, lots, ...rest } = library;
+    // the spectra travel as `packed`; the views over it are not read here (the cache makes them on first use)
+    const { lots, ...rest } = library;
+    if ('spectra' in rest) delete (rest as Partial<PublishedLibrary>).spectra;
     packed = { ...rest, lotKeys: lots.map((l) => `${l.id}\t${l.lotCode}`).join('\n') };
     packedForms.set(library, packed);
   }

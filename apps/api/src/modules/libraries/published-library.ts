@@ -137,10 +137,12 @@ export async function publishedLibrary(manager: EntityManager, labId: string, ve
     calibration: v.calibration,
     publishedAt: v.published_at,
     lots,
-    spectra: spectraOver(packed, grid),
     packed,
     loadKey: randomUUID(),
-  };
+  } as Omit<PublishedLibrary, 'spectra'> as PublishedLibrary;
+  // 100,000 views at 50,000 lots: made when a reader on this thread first asks (analyses never do; their worker has its own)
+  let views: Spectrum[] | undefined;
+  Object.defineProperty(library, 'spectra', { enumerable: false, get: () => (views ??= spectraOver(packed, grid)) });
   cache.set(versionId, library);
   return library;
 }
