@@ -107,6 +107,14 @@ describe('deep pages', () => {
     const ledger = await allPages('/api/client/ledger', tenant.users.clientAdmin, 'sort=entryNo&dir=asc');
     const [{ e }] = await t.db.query(`SELECT count(*)::int AS e FROM credit_ledger_entry WHERE lab_id = $1 AND client_organisation_id = $2`, [tenant.labId, tenant.bigClientId]);
     expect(new Set(ledger.ids).size).toBe(e);
+    // notifications: the page's ids come from the covering index, then the rows; order kept
+    const notices = await allPages('/api/client/notifications', tenant.users.clientAdmin, 'dir=desc');
+    const expected: { id: string }[] = await t.db.query(
+      `SELECT id FROM client_notification WHERE lab_id = $1 AND user_id = $2 ORDER BY created_at DESC, entry_no DESC`,
+      [tenant.labId, tenant.users.clientAdmin],
+    );
+    expect(expected.length).toBeGreaterThan(200);
+    expect(notices.ids).toEqual(expected.map((r) => r.id));
   });
 });
 
@@ -187,6 +195,20 @@ describe('tenancy and roles', () => {
     expect(theirs.ids).toHaveLength(n);
     const bigOnes: { id: string }[] = await t.db.query(`SELECT id FROM test_order WHERE client_organisation_id = $1`, [tenant.bigClientId]);
     expect(theirs.ids.filter((id) => bigOnes.some((b) => b.id === id))).toEqual([]);
+  });
+
+  it("a broad search, a medium one and a small list of another lab hold none of the tenant's rows", async () => {
+    const theirs: { id: string }[] = await t.db.query(`SELECT id FROM sample WHERE lab_id = $1`, [tenant.labId]);
+    const tenantIds = new Set(theirs.map((r) => r.id));
+    for (const q of ['demo', 'Cider', 'OP-']) {
+      const other = await request(t.app).get(`/api/lab/samples?pageSize=100&q=${q}`).set(await t.authFor('analyst')).expect(200);
+      expect(other.body.items.filter((i: { id: string }) => tenantIds.has(i.id))).toEqual([]);
+      if (other.body.totalIsLowerBound) expect(other.body.total).toBe(SEARCH_TOTAL_CAP);
+    }
+    // the other lab's staff list is counted its own way: none of the tenant's staff, exact total
+    const staff = await request(t.app).get('/api/lab/staff?pageSize=100').set(await t.authFor('lab-admin')).expect(200);
+    expect(staff.body.items.some((u: { email: string }) => u.email.endsWith(`@hollowmere-${tenant.tag.toLowerCase()}.test`))).toBe(false);
+    expect(staff.body.total).toBe(staff.body.items.length);
   });
 
   it('a client cannot read lab lists and an analyst cannot read the audit log', async () => {
