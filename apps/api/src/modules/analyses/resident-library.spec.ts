@@ -31,9 +31,6 @@ afterEach(() => {
   jest.restoreAllMocks();
 });
 
-// This file runs no job, so the job system's stop returns before pg-boss's workers have all left
-// their polling loop; its once-a-second check must not outlive the test environment.
-afterAll(() => new Promise((resolve) => setTimeout(resolve, 1200)));
 
 /** Counts the analyses whose worker lacked a library and had it sent whole. */
 function countResends(): { resends: number } {
