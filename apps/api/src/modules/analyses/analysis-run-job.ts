@@ -101,6 +101,7 @@ export async function analysisRunOf(manager: EntityManager, labId: string, sampl
     case 'completed':
       return output.refused ? { ...base, state: 'failed', detail: output.refused } : { ...base, state: 'done', analysisId: output.analysisId ?? null };
     default:
-      return { ...base, state: 'failed', detail: `The analysis stopped after several attempts${output.message ? `: ${String(output.message).slice(0, 300)}` : ''}. Run it again to retry.` };
+      // The worker's own error may name tables or constraints: it stays in the worker's log, under the job's id.
+      return { ...base, state: 'failed', detail: `The analysis stopped after several attempts (job ${job.id}; the cause is in the worker's log). Run it again to retry.` };
   }
 }
