@@ -98,29 +98,55 @@ async function main(): Promise<void> {
       await call('POST', `/lab/analyses/${a.id}/submit`, analyst);
       return a.id as string;
     };
-    /** POST approve (answered 202 at once), then poll the issuance every 20 ms until issued; both times. */
-    const approveToIssued = async (id: string): Promise<{ answerMs: number; issuedMs: number }> => {
+    type Timing = { answerMs: number; issuedMs: number; stages: Record<string, number> };
+    /** The stages the issuance job timed (its output), read once pg-boss has marked the job completed. */
+    const stagesOf = async (id: string): Promise<Record<string, number>> => {
+      for (let i = 0; ; i++) {
+        const [job]: Array<{ output: { stagesMs?: Record<string, number> } | null }> = await dataSource.query(
+          `SELECT output FROM pgboss.job WHERE name = 'report-issue' AND singleton_key = $1 AND state = 'completed'
+           UNION ALL SELECT output FROM pgboss.archive WHERE name = 'report-issue' AND singleton_key = $1 AND state = 'completed'`,
+          [id],
+        );
+        if (job?.output?.stagesMs) return job.output.stagesMs;
+        if (i > 500) throw new Error(`the issuance job of ${id} did not complete`);
+        await new Promise((r) => setTimeout(r, 10));
+      }
+    };
+    /** POST approve (answered 202 at once), then poll the issuance every 20 ms until issued; both times, and the job's stages. */
+    const approveToIssued = async (id: string): Promise<Timing> => {
       const start = performance.now();
       await call('POST', `/lab/analyses/${id}/approve`, reviewer, { comments: 'Bench approval' });
       const answerMs = performance.now() - start;
       for (;;) {
         const s = await call('GET', `/lab/analyses/${id}/issuance`, reviewer);
-        if (s.state === 'issued') return { answerMs, issuedMs: performance.now() - start };
+        if (s.state === 'issued') {
+          const issuedMs = performance.now() - start;
+          const stages = await stagesOf(id);
+          // what the job does not see: the approval's answer, the job's wait, and the poll that noticed the report
+          return { answerMs, issuedMs, stages: { ...stages, outsideJob: round(issuedMs - (stages.pickup ?? 0) - (stages.total ?? 0)) } };
+        }
         if (s.state === 'failed') throw new Error(`issuance of ${id} failed`);
         await new Promise((r) => setTimeout(r, 20));
       }
     };
+    /** The median of each stage over a set of issuances (milliseconds). */
+    const stageMedians = (timings: Timing[]) => {
+      const names = [...new Set(timings.flatMap((t) => Object.keys(t.stages)))];
+      return Object.fromEntries(names.map((n) => [n, round(median(timings.map((t) => t.stages[n] ?? 0)))]));
+    };
 
     // The lab's first issuance creates its development signing credential: done once, not timed.
     await approveToIssued(await submitted());
-    const lone: Array<{ answerMs: number; issuedMs: number }> = [];
+    const lone: Timing[] = [];
     for (let i = 0; i < LONE_RUNS; i++) lone.push(await approveToIssued(await submitted()));
     const loneMedian = median(lone.map((l) => l.issuedMs));
     line({ bench: 'jobs-lone-approval-to-issued-report', n: LONE_RUNS, medianMs: round(loneMedian), minMs: round(Math.min(...lone.map((l) => l.issuedMs))), maxMs: round(Math.max(...lone.map((l) => l.issuedMs))), approvalAnswerMedianMs: round(median(lone.map((l) => l.answerMs))) });
+    line({ bench: 'jobs-lone-issuance-stages', n: LONE_RUNS, medianMs: stageMedians(lone) });
 
     const slowest: number[] = [];
     const all: number[] = [];
     const answers: number[] = [];
+    const concurrent: Timing[] = [];
     for (let r = 0; r < CONCURRENT_ROUNDS; r++) {
       // Prepared one after another (the API admits two uploads per lab at a time); only the approvals run at once.
       const four: string[] = [];
@@ -129,7 +155,9 @@ async function main(): Promise<void> {
       slowest.push(Math.max(...timings.map((t) => t.issuedMs)));
       all.push(...timings.map((t) => t.issuedMs));
       answers.push(...timings.map((t) => t.answerMs));
+      concurrent.push(...timings);
     }
+    line({ bench: 'jobs-concurrent-issuance-stages', n: concurrent.length, medianMs: stageMedians(concurrent), slowestOfEachFourMs: concurrent.filter((_, i) => i % 4 === 0).map((_, r) => { const four = concurrent.slice(r * 4, r * 4 + 4); return four.reduce((a, b) => (b.issuedMs > a.issuedMs ? b : a)).stages; }) });
     const slowestMedian = median(slowest);
     const loneAnswer = median(lone.map((l) => l.answerMs));
     line({

@@ -34,7 +34,14 @@ export const QUEUES: Record<JobName, QueueSettings> = {
 const WAKE_CHANNEL = 'ohmprint_jobs';
 export const JOB_SCHEMA = 'pgboss';
 
-export type JobHandler = (payload: Record<string, unknown>, job: { id: string; retryCount: number }) => Promise<unknown>;
+export interface JobInfo {
+  id: string;
+  retryCount: number;
+  /** Milliseconds from the job's creation (or its retry's due time) until this worker took it. */
+  pickupMs: number;
+}
+
+export type JobHandler = (payload: Record<string, unknown>, job: JobInfo) => Promise<unknown>;
 
 export interface StartJobsOptions {
   /** Handlers to run in this process (a worker); none for an API process that only enqueues. */
@@ -108,7 +115,8 @@ export async function startJobs(options: StartJobsOptions = {}): Promise<void> {
           handlersRunning += 1;
           handlersStarted += 1;
           try {
-            const result = await handler(job.data, { id: job.id, retryCount: job.retryCount });
+            const due = Math.max(new Date(job.createdOn).getTime(), new Date(job.startAfter).getTime() || 0);
+            const result = await handler(job.data, { id: job.id, retryCount: job.retryCount, pickupMs: Math.max(0, started - due) });
             logger.info({ queue: name, jobId: job.id, ms: Date.now() - started }, 'job done');
             return result;
           } catch (err) {
