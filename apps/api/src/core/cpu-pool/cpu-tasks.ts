@@ -6,6 +6,7 @@
  * hashes passwords starts quickly.
  */
 import { performance } from 'node:perf_hooks';
+import { threadId } from 'node:worker_threads';
 import bcrypt from 'bcryptjs';
 import { move } from 'piscina';
 import type { calibrate, FitResult, ModelReference, Spectrum } from '@ohmprint/spectral-engine';
@@ -114,6 +115,19 @@ export async function renderAndSign(input: { data: ReportData; logo?: Uint8Array
   const t1 = performance.now();
   const signed = await signPdf(unsigned, Buffer.from(input.p12), input.passphrase, input.signature);
   return { pdf: new Uint8Array(signed.buffer, signed.byteOffset, signed.byteLength), renderMs: t1 - t0, signMs: performance.now() - t1 };
+}
+
+/**
+ * Loads the report renderer and signer in this thread and renders the invented demo report once,
+ * so the fonts are parsed and the report's usual words laid out before the first real report
+ * (a job worker asks each thread at start). Returns the thread's id.
+ */
+export async function warmReportRenderer(): Promise<number> {
+  const { renderReportPdf } = load<typeof import('../../modules/reports/pdf/render-report-pdf')>('../../modules/reports/pdf/render-report-pdf');
+  load<typeof import('../../modules/reports/signing/sign-pdf')>('../../modules/reports/signing/sign-pdf');
+  const { demoReportData } = load<typeof import('../../modules/reports/pdf/demo-report-content')>('../../modules/reports/pdf/demo-report-content');
+  await renderReportPdf(demoReportData());
+  return threadId;
 }
 
 export async function selfSignedCredential(input: { labName: string; passphrase: string }): Promise<Uint8Array> {
