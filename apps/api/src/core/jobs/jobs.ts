@@ -182,6 +182,16 @@ export async function enqueue(manager: EntityManager | null, name: JobName, payl
   return id;
 }
 
+/**
+ * Fails a job inside the caller's transaction, as if its handler had thrown: pg-boss retries it
+ * (on any worker, after the queue's retry delay) while attempts remain.
+ */
+export async function failJob(manager: EntityManager, name: JobName, id: string, message: string): Promise<void> {
+  if (!boss) throw new Error(`jobs are not started in this process (fail ${name})`);
+  const db = { executeSql: async (text: string, values: unknown[]) => ({ rows: toRows(await manager.query(text, values)) }) };
+  await boss.fail(name, id, { message }, { db });
+}
+
 /** TypeORM answers an INSERT … RETURNING with its rows, an UPDATE with [rows, count]. */
 function toRows(result: unknown): unknown[] {
   if (Array.isArray(result) && result.length === 2 && Array.isArray(result[0]) && typeof result[1] === 'number') return result[0];
