@@ -103,7 +103,7 @@ function withSharedLayouts(font: fontkit.Font): fontkit.Font {
       run = font.layout.apply(this, args);
       layouts.set(key, run);
     }
-    return copyRun(run);
+    return run;
   } as fontkit.Font['layout'];
   return shaped;
 }
@@ -113,6 +113,11 @@ function copyRun(run: fontkit.GlyphRun): fontkit.GlyphRun {
   copy.glyphs = [...run.glyphs];
   copy.positions = run.positions.map((p) => Object.assign(Object.create(Object.getPrototypeOf(p) as object) as fontkit.GlyphPosition, p));
   return copy;
+}
+
+/** Drops the parsed fonts and their layouts (tests compare a cold render with a warm one). */
+export function forgetParsedFonts(): void {
+  parsed.clear();
 }
 
 /** Registers every subset and weight on a document under the names `fontName()` returns. */
