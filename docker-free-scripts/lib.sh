@@ -85,11 +85,17 @@ start_postgres() {
     rm -f "$pw"
   fi
   pg_as mkdir -p "$PG_DIR/sock"
+  local opts="-p $PG_PORT -c listen_addresses=127.0.0.1 -k $PG_DIR/sock -c fsync=$PG_FSYNC -c max_connections=200"
   if ! pg_as "$bin/pg_ctl" -D "$PG_DIR/data" status >/dev/null 2>&1; then
     log "starting PostgreSQL on 127.0.0.1:$PG_PORT"
-    pg_as "$bin/pg_ctl" -D "$PG_DIR/data" -l "$PG_DIR/server.log" -w -t 60 \
-      -o "-p $PG_PORT -c listen_addresses=127.0.0.1 -k $PG_DIR/sock -c fsync=$PG_FSYNC -c max_connections=200" start >/dev/null \
+    pg_as "$bin/pg_ctl" -D "$PG_DIR/data" -l "$PG_DIR/server.log" -w -t 60 -o "$opts" start >/dev/null \
       || die "PostgreSQL did not start; see $PG_DIR/server.log"
+  elif [ "$PG_FSYNC" = on ] && [ "$(psql_super -d postgres -c 'show fsync')" = off ]; then
+    # npm start on a cluster npm test left running without fsync: the lab's data needs it on.
+    # (npm test beside a running npm start keeps fsync on: it never turns it off under a running instance.)
+    log "restarting PostgreSQL with fsync on (npm test had started it without)"
+    pg_as "$bin/pg_ctl" -D "$PG_DIR/data" -l "$PG_DIR/server.log" -w -t 60 -m fast -o "$opts" restart >/dev/null \
+      || die "PostgreSQL did not restart; see $PG_DIR/server.log"
   fi
   if [ "$(psql_super -d postgres -c "select 1 from pg_roles where rolname='ohmprint'")" != 1 ]; then
     psql_super -d postgres -c "create role ohmprint login createdb password '$PG_APP_PASSWORD'"

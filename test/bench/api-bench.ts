@@ -70,15 +70,17 @@ async function main(): Promise<void> {
     const { newSampleCode } = await import('../../apps/api/src/modules/samples/sample-code');
     const [order] = await dataSource.query(`SELECT order_id FROM sample WHERE code = 'OP-7K3M-Q9'`);
     const measuredSample = async (): Promise<string> => {
+      const code = newSampleCode();
       const [s] = await dataSource.query(
         `INSERT INTO sample (lab_id, order_id, code, state, obtained_where, obtained_on, received_at) VALUES ($1, $2, $3, 'accepted', 'Bench (invented)', '2026-11-30', now()) RETURNING id`,
-        [ctx.lab_id, order.order_id, newSampleCode()],
+        [ctx.lab_id, order.order_id, code],
       );
       const form = new FormData();
       form.set('instrumentId', bench.instruments[0].id);
       form.set('cellId', bench.cells[0].id);
       form.set('temperatureC', String(files[0].temperatureC));
-      for (const f of files) form.append('files', new Blob([f.text]), f.fileName);
+      // The files name their sample; each fresh sample gets files that name it.
+      for (const f of files) form.append('files', new Blob([f.text.replaceAll('OP-7K3M-Q9', code)]), f.fileName.replace('OP-7K3M-Q9', code));
       const res = await fetch(`${base}/lab/samples/${s.id}/measurements`, { method: 'POST', headers: analyst, body: form });
       if (res.status !== 201) throw new Error(`upload answered ${res.status}: ${await res.text()}`);
       return s.id;

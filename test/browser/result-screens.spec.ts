@@ -29,10 +29,12 @@ afterAll(async () => {
   await browser?.close();
 });
 
-/** axe in both schemes, and a photograph of each, for the screen as it is now. */
-async function look(page: Page, name: string): Promise<void> {
-  await page.waitForLoadState('networkidle');
-  await page.waitForFunction(() => !document.querySelector('mat-progress-bar[mode="indeterminate"]'));
+/** axe in both schemes, and a photograph of each, for the screen as it is now (`busy`: while it shows work in progress). */
+async function look(page: Page, name: string, busy = false): Promise<void> {
+  if (!busy) {
+    await page.waitForLoadState('networkidle');
+    await page.waitForFunction(() => !document.querySelector('mat-progress-bar[mode="indeterminate"]'));
+  }
   const size = page.viewportSize() ?? { width: 1280, height: 900 };
   const tallest = await page.evaluate(() => Math.max(...Array.from(document.querySelectorAll('*'), (e) => (e.scrollHeight > e.clientHeight + 1 ? e.scrollHeight : 0)), 0));
   await page.setViewportSize({ width: size.width, height: Math.min(6000, Math.max(size.height, tallest + 80)) });
@@ -75,6 +77,12 @@ function expectApartAndInside({ boxes, view }: { boxes: Box[]; view: { width: nu
       expect({ pair: `${a.label} / ${b.label}`, overlap }).toEqual({ pair: `${a.label} / ${b.label}`, overlap: false });
     }
   }
+}
+
+/** The rows of the lot-distance table as shown: rank, lot code and distance. */
+async function lotRows(page: Page): Promise<Array<{ rank: number; lot: string; distance: number }>> {
+  const rows = await page.locator('ohm-lot-distance-pager tbody tr').evaluateAll((trs) => trs.map((tr) => Array.from(tr.querySelectorAll('td'), (td) => td.textContent?.trim() ?? '')));
+  return rows.map(([rank, lot, distance]) => ({ rank: Number(rank), lot, distance: Number(distance.replace(/,/g, '')) }));
 }
 
 /** What both screens show, checked the same way on each. */
@@ -121,6 +129,24 @@ describe('result screens', () => {
     await page.getByRole('status').filter({ hasText: 'Not consistent' }).first().waitFor();
     await checkResult(page);
     await look(page, 'analysis');
+
+    // every lot's distance, fifty at a time and only when asked: 80 lots in the demo library
+    await page.getByRole('button', { name: 'Show every lot’s distance (80 lots, 50 a page)' }).click();
+    const lots = page.locator('ohm-lot-distance-pager table');
+    await lots.locator('caption', { hasText: 'Lots 1–50 of 80, nearest first' }).waitFor();
+    const firstPage = await lotRows(page);
+    expect(firstPage.map((r) => r.rank)).toEqual(Array.from({ length: 50 }, (_, i) => i + 1));
+    expect(firstPage.map((r) => r.distance)).toEqual([...firstPage.map((r) => r.distance)].sort((a, b) => a - b));
+    expect(await page.getByTestId('nearest-lot').innerText()).toContain(firstPage[0].lot);
+    await look(page, 'analysis-lot-distances');
+    await page.getByRole('button', { name: 'Next 50' }).click();
+    await lots.locator('caption', { hasText: 'Lots 51–80 of 80, nearest first' }).waitFor();
+    const secondPage = await lotRows(page);
+    expect(secondPage.map((r) => r.rank)).toEqual(Array.from({ length: 30 }, (_, i) => i + 51));
+    expect(secondPage[0].distance).toBeGreaterThanOrEqual(firstPage[49].distance);
+    expect(await page.getByRole('button', { name: 'Next 50' }).isDisabled()).toBe(true);
+    await page.getByRole('button', { name: 'Previous 50' }).click();
+    await lots.locator('caption', { hasText: 'Lots 1–50 of 80, nearest first' }).waitFor();
     await context.close();
   });
 
@@ -132,6 +158,24 @@ describe('result screens', () => {
     await page.goto(url(`/lab/reviews/${handOn.analysisId}`));
     await checkResult(page);
     await look(page, 'review');
+    await context.close();
+  });
+
+  it('the reviewer approves: the page says the report is being issued, then that it is issued', async () => {
+    const { context, page } = await signInAt(browser, 'lab', 'reviewer@calder.test');
+    // The issuance status is held at "issuing" until the waiting state has been read and checked;
+    // then the real answers come through.
+    let hold = true;
+    await page.route('**/api/lab/analyses/*/issuance', (route) =>
+      hold ? route.fulfill({ json: { analysisId: handOn.analysisId, state: 'issuing', report: null, detail: null } }) : route.fallback(),
+    );
+    await page.goto(url(`/lab/reviews/${handOn.analysisId}`));
+    await page.getByRole('button', { name: 'Approve and issue the report' }).click();
+    await page.getByRole('dialog').getByRole('button', { name: 'Approve and issue' }).click();
+    await page.getByRole('status').filter({ hasText: 'Issuing report…' }).waitFor();
+    await look(page, 'issuing', true);
+    hold = false;
+    await page.getByText(/Report [A-Z]{2,4}-\d{4}-\d{6} issued, signed and sent to the client\./).waitFor({ timeout: 60_000 });
     await context.close();
   });
 

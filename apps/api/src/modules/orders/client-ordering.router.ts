@@ -21,7 +21,7 @@ import { routeTable } from '../../core/route-table';
 import { clientOrganisationIdOf, labIdOf } from '../../core/tenancy';
 import { dataSource } from '../../db/data-source';
 import { creditBalance } from '../credits/credit-ledger';
-import { multipart } from '../samples/multipart-problem';
+import { multerLimits, multipart } from '../samples/multipart-problem';
 import type { ClientScope } from './client-views';
 import { runCpuTask } from '../../core/cpu-pool/cpu-pool';
 import { labelPackData } from './label-pack-data';
@@ -35,8 +35,7 @@ const ADMIN: Role[] = ['client-admin'];
 const scopeOf = (res: Response): ClientScope => ({ labId: labIdOf(res.locals.auth), clientOrganisationId: clientOrganisationIdOf(res.locals.auth) });
 const idOf = (res: Response): string => (res.locals.params as { id: string }).id;
 const PHOTO_LIMITS = { fileSizeBytes: LABEL_PHOTO_MAX_BYTES, files: 1 };
-const photoUpload = multipart(multer({ storage: multer.memoryStorage(), limits: { fileSize: LABEL_PHOTO_MAX_BYTES, files: 1, fields: 10, fieldSize: 8192 } })
-  .single('photo'), PHOTO_LIMITS);
+const photoUpload = multipart(multer({ storage: multer.memoryStorage(), limits: multerLimits(PHOTO_LIMITS) }).single('photo'), PHOTO_LIMITS);
 const photoOf = (req: Request) => req.file ?? undefined;
 const SamplePhotoParamsSchema = z.object({ id: z.uuid({ message: 'must be a UUID' }), sampleId: z.uuid({ message: 'must be a UUID' }) });
 const PhotoBodySchema = z.object({ photo: z.string().meta({ format: 'binary', description: 'PNG or JPEG, at most 5 MB' }) });

@@ -21,7 +21,7 @@ import { labIdOf } from '../../core/tenancy';
 import { dataSource } from '../../db/data-source';
 import { benchEquipment } from '../measurements/bench-equipment';
 import { LAB_STAFF } from '../samples/lab-roles';
-import { multipart } from '../samples/multipart-problem';
+import { multerLimits, multipart } from '../samples/multipart-problem';
 import { cellControlChart } from './cell-control';
 import { correlationStudy } from './correlation';
 import { toCsv } from './csv';
@@ -42,7 +42,7 @@ const dated = (name: string) => `${name}-${new Date().toISOString().slice(0, 10)
 /** Instruments, cells, KCl standard runs and control charts; method validation studies and downloads. */
 export function validationRouter(): Router {
   const { router, route } = routeTable();
-  const upload = multipart(multer({ storage: multer.memoryStorage(), limits: { fileSize: RUN_LIMITS.fileSizeBytes, files: RUN_LIMITS.files } }).single('file'), RUN_LIMITS);
+  const upload = multipart(multer({ storage: multer.memoryStorage(), limits: multerLimits(RUN_LIMITS) }).single('file'), RUN_LIMITS);
 
   route({ method: 'post', path: '/lab/instruments', tag, summary: 'Add an impedance analyser to the bench', roles: ['lab-admin'], body: CreateInstrumentSchema, response: BenchEquipmentSchema, status: 201 }, async (_req, res) => {
     const labId = lab(res);
