@@ -179,7 +179,7 @@ async function main(): Promise<void> {
       approvalAnswerVsLone: round(median(answers) / loneAnswer),
       budget: 'each of four concurrent approvals no slower than 1.5x a lone one',
       withinBudget: slowestMedian <= 1.5 * loneMedian,
-      note: 'one API and one worker process; the worker renders and signs in its piscina pool (CPU_WORKERS, default two threads), so four reports need four times the CPU of one: on two shared cores the end-to-end ratio follows the CPU, while the approval itself (what the reviewer waits for) stays short',
+      note: 'one API and one worker process; the worker renders and signs in its piscina pool (every core, threads kept warm). Rendering and signing now take tens of milliseconds of CPU per report (parsed fonts, word layouts and the opened credential kept per thread), about as much again goes to the API, PostgreSQL and the job itself; four issuances need four times that CPU, so on two cores shared with other work every stage of the four stretches with the load (compare the two stage lines) and the ratio follows the share of the machine the bench gets',
     });
   } finally {
     await Promise.all(children.map((c) => new Promise<void>((r) => (c.exitCode !== null ? r() : (c.once('exit', () => r()), c.kill('SIGTERM'))))));
