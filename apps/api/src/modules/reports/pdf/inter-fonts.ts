@@ -103,7 +103,7 @@ function withSharedLayouts(font: fontkit.Font): fontkit.Font {
       run = font.layout.apply(this, args);
       layouts.set(key, run);
     }
-    return run;
+    return copyRun(run);
   } as fontkit.Font['layout'];
   return shaped;
 }
