@@ -1,3 +1,4 @@
+import type { TransferListItem } from 'node:worker_threads';
 import { availableParallelism } from 'node:os';
 import { extname, join } from 'node:path';
 import { Piscina } from 'piscina';
@@ -59,12 +60,13 @@ function thePool(): Piscina {
  * Runs one task in a worker thread; a refusal the task returned becomes the same ApiError here.
  * `queueLimit`: refuse at once (503 with Retry-After) when that many tasks already wait, rather
  * than queue without bound (sign-ins use it, so a flood cannot build a backlog of hashes).
+ * `transferList`: buffers of `input` moved to the thread rather than copied (unusable here after).
  */
-export async function runCpuTask<N extends TaskName>(name: N, input: TaskInput<N>, options: { queueLimit?: number } = {}): Promise<Exclude<TaskOutput<N>, Tasks.TaskRefusal>> {
+export async function runCpuTask<N extends TaskName>(name: N, input: TaskInput<N>, options: { queueLimit?: number; transferList?: TransferListItem[] } = {}): Promise<Exclude<TaskOutput<N>, Tasks.TaskRefusal>> {
   if (options.queueLimit !== undefined && thePool().queueSize >= options.queueLimit) {
     throw new ApiError(503, 'Busy', 'The server is checking many passwords at the moment; try again in a few seconds.', { type: 'busy', headers: { 'Retry-After': '2' } });
   }
-  const result = (await thePool().run(input, { name })) as TaskOutput<N>;
+  const result = (await thePool().run(input, { name, transferList: options.transferList })) as TaskOutput<N>;
   if (result && typeof result === 'object' && 'refused' in result) {
     const r = (result as Tasks.TaskRefusal).refused;
     throw new ApiError(r.status, r.title, r.detail, { type: r.type === 'about:blank' ? undefined : r.type });

@@ -58,7 +58,6 @@ let boss: PgBoss | null = null;
 let listener: Client | null = null;
 /** Job handlers of this process that are running now (stopJobs waits for them to end). */
 let handlersRunning = 0;
-let handlersStarted = 0;
 const workersByQueue = new Map<JobName, string[]>();
 
 function connectionOptions(): { host?: string; port?: number; user?: string; password?: string; database?: string } {
@@ -113,7 +112,6 @@ export async function startJobs(options: StartJobsOptions = {}): Promise<void> {
         await b.work<Record<string, unknown>>(name, { pollingIntervalSeconds: options.pollingIntervalSeconds ?? 2, batchSize: 1, includeMetadata: true }, async ([job]) => {
           const started = Date.now();
           handlersRunning += 1;
-          handlersStarted += 1;
           try {
             const due = Math.max(new Date(job.createdOn).getTime(), new Date(job.startAfter).getTime() || 0);
             const result = await handler(job.data, { id: job.id, retryCount: job.retryCount, pickupMs: Math.max(0, started - due) });
@@ -149,13 +147,11 @@ export async function stopJobs(timeoutSeconds = 20): Promise<void> {
   await listener?.end().catch(() => undefined);
   listener = null;
   if (!b) return;
-  const startedBefore = handlersStarted;
-  const busy = handlersRunning > 0;
   await b.stop({ graceful: true, wait: true, timeout: timeoutSeconds * 1000 });
-  if (!busy && handlersStarted === startedBefore) return;
-  // pg-boss checks its workers once a second until each has left its loop; a job still running when
-  // the stop timed out keeps that check (and its timers) going after stop() resolves. Wait for our
-  // handlers, then one more check, so nothing of the job system runs after the caller moves on.
+  // pg-boss checks its workers once a second until each has left its loop: a worker that was
+  // fetching, or a job still running when the stop timed out, keeps that check (and its timers)
+  // going after stop() resolves. Wait for our handlers, then one more check, so nothing of the job
+  // system runs after the caller moves on (a test file's teardown, a process exit).
   const until = Date.now() + timeoutSeconds * 1000;
   while (handlersRunning > 0 && Date.now() < until) await new Promise((r) => setTimeout(r, 50));
   await new Promise((r) => setTimeout(r, 1100));
