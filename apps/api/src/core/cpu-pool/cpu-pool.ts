@@ -46,7 +46,8 @@ export function useEveryCoreForCpuTasks(): void {
 function thePool(): Piscina {
   pool ??= new Piscina({
     filename: workerFile(),
-    minThreads: 1,
+    // a job worker keeps every thread (warm, see warmThreadsForReports); the API starts one and adds on demand
+    minThreads: wholeMachine ? cpuWorkerCount() : 1,
     maxThreads: cpuWorkerCount(),
     idleTimeout: 60_000,
     // Queued tasks wait their turn rather than starting more threads than cores.
@@ -71,6 +72,16 @@ export async function runCpuTask<N extends TaskName>(name: N, input: TaskInput<N
     throw new ApiError(r.status, r.title, r.detail, { type: r.type === 'about:blank' ? undefined : r.type });
   }
   return result as Exclude<TaskOutput<N>, Tasks.TaskRefusal>;
+}
+
+/**
+ * Has every thread load the report renderer and render the demo report once (a job worker at
+ * start), so no approval pays for a cold thread: loading the PDF modules, parsing the fonts and
+ * laying out the report's words the first time costs about a second of CPU per thread.
+ */
+export async function warmThreadsForReports(): Promise<number[]> {
+  // each warm-up keeps its thread busy for a while, so the tasks spread over the threads
+  return Promise.all(Array.from({ length: cpuWorkerCount() }, () => runCpuTask('warmReportRenderer', undefined as never)));
 }
 
 /** Tasks waiting for a free thread and the threads running, for the benchmark and health figures. */

@@ -5,6 +5,8 @@
  * Heavy modules (PDF, engine) load on a thread's first task that needs them, so a thread that only
  * hashes passwords starts quickly.
  */
+import { performance } from 'node:perf_hooks';
+import { threadId } from 'node:worker_threads';
 import bcrypt from 'bcryptjs';
 import { move, transferableSymbol, valueSymbol } from 'piscina';
 import type { calibrate, FitResult, ModelReference, Spectrum } from '@ohmprint/spectral-engine';
@@ -183,12 +185,28 @@ export async function calibrateLibrary(input: { args: Parameters<typeof calibrat
 }
 
 /** Renders the report and signs it; the bytes come back as a Uint8Array (a transferable copy). */
-export async function renderAndSign(input: { data: ReportData; logo?: Uint8Array | null; p12: Uint8Array; passphrase: string; signature: SignatureFields }): Promise<Uint8Array> {
+/** The signed report, with the milliseconds its rendering and its signing took in this thread. */
+export async function renderAndSign(input: { data: ReportData; logo?: Uint8Array | null; p12: Uint8Array; passphrase: string; signature: SignatureFields }): Promise<{ pdf: Uint8Array; renderMs: number; signMs: number }> {
   const { renderReportPdf } = load<typeof import('../../modules/reports/pdf/render-report-pdf')>('../../modules/reports/pdf/render-report-pdf');
   const { signPdf } = load<typeof import('../../modules/reports/signing/sign-pdf')>('../../modules/reports/signing/sign-pdf');
+  const t0 = performance.now();
   const unsigned = await renderReportPdf(input.data, { logo: input.logo ? Buffer.from(input.logo) : null });
+  const t1 = performance.now();
   const signed = await signPdf(unsigned, Buffer.from(input.p12), input.passphrase, input.signature);
-  return new Uint8Array(signed.buffer, signed.byteOffset, signed.byteLength);
+  return { pdf: new Uint8Array(signed.buffer, signed.byteOffset, signed.byteLength), renderMs: t1 - t0, signMs: performance.now() - t1 };
+}
+
+/**
+ * Loads the report renderer and signer in this thread and renders the invented demo report once,
+ * so the fonts are parsed and the report's usual words laid out before the first real report
+ * (a job worker asks each thread at start). Returns the thread's id.
+ */
+export async function warmReportRenderer(): Promise<number> {
+  const { renderReportPdf } = load<typeof import('../../modules/reports/pdf/render-report-pdf')>('../../modules/reports/pdf/render-report-pdf');
+  load<typeof import('../../modules/reports/signing/sign-pdf')>('../../modules/reports/signing/sign-pdf');
+  const { demoReportData } = load<typeof import('../../modules/reports/pdf/demo-report-content')>('../../modules/reports/pdf/demo-report-content');
+  await renderReportPdf(demoReportData());
+  return threadId;
 }
 
 export async function selfSignedCredential(input: { labName: string; passphrase: string }): Promise<Uint8Array> {

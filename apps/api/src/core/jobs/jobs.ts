@@ -34,7 +34,14 @@ export const QUEUES: Record<JobName, QueueSettings> = {
 const WAKE_CHANNEL = 'ohmprint_jobs';
 export const JOB_SCHEMA = 'pgboss';
 
-export type JobHandler = (payload: Record<string, unknown>, job: { id: string; retryCount: number }) => Promise<unknown>;
+export interface JobInfo {
+  id: string;
+  retryCount: number;
+  /** Milliseconds from the job's creation (or its retry's due time) until this worker took it. */
+  pickupMs: number;
+}
+
+export type JobHandler = (payload: Record<string, unknown>, job: JobInfo) => Promise<unknown>;
 
 export interface StartJobsOptions {
   /** Handlers to run in this process (a worker); none for an API process that only enqueues. */
@@ -106,7 +113,8 @@ export async function startJobs(options: StartJobsOptions = {}): Promise<void> {
           const started = Date.now();
           handlersRunning += 1;
           try {
-            const result = await handler(job.data, { id: job.id, retryCount: job.retryCount });
+            const due = Math.max(new Date(job.createdOn).getTime(), new Date(job.startAfter).getTime() || 0);
+            const result = await handler(job.data, { id: job.id, retryCount: job.retryCount, pickupMs: Math.max(0, started - due) });
             logger.info({ queue: name, jobId: job.id, ms: Date.now() - started }, 'job done');
             return result;
           } catch (err) {
@@ -168,6 +176,16 @@ export async function enqueue(manager: EntityManager | null, name: JobName, payl
   if (manager) await manager.query(wake, [name]);
   else await dataSource.query(wake, [name]);
   return id;
+}
+
+/**
+ * Fails a job inside the caller's transaction, as if its handler had thrown: pg-boss retries it
+ * (on any worker, after the queue's retry delay) while attempts remain.
+ */
+export async function failJob(manager: EntityManager, name: JobName, id: string, message: string): Promise<void> {
+  if (!boss) throw new Error(`jobs are not started in this process (fail ${name})`);
+  const db = { executeSql: async (text: string, values: unknown[]) => ({ rows: toRows(await manager.query(text, values)) }) };
+  await boss.fail(name, id, { message }, { db });
 }
 
 /** TypeORM answers an INSERT … RETURNING with its rows, an UPDATE with [rows, count]. */
