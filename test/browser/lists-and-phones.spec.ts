@@ -73,6 +73,16 @@ async function pressed(toggle: Locator, withinMs = 15_000): Promise<boolean> {
   }
 }
 
+/** What a search field shows once the page has caught up with its address (as `pressed`, after Back). */
+async function shows(field: Locator, value: string, withinMs = 15_000): Promise<string> {
+  const until = Date.now() + withinMs;
+  for (;;) {
+    const shown = await field.inputValue();
+    if (shown === value || Date.now() > until) return shown;
+    await new Promise((r) => setTimeout(r, 100));
+  }
+}
+
 async function look(page: Page, name: string, fullPage = false): Promise<void> {
   await page.screenshot({ path: join(ARTIFACTS, `lists-${name}.png`), fullPage });
   for (const scheme of ['light', 'dark'] as const) {
@@ -119,7 +129,7 @@ describe('lists keep their state in the URL, and phones keep the status in view'
     await page.goBack();
     await page.waitForURL((u) => !u.searchParams.has('q'));
     expect(query(page).get('status')).toBe('revoked');
-    expect(await page.getByLabel('Search by report number, sample or client').inputValue()).toBe('');
+    expect(await shows(page.getByLabel('Search by report number, sample or client'), '')).toBe('');
     await page.goBack();
     await page.waitForURL((u) => !u.searchParams.has('status'));
     expect(await pressed(page.getByRole('radiogroup', { name: 'Filter by status' }).getByRole('radio', { name: 'All', exact: true }))).toBe(true);

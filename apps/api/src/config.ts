@@ -63,6 +63,8 @@ const EnvSchema = z.object({
   UPLOAD_TMP_DIR: z.string().min(1).optional(),
   /** A library version with more included lots than this is published by a worker (202 + status), not on the request. */
   LIBRARY_PUBLISH_JOB_LOTS: z.coerce.number().int().min(0).default(500),
+  /** A running report issuance whose worker no longer holds its approval is handed on after this long. */
+  ISSUANCE_STALLED_AFTER_SECONDS: z.coerce.number().int().min(1).max(3600).default(30),
   /** An analysis against a library version with more included lots than this runs on a worker (202 + status). */
   ANALYSIS_JOB_LOTS: z.coerce.number().int().min(0).default(20000),
   SHUTDOWN_TIMEOUT_MS: z.coerce.number().int().min(100).default(10000),
@@ -143,7 +145,7 @@ export function buildConfig(env: Env) {
     libraryCacheMaxBytes: env.LIBRARY_CACHE_MAX_MB * 1024 * 1024,
     /** Where uploads stream to, each in a private folder removed after its answer (default: the OS temp folder). */
     uploadTmpDir: env.UPLOAD_TMP_DIR ?? tmpdir(),
-    jobs: { libraryPublishLots: env.LIBRARY_PUBLISH_JOB_LOTS, analysisLots: env.ANALYSIS_JOB_LOTS },
+    jobs: { libraryPublishLots: env.LIBRARY_PUBLISH_JOB_LOTS, analysisLots: env.ANALYSIS_JOB_LOTS, issuanceStalledAfterSeconds: env.ISSUANCE_STALLED_AFTER_SECONDS },
     shutdownTimeoutMs: env.SHUTDOWN_TIMEOUT_MS,
     dataDir: env.OHMPRINT_DATA_DIR,
     portalsDir: env.PORTALS_DIR,

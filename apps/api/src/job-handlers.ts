@@ -12,7 +12,7 @@ import { issueApprovedReport, type ReportIssuancePayload } from './modules/revie
  */
 export function jobHandlers(options: { email: boolean }): Partial<Record<JobName, JobHandler>> {
   const handlers: Partial<Record<JobName, JobHandler>> = {
-    'report-issue': (payload) => issueApprovedReport(payload as unknown as ReportIssuancePayload),
+    'report-issue': (payload, job) => issueApprovedReport(payload as unknown as ReportIssuancePayload, { pickupMs: job.pickupMs }),
     'analysis-run': (payload) => runRequestedAnalysis(payload as unknown as AnalysisRunPayload),
     'library-publish': (payload) => publishLibraryVersion(payload as unknown as LibraryPublishPayload),
   };

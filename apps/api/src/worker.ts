@@ -1,5 +1,7 @@
 import { config } from './config';
-import { closeCpuPool, useEveryCoreForCpuTasks } from './core/cpu-pool/cpu-pool';
+import { closeCpuPool, useEveryCoreForCpuTasks, warmThreadsForReports } from './core/cpu-pool/cpu-pool';
+import { closeReportNumberConnections } from './modules/reports/report-number-connections';
+import { startStalledIssuanceSweep } from './modules/reviews/stalled-issuances';
 import { startJobs, stopJobs } from './core/jobs/jobs';
 import { logger } from './core/logger';
 import { dataSource } from './db/data-source';
@@ -14,8 +16,14 @@ import { startOutboxWorker } from './modules/mail/outbox-worker';
  */
 async function main(): Promise<void> {
   useEveryCoreForCpuTasks();
+  const warming = warmThreadsForReports().then(
+    (threads) => logger.info({ threads }, 'report renderer warm in every thread'),
+    (err: unknown) => logger.warn({ err }, 'warming the report renderer failed; the first reports warm it'),
+  );
   await dataSource.initialize();
   await startJobs({ handlers: jobHandlers({ email: config.mail.workerEnabled }), supervise: true, maxConnections: 6 });
+  // An issuance whose worker died mid-job goes to another worker within seconds, not at the queue's expiry.
+  const stalled = startStalledIssuanceSweep(config.jobs.issuanceStalledAfterSeconds);
   // The sweep sends what no job did: retries after an outage, messages queued without a job.
   const sweep = config.mail.workerEnabled ? startOutboxWorker(dataSource, createMailTransport()) : undefined;
   logger.info('Ohmprint worker running');
@@ -32,8 +40,11 @@ async function main(): Promise<void> {
     hardStop.unref();
     void (async () => {
       await sweep?.stop();
+      await stalled.stop();
       await stopJobs(Math.max(1, Math.floor(config.shutdownTimeoutMs / 1000)));
+      await warming;
       await closeCpuPool();
+      await closeReportNumberConnections();
       await dataSource.destroy();
       logger.info('worker stopped');
       process.exit(0);

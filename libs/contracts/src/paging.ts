@@ -9,6 +9,18 @@ export const MAX_PAGE_SIZE = 100;
 export const TOTAL_CAP = 10_000;
 
 /**
+ * A search (`q`) counts its matches only up to this many: past it `total` is this number and
+ * `totalIsLowerBound` is true ("1,000+ matches"). A broad search then costs at most this many
+ * matching rows, since no one pages through a thousand matches to find one.
+ */
+export const SEARCH_TOTAL_CAP = 1_000;
+
+/** How far a list with this query counts its rows: `SEARCH_TOTAL_CAP` for a search, else `TOTAL_CAP`. */
+export function totalCapFor(query: { q?: string }): number {
+  return query.q ? SEARCH_TOTAL_CAP : TOTAL_CAP;
+}
+
+/**
  * The query every list accepts: `?q=&sort=&dir=&page=&pageSize=`.
  * `sortFields` names the columns a list may be sorted by; the first is the default.
  */
@@ -24,7 +36,8 @@ export function listQuery<const S extends readonly [string, ...string[]]>(sortFi
 
 /**
  * A page of a list: `{ items, total, page, pageSize, totalIsLowerBound? }`. When
- * `totalIsLowerBound` is true there are more than `total` matching rows (see `TOTAL_CAP`).
+ * `totalIsLowerBound` is true there are more than `total` matching rows (see `TOTAL_CAP` and
+ * `SEARCH_TOTAL_CAP`).
  */
 export function pageOf<T extends z.ZodType>(item: T) {
   return z.object({
@@ -41,11 +54,11 @@ export interface Page<T> {
   total: number;
   page: number;
   pageSize: number;
-  /** true when there are more than `total` rows (the count stopped at `TOTAL_CAP`) */
+  /** true when there are more than `total` rows (the count stopped at `TOTAL_CAP`, or `SEARCH_TOTAL_CAP` for a search) */
   totalIsLowerBound?: boolean;
 }
 
-/** "1,234" or "10,000+" for a page's total. */
+/** "1,234", "1,000+" or "10,000+" for a page's total. */
 export function totalLabel(page: Pick<Page<unknown>, 'total' | 'totalIsLowerBound'>): string {
   return `${page.total.toLocaleString('en-GB')}${page.totalIsLowerBound ? '+' : ''}`;
 }

@@ -1,5 +1,7 @@
 import type { EntityManager } from 'typeorm';
-import { TOTAL_CAP, type ListQuery, type Page } from '@ohmprint/contracts';
+import { SEARCH_TOTAL_CAP, TOTAL_CAP, type ListQuery, type Page } from '@ohmprint/contracts';
+
+export { totalCapFor } from '@ohmprint/contracts';
 
 /** Offset and limit for a validated list query. */
 export function pageParams(query: ListQuery): { skip: number; take: number } {
@@ -15,34 +17,47 @@ export function escapeLike(text: string): string {
   return `%${text.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
 }
 
+/** A list's total as counted: the rows found (at most `cap + 1`) and the cap it was counted to. */
+export interface CappedTotal {
+  counted: number;
+  cap: number;
+}
+
 /**
  * How many rows `fromWhere` (a `FROM … WHERE …` clause) matches, counting no further than
- * `TOTAL_CAP + 1`: a list's total costs at most that many index entries, however long the list.
+ * `cap + 1`: a list's total costs at most that many index entries, however long the list. Pass
+ * `totalCapFor(query)`, so a search stops at a thousand (`SEARCH_TOTAL_CAP`).
  */
-export async function cappedCount(manager: EntityManager, fromWhere: string, params: unknown[]): Promise<number> {
-  const [row]: { n: number }[] = await manager.query(`SELECT count(*)::int AS n FROM (SELECT 1 ${fromWhere} LIMIT ${TOTAL_CAP + 1}) capped`, params);
-  return row.n;
+export async function cappedCount(manager: EntityManager, fromWhere: string, params: unknown[], cap: number = TOTAL_CAP): Promise<CappedTotal> {
+  const [row]: { n: number }[] = await manager.query(`SELECT count(*)::int AS n FROM (SELECT 1 ${fromWhere} LIMIT ${cap + 1}) capped`, params);
+  return { counted: row.n, cap };
 }
 
-/** A page whose total came from `cappedCount`: past the cap it says "at least `TOTAL_CAP`". */
-export function toCappedPage<T>(items: T[], counted: number, query: ListQuery): Page<T> {
-  return counted > TOTAL_CAP ? { ...toPage(items, TOTAL_CAP, query), totalIsLowerBound: true } : toPage(items, counted, query);
+/** A page whose total came from `cappedCount`: past its cap it says "at least the cap" ("1,000+"). */
+export function toCappedPage<T>(items: T[], total: CappedTotal, query: ListQuery): Page<T> {
+  return total.counted > total.cap ? { ...toPage(items, total.cap, query), totalIsLowerBound: true } : toPage(items, total.counted, query);
 }
-
-/** Below this many matches a search is "sparse". */
-export const SPARSE_MATCHES = 200;
 
 /**
- * The ids a search matches when they are few: `arms` is a UNION ALL of id queries, each on its own
- * (trigram) index, read no further than `SPARSE_MATCHES`. Fewer than that: the ids, which the list
- * then fetches by primary key (`id = ANY($n::uuid[])`, reusing the search text's parameter slot).
- * Otherwise null: a broad search is best answered by walking the list's sort index and testing
- * each row, since the first page's rows come within the first few hundred.
+ * Below this many matches a search is "sparse": as many as a search counts (`SEARCH_TOTAL_CAP`),
+ * so a search that is not sparse is one whose total reads "1,000+" anyway, and its rows are dense
+ * enough along the sort index that a page and the capped count stop early.
  */
-export async function sparseSearchIds(manager: EntityManager, arms: string, params: unknown[]): Promise<string[] | null> {
+export const SPARSE_MATCHES = SEARCH_TOTAL_CAP;
+
+/**
+ * The ids a search matches when they are few: each of `arms` is an id query on its own (trigram)
+ * index, and each is read no further than `SPARSE_MATCHES` (a LIMIT of its own, so the planner
+ * picks a plan that stops early rather than hashing whole tables). Fewer than that in all: the ids,
+ * which the list then fetches by primary key (`id = ANY($n::uuid[])`, reusing the search text's
+ * parameter slot). Otherwise null: a broad search is best answered by walking the list's sort index
+ * and testing each row, since at least one row in sixty of a 60,000-row list matches.
+ */
+export async function sparseSearchIds(manager: EntityManager, arms: readonly string[], params: unknown[]): Promise<string[] | null> {
+  const union = arms.map((arm) => `(${arm} LIMIT ${SPARSE_MATCHES})`).join(' UNION ALL ');
   // only the parameters the arms use are sent (PostgreSQL refuses one it cannot type), renumbered
-  const used = [...new Set([...arms.matchAll(/\$(\d+)/g)].map((m) => Number(m[1])))].sort((a, b) => a - b);
-  const sql = arms.replace(/\$(\d+)/g, (_, n: string) => `$${used.indexOf(Number(n)) + 1}`);
-  const rows: { id: string }[] = await manager.query(`SELECT id FROM (${sql} LIMIT ${SPARSE_MATCHES}) arms(id)`, used.map((n) => params[n - 1]));
+  const used = [...new Set([...union.matchAll(/\$(\d+)/g)].map((m) => Number(m[1])))].sort((a, b) => a - b);
+  const sql = union.replace(/\$(\d+)/g, (_, n: string) => `$${used.indexOf(Number(n)) + 1}`);
+  const rows: { id: string }[] = await manager.query(`SELECT id FROM (${sql}) arms(id) LIMIT ${SPARSE_MATCHES}`, used.map((n) => params[n - 1]));
   return rows.length < SPARSE_MATCHES ? [...new Set(rows.map((r) => r.id))] : null;
 }

@@ -25,8 +25,8 @@ export async function probeOffThread<T>(app: Express, taskName: Parameters<typeo
   let tasks = 0;
   let healthAnswersDuringTask = 0;
   const probes: Promise<void>[] = [];
-  const spy = jest.spyOn(cpuPool, 'runCpuTask').mockImplementation(((name: string, input: unknown) => {
-    const running = (real as (n: string, i: unknown) => Promise<unknown>)(name, input);
+  const spy = jest.spyOn(cpuPool, 'runCpuTask').mockImplementation(((name: string, input: unknown, options?: unknown) => {
+    const running = (real as (n: string, i: unknown, o?: unknown) => Promise<unknown>)(name, input, options);
     if (name === taskName) {
       tasks += 1;
       let done = false;

@@ -3,6 +3,7 @@ import request from 'supertest';
 import type { Role, SessionResponse } from '@ohmprint/contracts';
 import { createApp } from '../app';
 import { closeCpuPool } from '../core/cpu-pool/cpu-pool';
+import { closeReportNumberConnections } from '../modules/reports/report-number-connections';
 import { QUEUES, startJobs, stopJobs, unfinishedJobs, type JobName } from '../core/jobs/jobs';
 import { config } from '../config';
 import { jobHandlers } from '../job-handlers';
@@ -55,6 +56,7 @@ export function useTestApp(): TestApp {
   afterAll(async () => {
     await stopJobs(5);
     await closeCpuPool();
+    await closeReportNumberConnections();
     if (dataSource.isInitialized) await dataSource.destroy();
     if (databaseName) await dropTestDatabase(databaseName);
   });

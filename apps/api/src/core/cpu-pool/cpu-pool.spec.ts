@@ -34,7 +34,7 @@ describe('the CPU worker pool', () => {
 
   it('carries a refusal from a worker back as the same ApiError', async () => {
     // a library as it crosses into a worker (no lots), and no replicates: the analysis refuses
-    const library = { versionId: 'refusal-test', labId: 'lab', method: { minimumReplicates: 1 }, grid: new Float64Array([1, 10, 100]), packed: new Float64Array(0), lotKeys: '' };
+    const library = { versionId: 'refusal-test', labId: 'lab', loadKey: 'refusal-test-1', method: { minimumReplicates: 1 }, grid: new Float64Array([1, 10, 100]), packed: new Float64Array(0), lotKeys: '' };
     const refusal = runCpuTask('analyse', { replicates: [], library: library as never });
     await expect(refusal).rejects.toBeInstanceOf(ApiError);
     await expect(refusal).rejects.toMatchObject({ status: 409, type: 'urn:ohmprint:problem:conflict' });

@@ -1,5 +1,5 @@
-import { availableParallelism } from 'node:os';
 import type { TransferListItem } from 'node:worker_threads';
+import { availableParallelism } from 'node:os';
 import { extname, join } from 'node:path';
 import { Piscina } from 'piscina';
 import { config } from '../../config';
@@ -46,7 +46,8 @@ export function useEveryCoreForCpuTasks(): void {
 function thePool(): Piscina {
   pool ??= new Piscina({
     filename: workerFile(),
-    minThreads: 1,
+    // a job worker keeps every thread (warm, see warmThreadsForReports); the API starts one and adds on demand
+    minThreads: wholeMachine ? cpuWorkerCount() : 1,
     maxThreads: cpuWorkerCount(),
     idleTimeout: 60_000,
     // Queued tasks wait their turn rather than starting more threads than cores.
@@ -59,21 +60,28 @@ function thePool(): Piscina {
  * Runs one task in a worker thread; a refusal the task returned becomes the same ApiError here.
  * `queueLimit`: refuse at once (503 with Retry-After) when that many tasks already wait, rather
  * than queue without bound (sign-ins use it, so a flood cannot build a backlog of hashes).
+ * `transferList`: buffers of `input` moved to the thread rather than copied (unusable here after).
  */
-export async function runCpuTask<N extends TaskName>(
-  name: N,
-  input: TaskInput<N>,
-  options: { queueLimit?: number; transferList?: TransferListItem[] } = {},
-): Promise<Exclude<TaskOutput<N>, Tasks.TaskRefusal>> {
+export async function runCpuTask<N extends TaskName>(name: N, input: TaskInput<N>, options: { queueLimit?: number; transferList?: TransferListItem[] } = {}): Promise<Exclude<TaskOutput<N>, Tasks.TaskRefusal>> {
   if (options.queueLimit !== undefined && thePool().queueSize >= options.queueLimit) {
     throw new ApiError(503, 'Busy', 'The server is checking many passwords at the moment; try again in a few seconds.', { type: 'busy', headers: { 'Retry-After': '2' } });
   }
-  const result = (await thePool().run(input, { name, ...(options.transferList ? { transferList: options.transferList } : {}) })) as TaskOutput<N>;
+  const result = (await thePool().run(input, { name, transferList: options.transferList })) as TaskOutput<N>;
   if (result && typeof result === 'object' && 'refused' in result) {
     const r = (result as Tasks.TaskRefusal).refused;
     throw new ApiError(r.status, r.title, r.detail, { type: r.type === 'about:blank' ? undefined : r.type });
   }
   return result as Exclude<TaskOutput<N>, Tasks.TaskRefusal>;
+}
+
+/**
+ * Has every thread load the report renderer and render the demo report once (a job worker at
+ * start), so no approval pays for a cold thread: loading the PDF modules, parsing the fonts and
+ * laying out the report's words the first time costs about a second of CPU per thread.
+ */
+export async function warmThreadsForReports(): Promise<number[]> {
+  // each warm-up keeps its thread busy for a while, so the tasks spread over the threads
+  return Promise.all(Array.from({ length: cpuWorkerCount() }, () => runCpuTask('warmReportRenderer', undefined as never)));
 }
 
 /** Tasks waiting for a free thread and the threads running, for the benchmark and health figures. */

@@ -5,13 +5,16 @@
  * Heavy modules (PDF, engine) load on a thread's first task that needs them, so a thread that only
  * hashes passwords starts quickly.
  */
+import { performance } from 'node:perf_hooks';
+import { threadId } from 'node:worker_threads';
 import bcrypt from 'bcryptjs';
-import { move } from 'piscina';
+import { move, transferableSymbol, valueSymbol } from 'piscina';
 import type { calibrate, ExportMetadata, FitResult, ModelReference, Spectrum } from '@ohmprint/spectral-engine';
 import type { KramersKronigSummary } from '@ohmprint/contracts';
 import type { ComputedAnalysis } from '../../modules/analyses/compute-analysis';
 import type { OtherLibrary } from '../../modules/analyses/does-not-belong';
-import type { PackedLibrary } from '../../modules/libraries/library-packing';
+import type { LibraryHandOver } from '../../modules/libraries/library-packing';
+import type { PublishedLibrary } from '../../modules/libraries/published-library';
 import type { Replicate } from '../../modules/measurements/replicate.entity';
 import type { LabelPackData } from '../../modules/orders/label-pack-data';
 import type { ReportData } from '../../modules/reports/pdf/report-data';
@@ -91,19 +94,97 @@ export async function parseExportFile(input: { file: ExportFile; maxPoints: numb
   }
 }
 
-export async function analyse(input: { replicates: Replicate[]; library: PackedLibrary; others?: (Omit<OtherLibrary, 'library'> & { library: PackedLibrary })[] }): Promise<ComputedAnalysis | TaskRefusal> {
+/** An analysis as it comes back from a worker: the small result, and every lot's distance packed and transferred. */
+export interface AnalysedInWorker {
+  result: ComputedAnalysis['result'];
+  sampleSpectrum: ComputedAnalysis['sampleSpectrum'];
+  lotCount: number;
+  /** Every lot's distance nearest first, as stored (`encodeRanked`), moved rather than copied. */
+  rankedBytes: Uint8Array;
+  /** Every lot's distance in the version's lot order, only when asked (`lotOrder`; reproduce compares them). */
+  lotDistances: Float64Array | null;
+  /** This thread's stages in milliseconds. */
+  workerMs: Record<string, number>;
+}
+
+/** The libraries a reference named that this thread does not keep: the caller sends them whole. */
+export interface MissingLibraries {
+  missing: string[];
+}
+
+/**
+ * Scores the sample against its library and looks at the lab's other libraries. Each library
+ * arrives whole (then kept, up to `keepBytes` in all) or as a reference to one this thread keeps;
+ * a reference to one it lacks answers `{ missing }` without computing anything.
+ */
+export async function analyse(input: {
+  replicates: Replicate[];
+  library: LibraryHandOver;
+  others?: (Omit<OtherLibrary, 'library'> & { library: LibraryHandOver })[];
+  keepBytes?: number;
+  lotOrder?: boolean;
+}): Promise<AnalysedInWorker | MissingLibraries | TaskRefusal> {
   const { computeAnalysis } = load<typeof import('../../modules/analyses/compute-analysis')>('../../modules/analyses/compute-analysis');
-  const { unpackLibrary } = load<typeof import('../../modules/libraries/library-packing')>('../../modules/libraries/library-packing');
+  const { receiveLibrary } = load<typeof import('../../modules/libraries/library-packing')>('../../modules/libraries/library-packing');
   try {
     const { encodeRanked } = load<typeof import('../../modules/analyses/lot-distances')>('../../modules/analyses/lot-distances');
-    const others = (input.others ?? []).map((o) => ({ ...o, library: unpackLibrary(o.library) }));
-    const computed = computeAnalysis(input.replicates, unpackLibrary(input.library), others);
-    // Every lot's distance packed for storage here too, so the request thread only hands the bytes on.
+    const t0 = performance.now();
+    const library = receiveLibrary(input.library, input.keepBytes);
+    const others = (input.others ?? []).map((o) => ({ ...o, library: receiveLibrary(o.library, input.keepBytes) }));
+    const missing = [input.library, ...(input.others ?? []).map((o) => o.library)].filter((_, i) => (i === 0 ? library : others[i - 1].library) === null).map((h) => h.versionId);
+    if (missing.length) return { missing };
+    const t1 = performance.now();
+    const inside: Record<string, number> = {};
+    const computed = computeAnalysis(input.replicates, library as PublishedLibrary, others as OtherLibrary[], inside);
+    const t2 = performance.now();
+    // Every lot's distance packed for storage here, so the request thread only hands the bytes on.
     const ranked = encodeRanked(computed.ranking, computed.lotDistances);
-    return { ...computed, rankedBytes: new Uint8Array(ranked.buffer, ranked.byteOffset, ranked.byteLength) };
+    const rankedBytes = ranked.byteOffset === 0 && ranked.byteLength === ranked.buffer.byteLength ? new Uint8Array(ranked.buffer) : Uint8Array.prototype.slice.call(ranked);
+    const lotDistances = input.lotOrder ? computed.lotDistances : null;
+    const t3 = performance.now();
+    const answer: AnalysedInWorker = {
+      result: computed.result,
+      sampleSpectrum: computed.sampleSpectrum,
+      lotCount: computed.lotDistances.length,
+      rankedBytes,
+      lotDistances,
+      workerMs: { receive: t1 - t0, compute: t2 - t1, ...Object.fromEntries(Object.entries(inside).map(([k, ms]) => [`compute-${k}`, ms])), encode: t3 - t2 },
+    };
+    return withTransfers(answer, [rankedBytes.buffer as ArrayBuffer, ...(lotDistances ? [lotDistances.buffer as ArrayBuffer] : [])]);
   } catch (err) {
     return refusalOf(err);
   }
+}
+
+/**
+ * A published library's spectra as they came from the database (float64 little-endian, lot after
+ * lot), read into one shared array the request thread and every worker use in place. The bytes
+ * arrive by transfer; on a little-endian machine reading them is one copy.
+ */
+export async function decodeLibrarySpectra(input: { bytes: Uint8Array; values: number }): Promise<Float64Array> {
+  const { bytes, values } = input;
+  if (bytes.byteLength !== 8 * values) throw new RangeError(`${values} spectrum values need ${8 * values} bytes, not ${bytes.byteLength}`);
+  const out = new Float64Array(new SharedArrayBuffer(Math.max(8, 8 * values))).subarray(0, values);
+  if (LITTLE_ENDIAN && bytes.byteOffset % 8 === 0) out.set(new Float64Array(bytes.buffer, bytes.byteOffset, values));
+  else {
+    const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+    for (let i = 0; i < values; i++) out[i] = view.getFloat64(8 * i, true);
+  }
+  return out;
+}
+const LITTLE_ENDIAN = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1;
+
+/** `value` posted back with `buffers` moved rather than copied (they must be its own, unshared). */
+function withTransfers<T extends object>(value: T, buffers: ArrayBuffer[]): T {
+  const transferable = {
+    get [transferableSymbol]() {
+      return buffers;
+    },
+    get [valueSymbol]() {
+      return value;
+    },
+  };
+  return move(transferable as unknown as ArrayBuffer) as unknown as T;
 }
 
 /** How often a calibration reports its progress on `progress` (and once when the comparison is done). */
@@ -134,12 +215,28 @@ export async function calibrateLibrary(input: { args: Parameters<typeof calibrat
 }
 
 /** Renders the report and signs it; the bytes come back as a Uint8Array (a transferable copy). */
-export async function renderAndSign(input: { data: ReportData; logo?: Uint8Array | null; p12: Uint8Array; passphrase: string; signature: SignatureFields }): Promise<Uint8Array> {
+/** The signed report, with the milliseconds its rendering and its signing took in this thread. */
+export async function renderAndSign(input: { data: ReportData; logo?: Uint8Array | null; p12: Uint8Array; passphrase: string; signature: SignatureFields }): Promise<{ pdf: Uint8Array; renderMs: number; signMs: number }> {
   const { renderReportPdf } = load<typeof import('../../modules/reports/pdf/render-report-pdf')>('../../modules/reports/pdf/render-report-pdf');
   const { signPdf } = load<typeof import('../../modules/reports/signing/sign-pdf')>('../../modules/reports/signing/sign-pdf');
+  const t0 = performance.now();
   const unsigned = await renderReportPdf(input.data, { logo: input.logo ? Buffer.from(input.logo) : null });
+  const t1 = performance.now();
   const signed = await signPdf(unsigned, Buffer.from(input.p12), input.passphrase, input.signature);
-  return new Uint8Array(signed.buffer, signed.byteOffset, signed.byteLength);
+  return { pdf: new Uint8Array(signed.buffer, signed.byteOffset, signed.byteLength), renderMs: t1 - t0, signMs: performance.now() - t1 };
+}
+
+/**
+ * Loads the report renderer and signer in this thread and renders the invented demo report once,
+ * so the fonts are parsed and the report's usual words laid out before the first real report
+ * (a job worker asks each thread at start). Returns the thread's id.
+ */
+export async function warmReportRenderer(): Promise<number> {
+  const { renderReportPdf } = load<typeof import('../../modules/reports/pdf/render-report-pdf')>('../../modules/reports/pdf/render-report-pdf');
+  load<typeof import('../../modules/reports/signing/sign-pdf')>('../../modules/reports/signing/sign-pdf');
+  const { demoReportData } = load<typeof import('../../modules/reports/pdf/demo-report-content')>('../../modules/reports/pdf/demo-report-content');
+  await renderReportPdf(demoReportData());
+  return threadId;
 }
 
 export async function selfSignedCredential(input: { labName: string; passphrase: string }): Promise<Uint8Array> {

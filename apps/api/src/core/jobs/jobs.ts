@@ -34,7 +34,14 @@ export const QUEUES: Record<JobName, QueueSettings> = {
 const WAKE_CHANNEL = 'ohmprint_jobs';
 export const JOB_SCHEMA = 'pgboss';
 
-export type JobHandler = (payload: Record<string, unknown>, job: { id: string; retryCount: number }) => Promise<unknown>;
+export interface JobInfo {
+  id: string;
+  retryCount: number;
+  /** Milliseconds from the job's creation (or its retry's due time) until this worker took it. */
+  pickupMs: number;
+}
+
+export type JobHandler = (payload: Record<string, unknown>, job: JobInfo) => Promise<unknown>;
 
 export interface StartJobsOptions {
   /** Handlers to run in this process (a worker); none for an API process that only enqueues. */
@@ -51,7 +58,6 @@ let boss: PgBoss | null = null;
 let listener: Client | null = null;
 /** Job handlers of this process that are running now (stopJobs waits for them to end). */
 let handlersRunning = 0;
-let handlersStarted = 0;
 const workersByQueue = new Map<JobName, string[]>();
 
 function connectionOptions(): { host?: string; port?: number; user?: string; password?: string; database?: string } {
@@ -106,9 +112,9 @@ export async function startJobs(options: StartJobsOptions = {}): Promise<void> {
         await b.work<Record<string, unknown>>(name, { pollingIntervalSeconds: options.pollingIntervalSeconds ?? 2, batchSize: 1, includeMetadata: true }, async ([job]) => {
           const started = Date.now();
           handlersRunning += 1;
-          handlersStarted += 1;
           try {
-            const result = await handler(job.data, { id: job.id, retryCount: job.retryCount });
+            const due = Math.max(new Date(job.createdOn).getTime(), new Date(job.startAfter).getTime() || 0);
+            const result = await handler(job.data, { id: job.id, retryCount: job.retryCount, pickupMs: Math.max(0, started - due) });
             logger.info({ queue: name, jobId: job.id, ms: Date.now() - started }, 'job done');
             return result;
           } catch (err) {
@@ -141,13 +147,11 @@ export async function stopJobs(timeoutSeconds = 20): Promise<void> {
   await listener?.end().catch(() => undefined);
   listener = null;
   if (!b) return;
-  const startedBefore = handlersStarted;
-  const busy = handlersRunning > 0;
   await b.stop({ graceful: true, wait: true, timeout: timeoutSeconds * 1000 });
-  if (!busy && handlersStarted === startedBefore) return;
-  // pg-boss checks its workers once a second until each has left its loop; a job still running when
-  // the stop timed out keeps that check (and its timers) going after stop() resolves. Wait for our
-  // handlers, then one more check, so nothing of the job system runs after the caller moves on.
+  // pg-boss checks its workers once a second until each has left its loop: a worker that was
+  // fetching, or a job still running when the stop timed out, keeps that check (and its timers)
+  // going after stop() resolves. Wait for our handlers, then one more check, so nothing of the job
+  // system runs after the caller moves on (a test file's teardown, a process exit).
   const until = Date.now() + timeoutSeconds * 1000;
   while (handlersRunning > 0 && Date.now() < until) await new Promise((r) => setTimeout(r, 50));
   await new Promise((r) => setTimeout(r, 1100));
@@ -172,6 +176,16 @@ export async function enqueue(manager: EntityManager | null, name: JobName, payl
   if (manager) await manager.query(wake, [name]);
   else await dataSource.query(wake, [name]);
   return id;
+}
+
+/**
+ * Fails a job inside the caller's transaction, as if its handler had thrown: pg-boss retries it
+ * (on any worker, after the queue's retry delay) while attempts remain.
+ */
+export async function failJob(manager: EntityManager, name: JobName, id: string, message: string): Promise<void> {
+  if (!boss) throw new Error(`jobs are not started in this process (fail ${name})`);
+  const db = { executeSql: async (text: string, values: unknown[]) => ({ rows: toRows(await manager.query(text, values)) }) };
+  await boss.fail(name, id, { message }, { db });
 }
 
 /** TypeORM answers an INSERT … RETURNING with its rows, an UPDATE with [rows, count]. */

@@ -15,49 +15,62 @@ import { analyseOffThread } from './analyse-off-thread';
 import { otherPublishedLibraries } from './does-not-belong';
 import { requireRevokedIfReported } from './revoked-report';
 import { storedLotDistances, storeLotDistances } from './lot-distances';
+import { timed } from './analysis-stages';
 
 /** Runs a new analysis of the sample's included replicates; an earlier draft is superseded. */
 export async function runAnalysis(manager: EntityManager, auth: AuthContext, labId: string, sampleId: string, libraryVersionId: string): Promise<string> {
-  const sample = await findLabSample(manager, labId, sampleId, true);
-  requireSampleState(sample, ['measuring', 'analysed', 'returned-for-rework', 'reported'], 'running an analysis');
-  await requireRevokedIfReported(manager, sample, 'running a new analysis');
-  const library = await publishedLibrary(manager, labId, libraryVersionId);
-  const [{ status }] = await manager.query(`SELECT status FROM library_version WHERE id = $1 AND lab_id = $2`, [libraryVersionId, labId]);
+  const sample = await timed('sample-checks', async () => {
+    const found = await findLabSample(manager, labId, sampleId, true);
+    requireSampleState(found, ['measuring', 'analysed', 'returned-for-rework', 'reported'], 'running an analysis');
+    await requireRevokedIfReported(manager, found, 'running a new analysis');
+    return found;
+  });
+  const library = await timed('library-load', () => publishedLibrary(manager, labId, libraryVersionId));
+  // the version's status read fresh (a cached library may have been retired since), with the order, in one round trip
+  const [{ status, ...order }] = await timed('version-and-order', () =>
+    manager.query(
+      `SELECT v.status, o.product_id, o.client_organisation_id FROM library_version v JOIN test_order o ON o.id = $3 AND o.lab_id = v.lab_id WHERE v.id = $1 AND v.lab_id = $2`,
+      [libraryVersionId, labId, sample.orderId],
+    ),
+  );
   if (status === 'retired') {
     throw new ApiError(409, 'Library version retired', `Library version ${library.version} of ${library.productName} is retired; analyse against a current version.`, { type: 'library-version-retired' });
   }
-  const [order] = await manager.query(`SELECT product_id, client_organisation_id FROM test_order WHERE id = $1 AND lab_id = $2`, [sample.orderId, labId]);
   if (order.product_id !== library.productId) {
     throw ApiError.badRequest(`Library version ${library.version} is of ${library.productName}, not of the product this sample was ordered for.`, [
       { field: 'libraryVersionId', message: 'belongs to another product' },
     ]);
   }
-  const replicates = await manager.find(Replicate, { where: { labId, sampleId, excluded: false }, order: { replicateNumber: 'ASC' } });
+  const replicates = await timed('replicates-read', () => manager.find(Replicate, { where: { labId, sampleId, excluded: false }, order: { replicateNumber: 'ASC' } }));
   if (!replicates.length) throw ApiError.conflict(`Sample ${sample.code} has no included replicates; upload measurements first.`);
-  const others = await otherPublishedLibraries(manager, labId, library.productId, order.client_organisation_id);
-  const computed = await analyseOffThread(replicates, library, others);
-  await manager.update(Analysis, { labId, sampleId, status: 'draft' }, { status: 'superseded' });
-  const inserted = await manager.insert(Analysis, {
-    labId,
-    sampleId,
-    libraryVersionId,
-    status: 'draft',
-    verdict: computed.result.verdict,
-    replicateIds: replicates.map((r) => r.id),
-    method: library.method,
-    engineVersion: ENGINE_VERSION,
-    result: computed.result,
-    sampleSpectrum: computed.sampleSpectrum,
-    remarks: '',
-    analystUserId: auth.userId,
-    createdAt: new Date(),
+  const others = await timed('other-libraries-load', () => otherPublishedLibraries(manager, labId, library.productId, order.client_organisation_id));
+  const computed = await timed('worker-round-trip', () => analyseOffThread(replicates, library, others));
+  const id = await timed('analysis-insert', async () => {
+    await manager.update(Analysis, { labId, sampleId, status: 'draft' }, { status: 'superseded' });
+    const inserted = await manager.insert(Analysis, {
+      labId,
+      sampleId,
+      libraryVersionId,
+      status: 'draft',
+      verdict: computed.result.verdict,
+      replicateIds: replicates.map((r) => r.id),
+      method: library.method,
+      engineVersion: ENGINE_VERSION,
+      result: computed.result,
+      sampleSpectrum: computed.sampleSpectrum,
+      remarks: '',
+      analystUserId: auth.userId,
+      createdAt: new Date(),
+    });
+    return inserted.identifiers[0].id as string;
   });
-  const id = inserted.identifiers[0].id as string;
-  await storeLotDistances(manager, labId, id, computed.ranking, computed.lotDistances, computed.rankedBytes);
-  const wasReported = sample.state === 'reported';
-  await moveSample(manager, sample, 'analysed');
-  if (wasReported) await refreshOrderStatus(manager, labId, sample.orderId);
-  await recordAudit(manager, { labId, actorUserId: auth.userId, action: 'analysis.run', subjectType: 'analysis', subjectId: id, details: { sampleCode: sample.code, libraryVersionId, verdict: computed.result.verdict } });
+  await timed('lot-distances-write', () => storeLotDistances(manager, labId, id, computed.lotCount, computed.rankedBytes));
+  await timed('sample-move-and-audit', async () => {
+    const wasReported = sample.state === 'reported';
+    await moveSample(manager, sample, 'analysed');
+    if (wasReported) await refreshOrderStatus(manager, labId, sample.orderId);
+    await recordAudit(manager, { labId, actorUserId: auth.userId, action: 'analysis.run', subjectType: 'analysis', subjectId: id, details: { sampleCode: sample.code, libraryVersionId, verdict: computed.result.verdict } });
+  });
   return id;
 }
 
@@ -100,12 +113,13 @@ export async function reproduceAnalysis(manager: EntityManager, labId: string, a
     [a.sampleId, labId],
   );
   const others = await otherPublishedLibraries(manager, labId, library.productId, order.client_organisation_id);
-  const recomputed = await analyseOffThread(replicates, library, others);
+  const recomputed = await analyseOffThread(replicates, library, others, { lotOrder: true });
   const stored = await storedLotDistances(manager, labId, a.id);
-  const all = Array.from(recomputed.lotDistances, (distance, i) => ({ lotId: library.lots[i].id, lotCode: library.lots[i].lotCode, distance }));
+  const lotDistances = recomputed.lotDistances as Float64Array;
+  const all = Array.from(lotDistances, (distance, i) => ({ lotId: library.lots[i].id, lotCode: library.lots[i].lotCode, distance }));
   // An analysis from before results were slimmed kept every lot's distance in its result, in lot order.
   const againstResult = a.result.lotCount === undefined ? { ...recomputed.result, distances: all } : recomputed.result;
-  const { differences, maxAbsoluteDifference } = compareAnalyses(a.result, againstResult, stored && { stored, recomputed: recomputed.lotDistances });
+  const { differences, maxAbsoluteDifference } = compareAnalyses(a.result, againstResult, stored && { stored, recomputed: lotDistances });
   return {
     reproduced: differences.length === 0,
     storedEngineVersion: a.engineVersion,

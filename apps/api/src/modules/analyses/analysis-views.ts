@@ -1,7 +1,7 @@
 import type { EntityManager } from 'typeorm';
 import { NEAREST_LOTS, sameLotCode, type Analysis as AnalysisView, type AnalysisListItem, type AnalysisListQuery, type Page } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
-import { cappedCount, escapeLike, sparseSearchIds, pageParams, toCappedPage } from '../../core/paging';
+import { cappedCount, escapeLike, sparseSearchIds, pageParams, toCappedPage, totalCapFor, type CappedTotal } from '../../core/paging';
 import { referenceBandOf } from '../libraries/reference-band';
 import { revokedReportOf } from './revoked-report';
 
@@ -114,16 +114,17 @@ export async function listAnalyses(manager: EntityManager, labId: string, query:
     const p = `$${params.length}`;
     const products = `SELECT p2.id FROM product p2 WHERE p2.lab_id = $1 AND p2.name ILIKE ${p}`;
     const analysts = `SELECT u2.id FROM app_user u2 WHERE u2.lab_id = $1 AND u2.display_name ILIKE ${p}`;
-    const arms = `SELECT x.id FROM analysis x JOIN sample s2 ON s2.id = x.sample_id WHERE x.lab_id = $1 AND s2.lab_id = $1 AND s2.code ILIKE ${p}
-      UNION ALL SELECT x.id FROM analysis x JOIN sample s2 ON s2.id = x.sample_id JOIN test_order o2 ON o2.id = s2.order_id
-                WHERE x.lab_id = $1 AND o2.lab_id = $1 AND o2.product_id IN (${products})
-      UNION ALL SELECT x.id FROM analysis x WHERE x.lab_id = $1 AND x.analyst_user_id IN (${analysts})`;
+    const arms = [
+      `SELECT x.id FROM analysis x JOIN sample s2 ON s2.id = x.sample_id WHERE x.lab_id = $1 AND s2.lab_id = $1 AND s2.code ILIKE ${p}`,
+      `SELECT x.id FROM analysis x JOIN sample s2 ON s2.id = x.sample_id WHERE x.lab_id = $1 AND s2.lab_id = $1 AND s2.product_id IN (${products})`,
+      `SELECT x.id FROM analysis x WHERE x.lab_id = $1 AND x.analyst_user_id IN (${analysts})`,
+    ];
     const ids = await sparseSearchIds(manager, arms, params);
     if (ids) params[params.length - 1] = ids;
     where.push(ids
       ? `a.id = ANY(${p}::uuid[])`
-      : `(a.analyst_user_id IN (${analysts}) OR EXISTS (SELECT 1 FROM sample s2 JOIN test_order o2 ON o2.id = s2.order_id
-           WHERE s2.id = a.sample_id AND (s2.code ILIKE ${p} OR o2.product_id IN (${products}))))`);
+      : `(a.analyst_user_id IN (${analysts}) OR EXISTS (SELECT 1 FROM sample s2
+           WHERE s2.id = a.sample_id AND (s2.code ILIKE ${p} OR s2.product_id IN (${products}))))`);
   }
   const { skip, take } = pageParams(query);
   // the sample's code orders through a join; the other sorts walk an index of analysis alone
@@ -132,7 +133,7 @@ export async function listAnalyses(manager: EntityManager, labId: string, query:
   // direction; only the submission time can be empty, and empty ones come last
   const dir = query.dir === 'asc' ? 'ASC' : 'DESC';
   const order = `${SORT[query.sort]} ${dir}${query.sort === 'submittedAt' ? ' NULLS LAST' : ''}, a.id ${dir}`;
-  const [rows, counted]: [{ id: string; sample_id: string; sample_code: string; product_name: string; status: AnalysisListItem['status']; verdict: AnalysisListItem['verdict']; analyst_id: string; analyst_name: string; created_at: Date; submitted_at: Date | null }[], number] =
+  const [rows, counted]: [{ id: string; sample_id: string; sample_code: string; product_name: string; status: AnalysisListItem['status']; verdict: AnalysisListItem['verdict']; analyst_id: string; analyst_name: string; created_at: Date; submitted_at: Date | null }[], CappedTotal] =
     await Promise.all([manager.query(
       `SELECT a.id, s.id AS sample_id, s.code AS sample_code, p.name AS product_name, a.status, a.verdict,
               u.id AS analyst_id, u.display_name AS analyst_name, a.created_at, a.submitted_at
@@ -143,7 +144,7 @@ export async function listAnalyses(manager: EntityManager, labId: string, query:
        JOIN app_user u ON u.id = a.analyst_user_id
        ORDER BY ${order}`,
       [...params, take, skip],
-    ), cappedCount(manager, `FROM analysis a WHERE ${where.join(' AND ')}`, params)]);
+    ), cappedCount(manager, `FROM analysis a WHERE ${where.join(' AND ')}`, params, totalCapFor(query))]);
   return toCappedPage(
     rows.map((r) => ({
       id: r.id,

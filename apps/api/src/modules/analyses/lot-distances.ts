@@ -1,6 +1,7 @@
 import type { EntityManager } from 'typeorm';
 import type { AnalysisResult, LotDistancePage } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
+import { cachedLibrary } from '../libraries/published-library';
 
 /** Bytes per lot in `analysis_lot_distance.ranked`: uint32 lot index, float64 distance (little-endian). */
 const ENTRY = 12;
@@ -22,9 +23,10 @@ function decodeEntries(bytes: Buffer): { index: number; distance: number }[] {
   return out;
 }
 
-export async function storeLotDistances(manager: EntityManager, labId: string, analysisId: string, ranking: ArrayLike<number>, distances: ArrayLike<number>, packed?: Uint8Array): Promise<void> {
-  const bytes = packed ? Buffer.from(packed.buffer, packed.byteOffset, packed.byteLength) : encodeRanked(ranking, distances);
-  await manager.query(`INSERT INTO analysis_lot_distance (analysis_id, lab_id, lot_count, ranked) VALUES ($1, $2, $3, $4)`, [analysisId, labId, ranking.length, bytes]);
+/** Stores every lot's distance as `encodeRanked` packed them (in the worker thread). */
+export async function storeLotDistances(manager: EntityManager, labId: string, analysisId: string, lotCount: number, ranked: Uint8Array): Promise<void> {
+  const bytes = Buffer.from(ranked.buffer, ranked.byteOffset, ranked.byteLength);
+  await manager.query(`INSERT INTO analysis_lot_distance (analysis_id, lab_id, lot_count, ranked) VALUES ($1, $2, $3, $4)`, [analysisId, labId, lotCount, bytes]);
 }
 
 /** Every lot's distance in the version's lot order, as stored; null for an analysis from before they were stored apart. */
@@ -56,7 +58,11 @@ export async function lotDistancePage(manager: EntityManager, labId: string, ana
     return { items, total: all.length, next: after + items.length < all.length ? after + items.length : null };
   }
   const entries = decodeEntries(a.page);
-  const lots: { idx: number; id: string; lot_code: string }[] = entries.length
+  // the version's lots in their order, from the library cache when it holds the version (no count over every lot)
+  const held = cachedLibrary(labId, a.library_version_id);
+  const lots: { idx: number; id: string; lot_code: string }[] = held
+    ? entries.filter((e) => e.index < held.lots.length).map((e) => ({ idx: e.index, id: held.lots[e.index].id, lot_code: held.lots[e.index].lotCode }))
+    : entries.length
     ? await manager.query(
         `SELECT idx::int, id, lot_code FROM (
            SELECT id, lot_code, (row_number() OVER (ORDER BY lot_code, id) - 1) AS idx

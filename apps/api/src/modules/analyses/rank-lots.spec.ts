@@ -23,6 +23,19 @@ describe('ranking every lot by distance', () => {
     expect(Array.from(rankLots([]))).toEqual([]);
   });
 
+  it('orders thousands of distances that differ only in their low 32 bits, listed farthest first, with ties', () => {
+    const bits = new DataView(new ArrayBuffer(8));
+    const near = (k: number) => {
+      bits.setFloat64(0, 0.05, true);
+      bits.setUint32(0, bits.getUint32(0, true) + k, true);
+      return bits.getFloat64(0, true);
+    };
+    const d = Float64Array.from({ length: 3000 }, (_, i) => near(3000 - i - (i % 7 === 0 ? 1 : 0)));
+    d[100] = 0.07;
+    d[200] = 0.03;
+    expect(Array.from(rankLots(d))).toEqual(Array.from(byComparison(d)));
+  });
+
   it('falls back to the comparison sort for a NaN or negative distance', () => {
     const d = [0.2, -0.1, 0.2, 0.05];
     expect(Array.from(rankLots(d))).toEqual([1, 3, 0, 2]);

@@ -19,6 +19,7 @@ import { requireRole } from '../auth/require-auth';
 import { LAB_STAFF } from '../samples/lab-roles';
 import { reproduceAnalysis, submitForReview, updateRemarks } from './analysis-service';
 import { requestAnalysis } from './analysis-run-job';
+import { timed } from './analysis-stages';
 import { analysisView, listAnalyses } from './analysis-views';
 
 const tag = 'Analyses';
@@ -32,9 +33,9 @@ export function analysesRouter(): Router {
   registerRoute({ method: 'post', path: '/lab/samples/:id/analyses', tag, summary: 'Analyse the sample’s included replicates against a published library version. Above ANALYSIS_JOB_LOTS lots a worker runs it: 202 with where it is (see …/analysis-run)', roles: ['analyst'], params: IdParamsSchema, body: RunAnalysisSchema, response: AnalysisSchema, status: 201 });
   router.post('/samples/:id/analyses', analyst, validate({ params: IdParamsSchema, body: RunAnalysisSchema }), async (_req, res) => {
     const labId = labIdOf(res.locals.auth);
-    const asked = await requestAnalysis(res.locals.auth, labId, id(res.locals.params), (res.locals.body as RunAnalysis).libraryVersionId);
+    const asked = await timed('transaction', () => requestAnalysis(res.locals.auth, labId, id(res.locals.params), (res.locals.body as RunAnalysis).libraryVersionId));
     if ('run' in asked) res.status(202).json(asked.run);
-    else res.status(201).json(await analysisView(dataSource.manager, labId, asked.analysisId));
+    else res.status(201).json(await timed('result-view', () => analysisView(dataSource.manager, labId, asked.analysisId)));
   });
 
   registerRoute({ method: 'get', path: '/lab/analyses', tag, summary: 'Analyses of the lab (filter by status, e.g. submitted for the review queue, or by sample)', roles: LAB_STAFF, query: AnalysisListQuerySchema, response: AnalysisPageSchema });

@@ -1,6 +1,6 @@
 import type { Router } from 'express';
 import { AuditEventSchema, AuditLogQuerySchema, pageOf, type AuditEventEntry, type AuditLogQuery } from '@ohmprint/contracts';
-import { cappedCount, escapeLike, pageParams, toCappedPage } from '../../core/paging';
+import { cappedCount, escapeLike, pageParams, toCappedPage, totalCapFor, type CappedTotal } from '../../core/paging';
 import { labIdOf } from '../../core/tenancy';
 import { dataSource } from '../../db/data-source';
 import { routeTable } from '../../core/route-table';
@@ -30,7 +30,7 @@ export function auditLogRouter(): Router {
     const where = `WHERE e.lab_id = $1 AND ($2::text IS NULL OR e.action ILIKE $2) AND ($3::text IS NULL OR e.action = $3)
                      AND ($4::text IS NULL OR e.subject_type = $4) AND ($5::text IS NULL OR e.subject_id = $5)`;
     const order = `${SORT_COLUMNS[query.sort]} ${query.dir === 'desc' ? 'DESC' : 'ASC'}, e.id ${query.dir === 'desc' ? 'DESC' : 'ASC'}`;
-    const [rows, counted]: [AuditRow[], number] = await Promise.all([
+    const [rows, counted]: [AuditRow[], CappedTotal] = await Promise.all([
       dataSource.query(
         `SELECT e.id, e.action, e.subject_type, e.subject_id, e.details, e.created_at,
                 u.id AS actor_id, u.display_name AS actor_name, u.email AS actor_email
@@ -38,7 +38,7 @@ export function auditLogRouter(): Router {
          ORDER BY ${order}`,
         [...params, take, skip],
       ),
-      cappedCount(dataSource.manager, `FROM audit_event e ${where}`, params),
+      cappedCount(dataSource.manager, `FROM audit_event e ${where}`, params, totalCapFor(query)),
     ]);
     const items: AuditEventEntry[] = rows.map((r) => ({
       id: r.id,

@@ -1,7 +1,7 @@
 import type { EntityManager } from 'typeorm';
 import type { CheckoutStatus, CreditAccountListQuery, CreditAccountView, LedgerEntry, LedgerListQuery, Page, Payment, PaymentListQuery } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
-import { cappedCount, escapeLike, sparseSearchIds, pageParams, toCappedPage } from '../../core/paging';
+import { cappedCount, escapeLike, sparseSearchIds, pageParams, toCappedPage, totalCapFor } from '../../core/paging';
 import { creditBalance, type CreditScope } from '../credits/credit-ledger';
 import { receiptNumber } from './receipt-email';
 
@@ -59,7 +59,7 @@ export async function payments(manager: EntityManager, labId: string, clientOrga
        ORDER BY ${order}`,
       [...params, take, skip],
     ) as Promise<PaymentRowView[]>,
-    cappedCount(manager, `FROM payment p WHERE ${where.join(' AND ')}`, params),
+    cappedCount(manager, `FROM payment p WHERE ${where.join(' AND ')}`, params, totalCapFor(query)),
   ]);
   return toCappedPage(rows.map(paymentView), counted, query);
 }
@@ -108,9 +108,11 @@ export async function ledger(manager: EntityManager, scope: CreditScope, query: 
     const p = `$${params.length}`;
     const samples = `SELECT s2.id FROM sample s2 WHERE s2.lab_id = $1 AND s2.code ILIKE ${p}`;
     const actors = `SELECT u2.id FROM app_user u2 WHERE u2.lab_id = $1 AND u2.display_name ILIKE ${p}`;
-    const arms = `SELECT x.id FROM credit_ledger_entry x WHERE x.lab_id = $1 AND x.client_organisation_id = $2 AND x.reason ILIKE ${p}
-      UNION ALL SELECT x.id FROM credit_ledger_entry x WHERE x.lab_id = $1 AND x.client_organisation_id = $2 AND x.sample_id IN (${samples})
-      UNION ALL SELECT x.id FROM credit_ledger_entry x WHERE x.lab_id = $1 AND x.client_organisation_id = $2 AND x.actor_user_id IN (${actors})`;
+    const arms = [
+      `SELECT x.id FROM credit_ledger_entry x WHERE x.lab_id = $1 AND x.client_organisation_id = $2 AND x.reason ILIKE ${p}`,
+      `SELECT x.id FROM credit_ledger_entry x WHERE x.lab_id = $1 AND x.client_organisation_id = $2 AND x.sample_id IN (${samples})`,
+      `SELECT x.id FROM credit_ledger_entry x WHERE x.lab_id = $1 AND x.client_organisation_id = $2 AND x.actor_user_id IN (${actors})`,
+    ];
     const ids = await sparseSearchIds(manager, arms, params);
     if (ids) params[params.length - 1] = ids;
     where.push(ids
@@ -131,7 +133,7 @@ export async function ledger(manager: EntityManager, scope: CreditScope, query: 
        ORDER BY ${order}`,
       [...params, take, skip],
     ) as Promise<LedgerRow[]>,
-    cappedCount(manager, `FROM credit_ledger_entry e WHERE ${where.join(' AND ')}`, params),
+    cappedCount(manager, `FROM credit_ledger_entry e WHERE ${where.join(' AND ')}`, params, totalCapFor(query)),
   ]);
   return toCappedPage(rows.map((r) => ({
     id: r.id, entryNo: Number(r.entry_no), kind: r.kind, availableChange: r.available_change, reservedChange: r.reserved_change,
@@ -160,7 +162,7 @@ export async function creditAccounts(manager: EntityManager, labId: string, quer
        LIMIT $${params.length + 1} OFFSET $${params.length + 2}`,
       [...params, take, skip],
     ) as Promise<{ id: string; name: string; available: number | null; reserved: number | null; updated_at: Date | null }[]>,
-    cappedCount(manager, `FROM client_organisation co WHERE co.lab_id = $1 ${search}`, params),
+    cappedCount(manager, `FROM client_organisation co WHERE co.lab_id = $1 ${search}`, params, totalCapFor(query)),
   ]);
   return toCappedPage(rows.map((r) => ({ clientOrganisation: { id: r.id, name: r.name }, available: r.available ?? 0, reserved: r.reserved ?? 0,
     updatedAt: r.updated_at?.toISOString() ?? null })), counted, query);

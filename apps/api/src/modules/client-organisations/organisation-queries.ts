@@ -1,6 +1,6 @@
 import type { EntityManager } from 'typeorm';
 import type { ClientOrganisation as ClientOrganisationDto, ListQuery, Page } from '@ohmprint/contracts';
-import { escapeLike, pageParams, toPage } from '../../core/paging';
+import { cappedCount, escapeLike, pageParams, toCappedPage, totalCapFor } from '../../core/paging';
 
 const SORT_COLUMNS: Record<string, string> = { name: 'lower(o.name)', createdAt: 'o.created_at' };
 
@@ -10,14 +10,12 @@ interface OrganisationRow {
   contact_email: string | null;
   created_at: Date;
   member_count: string;
-  total: string;
 }
 
 const SELECT = `
   SELECT o.id, o.name, o.contact_email, o.created_at,
          (SELECT count(*) FROM client_membership cm JOIN app_user u ON u.id = cm.user_id
-           WHERE cm.lab_id = o.lab_id AND cm.client_organisation_id = o.id AND u.status = 'active') AS member_count,
-         count(*) OVER () AS total
+           WHERE cm.lab_id = o.lab_id AND cm.client_organisation_id = o.id AND u.status = 'active') AS member_count
   FROM client_organisation o
   WHERE o.lab_id = $1`;
 
@@ -28,17 +26,16 @@ function toDto(row: OrganisationRow): ClientOrganisationDto {
 export async function listOrganisations(manager: EntityManager, labId: string, query: ListQuery): Promise<Page<ClientOrganisationDto>> {
   const { skip, take } = pageParams(query);
   const q = query.q ? escapeLike(query.q) : null;
-  const rows: OrganisationRow[] = await manager.query(
-    `${SELECT} AND ($2::text IS NULL OR o.name ILIKE $2 OR o.contact_email ILIKE $2)
-     ORDER BY ${SORT_COLUMNS[query.sort]} ${query.dir === 'desc' ? 'DESC' : 'ASC'}, o.id LIMIT $3 OFFSET $4`,
-    [labId, q, take, skip],
-  );
-  let total = rows.length ? Number(rows[0].total) : 0;
-  if (!rows.length && skip > 0) {
-    const [row] = await manager.query(`SELECT count(*) AS n FROM client_organisation o WHERE o.lab_id = $1 AND ($2::text IS NULL OR o.name ILIKE $2 OR o.contact_email ILIKE $2)`, [labId, q]);
-    total = Number(row.n);
-  }
-  return toPage(rows.map(toDto), total, query);
+  const search = `AND ($2::text IS NULL OR o.name ILIKE $2 OR o.contact_email ILIKE $2)`;
+  const [rows, total] = await Promise.all([
+    manager.query(
+      `${SELECT} ${search}
+       ORDER BY ${SORT_COLUMNS[query.sort]} ${query.dir === 'desc' ? 'DESC' : 'ASC'}, o.id LIMIT $3 OFFSET $4`,
+      [labId, q, take, skip],
+    ) as Promise<OrganisationRow[]>,
+    cappedCount(manager, `FROM client_organisation o WHERE o.lab_id = $1 ${search}`, [labId, q], totalCapFor(query)),
+  ]);
+  return toCappedPage(rows.map(toDto), total, query);
 }
 
 export async function findOrganisation(manager: EntityManager, labId: string, id: string): Promise<ClientOrganisationDto | null> {

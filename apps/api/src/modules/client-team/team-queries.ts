@@ -1,6 +1,6 @@
 import type { EntityManager } from 'typeorm';
 import type { ClientTeamMember, ListQuery, Page } from '@ohmprint/contracts';
-import { escapeLike, pageParams, toPage } from '../../core/paging';
+import { cappedCount, escapeLike, pageParams, toCappedPage, totalCapFor } from '../../core/paging';
 
 const SORT_COLUMNS: Record<string, string> = { displayName: 'u.display_name', email: 'u.email', createdAt: 'cm.created_at' };
 
@@ -10,7 +10,6 @@ interface MemberRow {
   display_name: string;
   role: ClientTeamMember['role'];
   created_at: Date;
-  total: string;
 }
 
 /** Active members of one organisation of one lab: both ids come from the signed-in user. */
@@ -26,17 +25,19 @@ export async function listTeam(manager: EntityManager, labId: string, organisati
   const { skip, take } = pageParams(query);
   const q = query.q ? escapeLike(query.q) : null;
   const search = `AND ($3::text IS NULL OR u.email ILIKE $3 OR u.display_name ILIKE $3)`;
-  const rows: MemberRow[] = await manager.query(
-    `SELECT u.id, u.email, u.display_name, cm.role, cm.created_at, count(*) OVER () AS total ${FROM} ${search}
-     ORDER BY ${SORT_COLUMNS[query.sort]} ${query.dir === 'desc' ? 'DESC' : 'ASC'}, u.id LIMIT $4 OFFSET $5`,
-    [labId, organisationId, q, take, skip],
-  );
-  let total = rows.length ? Number(rows[0].total) : 0;
-  if (!rows.length && skip > 0) total = Number((await manager.query(`SELECT count(*) AS n ${FROM} ${search}`, [labId, organisationId, q]))[0].n);
-  return toPage(rows.map(toDto), total, query);
+  const params = [labId, organisationId, q];
+  const [rows, total] = await Promise.all([
+    manager.query(
+      `SELECT u.id, u.email, u.display_name, cm.role, cm.created_at ${FROM} ${search}
+       ORDER BY ${SORT_COLUMNS[query.sort]} ${query.dir === 'desc' ? 'DESC' : 'ASC'}, u.id LIMIT $4 OFFSET $5`,
+      [...params, take, skip],
+    ) as Promise<MemberRow[]>,
+    cappedCount(manager, `${FROM} ${search}`, params, totalCapFor(query)),
+  ]);
+  return toCappedPage(rows.map(toDto), total, query);
 }
 
 export async function findTeamMember(manager: EntityManager, labId: string, organisationId: string, userId: string): Promise<ClientTeamMember | null> {
-  const rows: MemberRow[] = await manager.query(`SELECT u.id, u.email, u.display_name, cm.role, cm.created_at, 1 AS total ${FROM} AND u.id = $3`, [labId, organisationId, userId]);
+  const rows: MemberRow[] = await manager.query(`SELECT u.id, u.email, u.display_name, cm.role, cm.created_at ${FROM} AND u.id = $3`, [labId, organisationId, userId]);
   return rows[0] ? toDto(rows[0]) : null;
 }

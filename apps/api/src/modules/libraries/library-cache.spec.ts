@@ -1,5 +1,5 @@
 import { createLibraryCache, libraryBytes, type PublishedLibrary } from './published-library';
-import { packLibrary, unpackLibrary } from './library-packing';
+import { keepResident, packLibrary } from './library-packing';
 
 /** A decoded library of `lots` lots on an `n`-point grid (values invented). */
 function library(versionId: string, lots: number, n = 41): PublishedLibrary {
@@ -20,6 +20,7 @@ function library(versionId: string, lots: number, n = 41): PublishedLibrary {
     lots: lotList,
     spectra: [],
     packed,
+    loadKey: `${versionId}-load-1`,
   };
 }
 
@@ -57,7 +58,7 @@ describe('a library packed for a worker thread', () => {
     const lib = library('v', 3, 4);
     const packed = packLibrary(lib);
     expect(packed.packed.buffer).toBeInstanceOf(SharedArrayBuffer);
-    const back = unpackLibrary(structuredClone(packed));
+    const back = keepResident(structuredClone(packed));
     expect(back.lots).toEqual(lib.lots);
     expect(back.spectra).toHaveLength(3);
     expect(Array.from(back.spectra[1].re)).toEqual(Array.from(lib.packed.subarray(8, 12)));

@@ -1,6 +1,6 @@
 import type { EntityManager } from 'typeorm';
 import type { LibraryProduct, LibraryProductQuery, Page } from '@ohmprint/contracts';
-import { escapeLike, pageParams, toPage } from '../../core/paging';
+import { cappedCount, escapeLike, pageParams, toCappedPage, totalCapFor } from '../../core/paging';
 
 const SORT: Record<LibraryProductQuery['sort'], string> = { name: 'lower(p.name)', client: 'lower(co.name)' };
 
@@ -13,17 +13,19 @@ export async function libraryProducts(manager: EntityManager, labId: string, que
     search = `AND (p.name ILIKE $2 OR co.name ILIKE $2)`;
   }
   const { skip, take } = pageParams(query);
-  params.push(take, skip);
-  const rows: { id: string; name: string; matrix: LibraryProduct['matrix']; client_name: string; measured: number; total: string }[] = await manager.query(
-    `SELECT p.id, p.name, p.matrix, co.name AS client_name, count(*) OVER () AS total,
-            (SELECT count(*)::int FROM sample s JOIN test_order o ON o.id = s.order_id
-              WHERE o.product_id = p.id AND s.lab_id = p.lab_id AND s.kind = 'reference-lot'
-                AND EXISTS (SELECT 1 FROM replicate r WHERE r.sample_id = s.id AND NOT r.excluded)) AS measured
-     FROM product p JOIN client_organisation co ON co.id = p.client_organisation_id
-     WHERE p.lab_id = $1 ${search}
-     ORDER BY ${SORT[query.sort]} ${query.dir === 'asc' ? 'ASC' : 'DESC'}, p.id LIMIT $${params.length - 1} OFFSET $${params.length}`,
-    params,
-  );
+  const from = `FROM product p JOIN client_organisation co ON co.id = p.client_organisation_id WHERE p.lab_id = $1 ${search}`;
+  const [rows, total] = await Promise.all([
+    manager.query(
+      `SELECT p.id, p.name, p.matrix, co.name AS client_name,
+              (SELECT count(*)::int FROM sample s
+                WHERE s.lab_id = p.lab_id AND s.product_id = p.id AND s.kind = 'reference-lot'
+                  AND EXISTS (SELECT 1 FROM replicate r WHERE r.sample_id = s.id AND NOT r.excluded)) AS measured
+       ${from}
+       ORDER BY ${SORT[query.sort]} ${query.dir === 'asc' ? 'ASC' : 'DESC'}, p.id LIMIT $${params.length + 1} OFFSET $${params.length + 2}`,
+      [...params, take, skip],
+    ) as Promise<{ id: string; name: string; matrix: LibraryProduct['matrix']; client_name: string; measured: number }[]>,
+    cappedCount(manager, from, params, totalCapFor(query)),
+  ]);
   const versions: { product_id: string; id: string; version: number; status: string; lot_count: number; superseded_by: number | null }[] = rows.length
     ? await manager.query(
         `SELECT l.product_id, v.id, v.version, v.status,
@@ -42,5 +44,5 @@ export async function libraryProducts(manager: EntityManager, labId: string, que
     measuredLots: r.measured,
     versions: versions.filter((v) => v.product_id === r.id).map((v) => ({ id: v.id, version: v.version, status: v.status, lotCount: v.lot_count, supersededBy: v.superseded_by })),
   }));
-  return toPage(items, rows.length ? Number(rows[0].total) : 0, query);
+  return toCappedPage(items, total, query);
 }

@@ -2,7 +2,7 @@ import type { EntityManager } from 'typeorm';
 import type { Calibration as EngineCalibration } from '@ohmprint/spectral-engine';
 import { methodDifferences, type Calibration, type LibraryItem, type LibraryListQuery, type LibraryVersionDetail, type LibraryVersionSummary, type MethodSettings, type Page } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
-import { cappedCount, escapeLike, pageParams, toCappedPage } from '../../core/paging';
+import { cappedCount, escapeLike, pageParams, toCappedPage, totalCapFor } from '../../core/paging';
 import { publishBlockers } from './library-versions';
 
 interface VersionRow {
@@ -105,7 +105,7 @@ export async function listLibraries(manager: EntityManager, labId: string, query
        LIMIT $${params.length + 1} OFFSET $${params.length + 2}`,
       [...params, take, skip],
     ) as Promise<{ id: string; product_id: string; product_name: string; matrix: LibraryItem['product']['matrix']; client_id: string; client_name: string }[]>,
-    cappedCount(manager, from, params),
+    cappedCount(manager, from, params, totalCapFor(query)),
   ]);
   const versions: ListVersionRow[] = rows.length
     ? await manager.query(`${LIST_VERSION_SQL} WHERE v.lab_id = $1 AND v.library_id = ANY($2::uuid[]) ORDER BY v.version DESC`, [labId, rows.map((r) => r.id)])

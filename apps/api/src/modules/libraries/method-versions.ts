@@ -12,7 +12,7 @@ import {
   type Page,
 } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
-import { escapeLike, pageParams, toPage } from '../../core/paging';
+import { cappedCount, escapeLike, pageParams, toCappedPage, totalCapFor } from '../../core/paging';
 import { recordAudit } from '../audit/record-audit';
 import { Method } from './method.entity';
 import { MethodVersion } from './method-version.entity';
@@ -81,17 +81,19 @@ export async function listMethods(manager: EntityManager, labId: string, query: 
     search = `AND (m.name ILIKE $2 OR m.matrix ILIKE $2)`;
   }
   const { skip, take } = pageParams(query);
-  params.push(take, skip);
-  const rows: { id: string; name: string; matrix: MethodItem['matrix']; total: string }[] = await manager.query(
-    `SELECT m.id, m.name, m.matrix, count(*) OVER () AS total FROM method m WHERE m.lab_id = $1 ${search}
-     ORDER BY ${METHOD_SORT[query.sort]} ${query.dir === 'asc' ? 'ASC' : 'DESC'}, m.id LIMIT $${params.length - 1} OFFSET $${params.length}`,
-    params,
-  );
+  const [rows, total] = await Promise.all([
+    manager.query(
+      `SELECT m.id, m.name, m.matrix FROM method m WHERE m.lab_id = $1 ${search}
+       ORDER BY ${METHOD_SORT[query.sort]} ${query.dir === 'asc' ? 'ASC' : 'DESC'}, m.id LIMIT $${params.length + 1} OFFSET $${params.length + 2}`,
+      [...params, take, skip],
+    ) as Promise<{ id: string; name: string; matrix: MethodItem['matrix'] }[]>,
+    cappedCount(manager, `FROM method m WHERE m.lab_id = $1 ${search}`, params, totalCapFor(query)),
+  ]);
   const versions: VersionRow[] = rows.length
     ? await manager.query(`${VERSION_SQL} WHERE mv.lab_id = $1 AND mv.method_id = ANY($2::uuid[]) ORDER BY mv.version DESC`, [labId, rows.map((r) => r.id)])
     : [];
   const items = rows.map((r): MethodItem => ({ id: r.id, name: r.name, matrix: r.matrix, versions: versions.filter((v) => v.method_id === r.id).map(summary) }));
-  return toPage(items, rows.length ? Number(rows[0].total) : 0, query);
+  return toCappedPage(items, total, query);
 }
 
 async function versionRow(manager: EntityManager, labId: string, versionId: string): Promise<VersionRow> {

@@ -1,5 +1,5 @@
 import request from 'supertest';
-import { TOTAL_CAP } from '@ohmprint/contracts';
+import { SEARCH_TOTAL_CAP, TOTAL_CAP, totalCapFor } from '@ohmprint/contracts';
 import { useTestApp } from '../../testing';
 import { signAccessToken } from '../auth/access-token';
 import { cappedCount, SPARSE_MATCHES, toCappedPage } from '../../core/paging';
@@ -20,28 +20,35 @@ beforeAll(async () => {
 
 interface Page { items: { id: string; code?: string; number?: string }[]; total: number; totalIsLowerBound?: boolean; page: number; pageSize: number }
 
-async function allPages(path: string, userId: string, query: string): Promise<{ ids: string[]; totals: Set<number>; codes: string[] }> {
+async function allPages(path: string, userId: string, query: string): Promise<{ ids: string[]; totals: Set<number>; lowerBounds: Set<boolean>; codes: string[] }> {
   const ids: string[] = [];
   const codes: string[] = [];
   const totals = new Set<number>();
+  const lowerBounds = new Set<boolean>();
   for (let page = 1; ; page++) {
     const res = await request(t.app).get(`${path}?pageSize=100&page=${page}&${query}`).set(bearer(userId)).expect(200);
     const body = res.body as Page;
     totals.add(body.total);
+    lowerBounds.add(body.totalIsLowerBound === true);
     ids.push(...body.items.map((i) => i.id));
     codes.push(...body.items.map((i) => i.code ?? i.number ?? ''));
-    if (body.items.length < 100) return { ids, totals, codes };
+    if (body.items.length < 100) return { ids, totals, lowerBounds, codes };
   }
 }
 
 describe('capped totals', () => {
   it('counts exactly up to the cap and says "at least" past it', async () => {
-    const at = (n: number) => cappedCount(t.db.manager, 'FROM generate_series(1, $1::int) g', [n]);
-    expect(await at(0)).toBe(0);
-    expect(await at(TOTAL_CAP)).toBe(TOTAL_CAP);
-    expect(toCappedPage([], await at(TOTAL_CAP), { sort: 'x', dir: 'asc', page: 1, pageSize: 20 })).toEqual({ items: [], total: TOTAL_CAP, page: 1, pageSize: 20 });
-    const over = toCappedPage([], await at(25_000), { sort: 'x', dir: 'asc', page: 1, pageSize: 20 });
-    expect(over).toEqual({ items: [], total: TOTAL_CAP, page: 1, pageSize: 20, totalIsLowerBound: true });
+    const at = (n: number, cap?: number) => cappedCount(t.db.manager, 'FROM generate_series(1, $1::int) g', [n], cap);
+    const query = { sort: 'x', dir: 'asc' as const, page: 1, pageSize: 20 };
+    expect(await at(0)).toEqual({ counted: 0, cap: TOTAL_CAP });
+    expect(toCappedPage([], await at(TOTAL_CAP), query)).toEqual({ items: [], total: TOTAL_CAP, page: 1, pageSize: 20 });
+    expect(toCappedPage([], await at(25_000), query)).toEqual({ items: [], total: TOTAL_CAP, page: 1, pageSize: 20, totalIsLowerBound: true });
+    // a search counts to a thousand: exactly 1,000 is exact, 1,001 reads "1,000+"
+    expect(toCappedPage([], await at(SEARCH_TOTAL_CAP, SEARCH_TOTAL_CAP), { ...query, q: 'x' })).toEqual({ items: [], total: SEARCH_TOTAL_CAP, page: 1, pageSize: 20 });
+    expect(toCappedPage([], await at(SEARCH_TOTAL_CAP + 1, SEARCH_TOTAL_CAP), { ...query, q: 'x' }))
+      .toEqual({ items: [], total: SEARCH_TOTAL_CAP, page: 1, pageSize: 20, totalIsLowerBound: true });
+    expect(totalCapFor({ q: 'x' })).toBe(SEARCH_TOTAL_CAP);
+    expect(totalCapFor({})).toBe(TOTAL_CAP);
   });
 
   it('the audit log answers 10,000+ past the cap and the exact number below it', async () => {
@@ -100,6 +107,14 @@ describe('deep pages', () => {
     const ledger = await allPages('/api/client/ledger', tenant.users.clientAdmin, 'sort=entryNo&dir=asc');
     const [{ e }] = await t.db.query(`SELECT count(*)::int AS e FROM credit_ledger_entry WHERE lab_id = $1 AND client_organisation_id = $2`, [tenant.labId, tenant.bigClientId]);
     expect(new Set(ledger.ids).size).toBe(e);
+    // notifications: the page's ids come from the covering index, then the rows; order kept
+    const notices = await allPages('/api/client/notifications', tenant.users.clientAdmin, 'dir=desc');
+    const expected: { id: string }[] = await t.db.query(
+      `SELECT id FROM client_notification WHERE lab_id = $1 AND user_id = $2 ORDER BY created_at DESC, entry_no DESC`,
+      [tenant.labId, tenant.users.clientAdmin],
+    );
+    expect(expected.length).toBeGreaterThan(200);
+    expect(notices.ids).toEqual(expected.map((r) => r.id));
   });
 });
 
@@ -110,19 +125,26 @@ describe('searches', () => {
     expect(few.body.items.map((i: { code: string }) => i.code)).toEqual([code]);
     expect(few.body.total).toBe(1);
 
-    // "Cider" names a product of every organisation and one organisation: the broad path,
-    // walked in the queue's order; "Tonic 5 (demo)" one small client's product: the narrow path
-    for (const q of ['Cider', 'Tonic 5 (demo)']) {
+    // "demo" names every product and organisation: the broad path, walked in the queue's order,
+    // past the search's count cap; "Cider" names a product of every organisation and one
+    // organisation (a few hundred samples: the ids path, several pages); "Tonic 5 (demo)" one
+    // small client's product
+    for (const q of ['demo', 'Cider', 'Tonic 5 (demo)']) {
       const found = await allPages('/api/lab/samples', tenant.users.analyst, `q=${encodeURIComponent(q)}&sort=code&dir=asc`);
       const expected: { code: string }[] = await t.db.query(
         `SELECT s.code FROM sample s JOIN test_order o ON o.id = s.order_id JOIN product p ON p.id = o.product_id
          JOIN client_organisation co ON co.id = o.client_organisation_id
-         WHERE s.lab_id = $1 AND o.status <> 'cancelled' AND (p.name ILIKE $2 OR co.name ILIKE $2 OR s.code ILIKE $2 OR s.claimed_lot ILIKE $2) ORDER BY s.code`,
+         WHERE s.lab_id = $1 AND NOT (s.state = 'awaiting-arrival' AND o.status = 'cancelled')
+           AND (p.name ILIKE $2 OR co.name ILIKE $2 OR s.code ILIKE $2 OR s.claimed_lot ILIKE $2) ORDER BY s.code`,
         [tenant.labId, `%${q}%`],
       );
-      expect(expected.length).toBeGreaterThan(q === 'Cider' ? SPARSE_MATCHES : 0);
-      if (q !== 'Cider') expect(expected.length).toBeLessThan(SPARSE_MATCHES);
+      if (q === 'demo') expect(expected.length).toBeGreaterThan(SEARCH_TOTAL_CAP);
+      else expect(expected.length).toBeLessThan(SPARSE_MATCHES);
+      if (q === 'Cider') expect(expected.length).toBeGreaterThan(200);
       expect(found.codes).toEqual(expected.map((r) => r.code));
+      // the total is exact below the search's cap and "1,000+" past it, on every page
+      expect([...found.totals]).toEqual([Math.min(expected.length, SEARCH_TOTAL_CAP)]);
+      expect([...found.lowerBounds]).toEqual([expected.length > SEARCH_TOTAL_CAP]);
     }
   });
 
@@ -173,6 +195,20 @@ describe('tenancy and roles', () => {
     expect(theirs.ids).toHaveLength(n);
     const bigOnes: { id: string }[] = await t.db.query(`SELECT id FROM test_order WHERE client_organisation_id = $1`, [tenant.bigClientId]);
     expect(theirs.ids.filter((id) => bigOnes.some((b) => b.id === id))).toEqual([]);
+  });
+
+  it("a broad search, a medium one and a small list of another lab hold none of the tenant's rows", async () => {
+    const theirs: { id: string }[] = await t.db.query(`SELECT id FROM sample WHERE lab_id = $1`, [tenant.labId]);
+    const tenantIds = new Set(theirs.map((r) => r.id));
+    for (const q of ['demo', 'Cider', 'OP-']) {
+      const other = await request(t.app).get(`/api/lab/samples?pageSize=100&q=${q}`).set(await t.authFor('analyst')).expect(200);
+      expect(other.body.items.filter((i: { id: string }) => tenantIds.has(i.id))).toEqual([]);
+      if (other.body.totalIsLowerBound) expect(other.body.total).toBe(SEARCH_TOTAL_CAP);
+    }
+    // the other lab's staff list is counted its own way: none of the tenant's staff, exact total
+    const staff = await request(t.app).get('/api/lab/staff?pageSize=100').set(await t.authFor('lab-admin')).expect(200);
+    expect(staff.body.items.some((u: { email: string }) => u.email.endsWith(`@hollowmere-${tenant.tag.toLowerCase()}.test`))).toBe(false);
+    expect(staff.body.total).toBe(staff.body.items.length);
   });
 
   it('a client cannot read lab lists and an analyst cannot read the audit log', async () => {

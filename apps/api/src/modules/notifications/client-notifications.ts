@@ -1,7 +1,7 @@
 import type { EntityManager } from 'typeorm';
 import type { ClientNotification, ClientNotificationListQuery, ClientNotificationPage } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
-import { cappedCount, pageParams, toCappedPage } from '../../core/paging';
+import { cappedCount, pageParams, toCappedPage, totalCapFor } from '../../core/paging';
 
 /** Whose notifications: one user of one organisation of one lab (all from the caller's session). */
 export interface NotificationReader {
@@ -40,12 +40,18 @@ export async function listNotifications(manager: EntityManager, reader: Notifica
   const { skip, take } = pageParams(query);
   const unread = query.unread === 'true' ? ' AND read_at IS NULL' : query.unread === 'false' ? ' AND read_at IS NOT NULL' : '';
   const dir = query.dir === 'asc' ? 'ASC' : 'DESC';
-  const rows: Row[] = await manager.query(
-    `SELECT id, event, subject, body, link, read_at, created_at FROM client_notification
-      WHERE ${SCOPE}${unread} ORDER BY created_at ${dir}, entry_no ${dir} OFFSET $4 LIMIT $5`,
-    [...scopeValues(reader), skip, take],
-  );
-  const counted = await cappedCount(manager, `FROM client_notification WHERE ${SCOPE}${unread}`, scopeValues(reader));
+  // the page's ids come from the list's covering index alone (a deep page skips index entries),
+  // then only those rows are read
+  const [rows, counted] = await Promise.all([
+    manager.query(
+      `SELECT n.id, n.event, n.subject, n.body, n.link, n.read_at, n.created_at
+       FROM client_notification n JOIN (SELECT id FROM client_notification WHERE ${SCOPE}${unread}
+                                        ORDER BY created_at ${dir}, entry_no ${dir} OFFSET $4 LIMIT $5) page USING (id)
+       ORDER BY n.created_at ${dir}, n.entry_no ${dir}`,
+      [...scopeValues(reader), skip, take],
+    ) as Promise<Row[]>,
+    cappedCount(manager, `FROM client_notification WHERE ${SCOPE}${unread}`, scopeValues(reader), totalCapFor(query)),
+  ]);
   return toCappedPage(rows.map(toView), counted, query);
 }
 

@@ -1,6 +1,6 @@
 import type { EntityManager } from 'typeorm';
 import type { LabSummary, ListQuery, Page } from '@ohmprint/contracts';
-import { escapeLike, pageParams, toPage } from '../../core/paging';
+import { cappedCount, escapeLike, pageParams, toCappedPage, totalCapFor } from '../../core/paging';
 
 const SORT_COLUMNS: Record<string, string> = { name: 'lower(l.name)', createdAt: 'l.created_at', status: 'l.status' };
 
@@ -15,15 +15,13 @@ interface LabRow {
   status: LabSummary['status'];
   created_at: Date;
   staff_count: string;
-  total: string;
 }
 
 /** Only the tenant's profile and head count: the operator never reads a lab's sample data. */
 const SELECT = `
   SELECT l.id, l.name, l.legal_name, l.address, l.accreditation_body, l.accreditation_number,
          l.turnaround_target_days, l.status, l.created_at,
-         (SELECT count(DISTINCT r.user_id) FROM lab_role_membership r WHERE r.lab_id = l.id) AS staff_count,
-         count(*) OVER () AS total
+         (SELECT count(DISTINCT r.user_id) FROM lab_role_membership r WHERE r.lab_id = l.id) AS staff_count
   FROM lab l`;
 
 function toDto(row: LabRow): LabSummary {
@@ -45,10 +43,11 @@ export async function listLabs(manager: EntityManager, query: ListQuery): Promis
   const { skip, take } = pageParams(query);
   const q = query.q ? escapeLike(query.q) : null;
   const where = `WHERE ($1::text IS NULL OR l.name ILIKE $1 OR l.legal_name ILIKE $1)`;
-  const rows: LabRow[] = await manager.query(`${SELECT} ${where} ORDER BY ${SORT_COLUMNS[query.sort]} ${query.dir === 'desc' ? 'DESC' : 'ASC'}, l.id LIMIT $2 OFFSET $3`, [q, take, skip]);
-  let total = rows.length ? Number(rows[0].total) : 0;
-  if (!rows.length && skip > 0) total = Number((await manager.query(`SELECT count(*) AS n FROM lab l ${where}`, [q]))[0].n);
-  return toPage(rows.map(toDto), total, query);
+  const [rows, total] = await Promise.all([
+    manager.query(`${SELECT} ${where} ORDER BY ${SORT_COLUMNS[query.sort]} ${query.dir === 'desc' ? 'DESC' : 'ASC'}, l.id LIMIT $2 OFFSET $3`, [q, take, skip]) as Promise<LabRow[]>,
+    cappedCount(manager, `FROM lab l ${where}`, [q], totalCapFor(query)),
+  ]);
+  return toCappedPage(rows.map(toDto), total, query);
 }
 
 export async function findLab(manager: EntityManager, id: string): Promise<LabSummary | null> {

@@ -1,7 +1,7 @@
 import type { EntityManager } from 'typeorm';
 import type { ClientOrderListQuery, OrderSummary, Page, ProductListQuery, ProductSummary } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
-import { cappedCount, escapeLike, sparseSearchIds, pageParams, toCappedPage } from '../../core/paging';
+import { cappedCount, escapeLike, sparseSearchIds, pageParams, toCappedPage, totalCapFor } from '../../core/paging';
 
 /** Whose data a client user sees: their organisation, inside their lab. */
 export interface ClientScope {
@@ -85,10 +85,12 @@ export async function clientOrders(manager: EntityManager, scope: ClientScope, q
     const p = `$${params.length}`;
     // each alternative on its own table's index (trigram for the sample's texts)
     const products = `SELECT p2.id FROM product p2 WHERE p2.lab_id = $1 AND p2.client_organisation_id = $2 AND p2.name ILIKE ${p}`;
-    const arms = `SELECT x.id FROM test_order x WHERE x.lab_id = $1 AND x.client_organisation_id = $2 AND x.product_id IN (${products})
-      UNION ALL SELECT s.order_id FROM sample s WHERE s.lab_id = $1 AND s.code ILIKE ${p}
-      UNION ALL SELECT s.order_id FROM sample s WHERE s.lab_id = $1 AND s.claimed_lot ILIKE ${p}
-      UNION ALL SELECT s.order_id FROM sample s WHERE s.lab_id = $1 AND s.label_text ILIKE ${p}`;
+    const arms = [
+      `SELECT x.id FROM test_order x WHERE x.lab_id = $1 AND x.client_organisation_id = $2 AND x.product_id IN (${products})`,
+      `SELECT s.order_id FROM sample s WHERE s.lab_id = $1 AND s.code ILIKE ${p}`,
+      `SELECT s.order_id FROM sample s WHERE s.lab_id = $1 AND s.claimed_lot ILIKE ${p}`,
+      `SELECT s.order_id FROM sample s WHERE s.lab_id = $1 AND s.label_text ILIKE ${p}`,
+    ];
     const ids = await sparseSearchIds(manager, arms, params);
     if (ids) params[params.length - 1] = ids;
     where.push(ids
@@ -107,7 +109,7 @@ export async function clientOrders(manager: EntityManager, scope: ClientScope, q
        ORDER BY ${order}`,
       [...params, take, skip],
     ) as Promise<OrderRow[]>,
-    cappedCount(manager, `FROM test_order o WHERE ${where.join(' AND ')}`, params),
+    cappedCount(manager, `FROM test_order o WHERE ${where.join(' AND ')}`, params, totalCapFor(query)),
   ]);
   return toCappedPage(rows.map(orderView), counted, query);
 }
@@ -179,7 +181,7 @@ export async function clientProducts(manager: EntityManager, scope: ClientScope,
        LIMIT $${params.length + 1} OFFSET $${params.length + 2}`,
       [...params, take, skip],
     ) as Promise<ProductRow[]>,
-    cappedCount(manager, `FROM product p WHERE p.lab_id = $1 AND p.client_organisation_id = $2 ${search}`, params),
+    cappedCount(manager, `FROM product p WHERE p.lab_id = $1 AND p.client_organisation_id = $2 ${search}`, params, totalCapFor(query)),
   ]);
   return toCappedPage(rows.map(productView), counted, query);
 }

@@ -10,6 +10,7 @@ import { TestReport } from './test-report.entity';
 import { claimReportNumber, markClaimIssued } from './report-numbering';
 import { formatVerificationCode, newVerificationCode, verificationUrl } from './verification-code';
 import { produceSignedReport } from './produce-signed-report';
+import { stageClock } from './issuance-stages';
 
 /** A step another feature adds to the issuing transaction, run after the report row exists. */
 export type IssuanceStep = (manager: EntityManager, report: TestReport) => Promise<void>;
@@ -41,7 +42,10 @@ export async function issueReport(manager: EntityManager, input: IssueReportInpu
   if (!lab) throw ApiError.notFound('The lab');
   const issuedAt = input.issuedAt ?? new Date();
   // Claimed in a moment of its own: the lab's counter is not locked while the PDF renders and signs.
+  const clock = stageClock();
+  clock?.lap('loadData');
   const claim = await claimReportNumber(manager, lab, issuedAt);
+  clock?.lap('claimNumber');
   const number = claim.number;
   const report = await storeSignedReport(manager, lab, {
     content: input.content,
@@ -56,6 +60,7 @@ export async function issueReport(manager: EntityManager, input: IssueReportInpu
     clientOrganisationId: input.clientOrganisationId,
   });
   await markClaimIssued(manager, claim, report.id);
+  clock?.lap('store');
   await recordAudit(manager, {
     labId: lab.id,
     actorUserId: input.actorUserId,
@@ -64,6 +69,7 @@ export async function issueReport(manager: EntityManager, input: IssueReportInpu
     subjectId: report.id,
     details: { number, analysisId: input.analysisId, sha256: report.sha256, verdict: report.verdict },
   });
+  clock?.lap('audit');
   await notifyClient(manager, report, 'report-issued', {
     subject: `Test report ${number} is ready`,
     lines: [
@@ -75,7 +81,9 @@ export async function issueReport(manager: EntityManager, input: IssueReportInpu
       `Anyone holding the PDF can check it at ${verificationUrl(number, report.verificationCode)}`,
     ],
   });
+  clock?.lap('notify');
   for (const step of input.steps ?? []) await step(manager, report);
+  clock?.lap('credits');
   return report;
 }
 

@@ -1,6 +1,5 @@
-import { Client } from 'pg';
 import type { EntityManager } from 'typeorm';
-import { dataSource } from '../../db/data-source';
+import { reportNumberConnection } from './report-number-connections';
 
 /** A lab's report prefix: up to three letters of its name, e.g. "Calder Analytical" → CAL. */
 export function prefixCandidate(labName: string): string {
@@ -56,24 +55,25 @@ export interface ReportNumberClaim {
 }
 
 /**
- * A connection of its own (not from the pool the caller's transaction holds one of), so the
- * claim commits at once and a burst of issuances can never wait on the pool it is holding.
+ * A connection of its own (not from the pool the caller's transaction holds one of; see
+ * `reportNumberConnection`), so the claim commits at once and a burst of issuances can never wait
+ * on the pool it is holding.
  */
 async function withOwnConnection<T>(work: (manager: EntityManager) => Promise<T>): Promise<T> {
-  const o = dataSource.options as { host?: string; port?: number; username?: string; password?: unknown; database?: string };
-  const client = new Client({ host: o.host, port: o.port, user: o.username, password: o.password as string, database: o.database, application_name: 'ohmprint-report-number' });
-  await client.connect();
+  const client = await reportNumberConnection();
   const manager = { query: async (sql: string, params?: unknown[]) => (await client.query(sql, params)).rows } as unknown as EntityManager;
+  let broken: Error | undefined;
   try {
     await client.query('BEGIN');
     const result = await work(manager);
     await client.query('COMMIT');
     return result;
   } catch (err) {
-    await client.query('ROLLBACK').catch(() => undefined);
+    await client.query('ROLLBACK').catch((e: Error) => (broken = e));
     throw err;
   } finally {
-    await client.end();
+    // a connection that could not even roll back is closed rather than handed to the next claim
+    client.release(broken);
   }
 }
 

@@ -1,7 +1,7 @@
 import type { EntityManager } from 'typeorm';
 import type { Page, ReportDetail, ReportListQuery, ReportSummary } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
-import { cappedCount, escapeLike, sparseSearchIds, pageParams, toCappedPage } from '../../core/paging';
+import { cappedCount, escapeLike, sparseSearchIds, pageParams, toCappedPage, totalCapFor } from '../../core/paging';
 import { formatVerificationCode, verificationUrl } from './verification-code';
 import { TestReport } from './test-report.entity';
 
@@ -95,10 +95,12 @@ export async function listReports(manager: EntityManager, scope: ReportScope, qu
     const p = `$${params.length}`;
     // one arm per column, each on its own (trigram) index, rather than one OR tested on every report
     const clients = `SELECT c2.id FROM client_organisation c2 WHERE c2.lab_id = $1 AND c2.name ILIKE ${p}`;
-    const arms = `SELECT x.id FROM test_report x WHERE x.lab_id = $1 AND x.number ILIKE ${p}
-      UNION ALL SELECT x.id FROM test_report x WHERE x.lab_id = $1 AND x.sample_code ILIKE ${p}
-      UNION ALL SELECT x.id FROM test_report x WHERE x.lab_id = $1 AND x.product_name ILIKE ${p}
-      UNION ALL SELECT x.id FROM test_report x WHERE x.lab_id = $1 AND x.client_organisation_id IN (${clients})`;
+    const arms = [
+      `SELECT x.id FROM test_report x WHERE x.lab_id = $1 AND x.number ILIKE ${p}`,
+      `SELECT x.id FROM test_report x WHERE x.lab_id = $1 AND x.sample_code ILIKE ${p}`,
+      `SELECT x.id FROM test_report x WHERE x.lab_id = $1 AND x.product_name ILIKE ${p}`,
+      `SELECT x.id FROM test_report x WHERE x.lab_id = $1 AND x.client_organisation_id IN (${clients})`,
+    ];
     const ids = await sparseSearchIds(manager, arms, params);
     if (ids) params[params.length - 1] = ids;
     clause += ids
@@ -113,7 +115,7 @@ export async function listReports(manager: EntityManager, scope: ReportScope, qu
       `${SELECT.replace('FROM test_report r', `FROM (SELECT r.* FROM test_report r JOIN (SELECT r.id FROM test_report r WHERE ${clause} ORDER BY ${order} LIMIT ${take} OFFSET ${skip}) page USING (id)) r`)} ORDER BY ${order}`,
       params,
     ) as Promise<Row[]>,
-    cappedCount(manager, `FROM test_report r WHERE ${clause}`, params),
+    cappedCount(manager, `FROM test_report r WHERE ${clause}`, params, totalCapFor(query)),
   ]);
   return toCappedPage(rows.map(summary), counted, query);
 }

@@ -7,6 +7,8 @@ import { Analysis } from '../analyses/analysis.entity';
 import { refreshOrderStatus } from '../orders/order-progress';
 import { consumeSampleCredits } from '../orders/sample-credits';
 import { issueReport } from '../reports/issue-report';
+import { StageClock, withStageClock, type IssuanceStages } from '../reports/issuance-stages';
+import { logger } from '../../core/logger';
 import { findLabSample, moveSample } from '../samples/sample-access';
 import { AnalysisReview } from './analysis-review.entity';
 import { reportContentFor } from './report-content';
@@ -29,8 +31,17 @@ export async function enqueueReportIssuance(manager: EntityManager, labId: strin
  * commit together; a crash before commit (even after signing) leaves nothing, and the number it
  * had claimed is the next one handed out (see `claimReportNumber`).
  */
-export async function issueApprovedReport(payload: ReportIssuancePayload): Promise<{ reportId: string; number: string; already: boolean }> {
+export async function issueApprovedReport(payload: ReportIssuancePayload, timing: { pickupMs?: number } = {}): Promise<{ reportId: string; number: string; already: boolean; stagesMs: IssuanceStages }> {
   const { labId, analysisId } = payload;
+  const clock = new StageClock();
+  const result = await withStageClock(clock, () => issueInTransaction(labId, analysisId, clock));
+  clock.lap('commit');
+  const stagesMs: IssuanceStages = { pickup: timing.pickupMs === undefined ? undefined : Math.round(timing.pickupMs), ...clock.finish() };
+  logger.info({ analysisId, number: result.number, already: result.already, stagesMs }, 'report issuance stages');
+  return { ...result, stagesMs };
+}
+
+function issueInTransaction(labId: string, analysisId: string, clock: StageClock): Promise<{ reportId: string; number: string; already: boolean }> {
   return dataSource.transaction(async (manager) => {
     const review = await manager.findOne(AnalysisReview, {
       where: { labId, analysisId, decision: 'approved' },
@@ -38,6 +49,7 @@ export async function issueApprovedReport(payload: ReportIssuancePayload): Promi
       lock: { mode: 'pessimistic_write' },
     });
     if (!review) throw new Error(`analysis ${analysisId} has no approval to issue a report for`);
+    clock.lap('lockApproval');
     if (review.reportId) {
       const [done]: Array<{ number: string }> = await manager.query('SELECT number FROM test_report WHERE id = $1', [review.reportId]);
       return { reportId: review.reportId, number: done.number, already: true };
@@ -53,6 +65,7 @@ export async function issueApprovedReport(payload: ReportIssuancePayload): Promi
     await manager.update(AnalysisReview, { id: review.id, labId }, { reportId: report.id });
     await moveSample(manager, sample, 'reported');
     await refreshOrderStatus(manager, labId, sample.orderId);
+    clock.lap('finish');
     return { reportId: report.id, number: report.number, already: false };
   });
 }

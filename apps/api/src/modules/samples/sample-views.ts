@@ -2,7 +2,7 @@ import type { EntityManager } from 'typeorm';
 import type { IntakeLimit, IntakePhoto, Page, SampleDetail, WorkQueueItem, WorkQueueQuery } from '@ohmprint/contracts';
 import { intakeWarnings, limitsFrom } from '../intake/intake-guardrails';
 import { ApiError } from '../../core/api-error';
-import { cappedCount, escapeLike, sparseSearchIds, pageParams, toCappedPage } from '../../core/paging';
+import { cappedCount, escapeLike, sparseSearchIds, pageParams, toCappedPage, totalCapFor } from '../../core/paging';
 import { sampleTiming } from './sample-timing';
 import { revokedReportOf } from '../analyses/revoked-report';
 
@@ -48,26 +48,28 @@ export async function workQueue(manager: EntityManager, labId: string, query: Wo
   if (query.q) {
     params.push(escapeLike(query.q));
     const p = `$${params.length}`;
-    // one arm per column, each on its own index (trigram for the sample's texts): an OR across
-    // tables would make the database test every sample of the lab
+    // one arm per column, each on its own index (trigram for the sample's texts): an OR tested
+    // on every sample would read the whole lab. The product and client are the sample's own
+    // columns (copied from its order), so a broad search tests each sample row without a join.
     const products = `SELECT p2.id FROM product p2 WHERE p2.lab_id = $1 AND p2.name ILIKE ${p}`;
     const clients = `SELECT c2.id FROM client_organisation c2 WHERE c2.lab_id = $1 AND c2.name ILIKE ${p}`;
-    const arms = `SELECT x.id FROM sample x WHERE x.lab_id = $1 AND x.code ILIKE ${p}
-      UNION ALL SELECT x.id FROM sample x WHERE x.lab_id = $1 AND x.claimed_lot ILIKE ${p}
-      UNION ALL SELECT x.id FROM sample x JOIN test_order o2 ON o2.id = x.order_id WHERE x.lab_id = $1 AND o2.lab_id = $1 AND o2.product_id IN (${products})
-      UNION ALL SELECT x.id FROM sample x JOIN test_order o2 ON o2.id = x.order_id WHERE x.lab_id = $1 AND o2.lab_id = $1 AND o2.client_organisation_id IN (${clients})`;
+    const arms = [
+      `SELECT x.id FROM sample x WHERE x.lab_id = $1 AND x.code ILIKE ${p}`,
+      `SELECT x.id FROM sample x WHERE x.lab_id = $1 AND x.claimed_lot ILIKE ${p}`,
+      `SELECT x.id FROM sample x WHERE x.lab_id = $1 AND x.product_id IN (${products})`,
+      `SELECT x.id FROM sample x WHERE x.lab_id = $1 AND x.client_organisation_id IN (${clients})`,
+    ];
     const ids = await sparseSearchIds(manager, arms, params);
     if (ids) params[params.length - 1] = ids;
     where.push(ids
       ? `s.id = ANY(${p}::uuid[])`
-      : `(s.code ILIKE ${p} OR s.claimed_lot ILIKE ${p} OR EXISTS (SELECT 1 FROM test_order o2 WHERE o2.id = s.order_id
-           AND (o2.product_id IN (${products}) OR o2.client_organisation_id IN (${clients}))))`);
+      : `(s.code ILIKE ${p} OR s.claimed_lot ILIKE ${p} OR s.product_id IN (${products}) OR s.client_organisation_id IN (${clients}))`);
   }
   // For age the user's direction is about age, the opposite of the timestamp's.
   const ascending = query.sort === 'age' ? query.dir === 'desc' : query.dir === 'asc';
   const order = `${QUEUE_SORT[query.sort]} ${ascending ? 'ASC' : 'DESC'}, s.code ASC`;
   const { skip, take } = pageParams(query);
-  const counted = cappedCount(manager, `FROM sample s WHERE ${where.join(' AND ')}`, params);
+  const counted = cappedCount(manager, `FROM sample s WHERE ${where.join(' AND ')}`, params, totalCapFor(query));
   const pageParamsAt = params.length;
   const rows: QueueRow[] = await manager.query(
     `SELECT s.id, s.code, s.state, p.name AS product_name, p.matrix, co.name AS client_name,

@@ -1,7 +1,7 @@
 import { ApiError } from '../../core/api-error';
 import type { EntityManager } from 'typeorm';
 import type { LabRole, ListQuery, Page, StaffMember } from '@ohmprint/contracts';
-import { escapeLike, pageParams, toPage } from '../../core/paging';
+import { cappedCount, escapeLike, pageParams, toCappedPage, totalCapFor } from '../../core/paging';
 
 const SORT_COLUMNS: Record<string, string> = { displayName: 'u.display_name', email: 'u.email', createdAt: 'u.created_at' };
 
@@ -12,7 +12,6 @@ interface StaffRow {
   status: 'active' | 'deactivated';
   created_at: Date;
   roles: LabRole[];
-  total: string;
 }
 
 function toStaffMember(row: StaffRow): StaffMember {
@@ -27,25 +26,24 @@ const ROLES = `ARRAY(SELECT r.role FROM lab_role_membership r WHERE r.user_id = 
 
 export async function listStaff(manager: EntityManager, labId: string, query: ListQuery): Promise<Page<StaffMember>> {
   const { skip, take } = pageParams(query);
-  const rows: StaffRow[] = await manager.query(
-    `SELECT u.id, u.email, u.display_name, u.status, u.created_at, ${ROLES}, count(*) OVER () AS total
-     ${STAFF_FROM} AND ($2::text IS NULL OR u.email ILIKE $2 OR u.display_name ILIKE $2)
-     ORDER BY ${SORT_COLUMNS[query.sort]} ${query.dir === 'desc' ? 'DESC' : 'ASC'}, u.id
-     LIMIT $3 OFFSET $4`,
-    [labId, query.q ? escapeLike(query.q) : null, take, skip],
-  );
-  const total = rows.length ? Number(rows[0].total) : skip > 0 ? await countStaff(manager, labId, query.q) : 0;
-  return toPage(rows.map(toStaffMember), total, query);
-}
-
-async function countStaff(manager: EntityManager, labId: string, q: string | undefined): Promise<number> {
-  const [row] = await manager.query(`SELECT count(*) AS n ${STAFF_FROM} AND ($2::text IS NULL OR u.email ILIKE $2 OR u.display_name ILIKE $2)`, [labId, q ? escapeLike(q) : null]);
-  return Number(row.n);
+  const search = `AND ($2::text IS NULL OR u.email ILIKE $2 OR u.display_name ILIKE $2)`;
+  const params = [labId, query.q ? escapeLike(query.q) : null];
+  const [rows, total] = await Promise.all([
+    manager.query(
+      `SELECT u.id, u.email, u.display_name, u.status, u.created_at, ${ROLES}
+       ${STAFF_FROM} ${search}
+       ORDER BY ${SORT_COLUMNS[query.sort]} ${query.dir === 'desc' ? 'DESC' : 'ASC'}, u.id
+       LIMIT $3 OFFSET $4`,
+      [...params, take, skip],
+    ) as Promise<StaffRow[]>,
+    cappedCount(manager, `${STAFF_FROM} ${search}`, params, totalCapFor(query)),
+  ]);
+  return toCappedPage(rows.map(toStaffMember), total, query);
 }
 
 /** One staff member of this lab, or null (also for another lab's user or a client user). */
 export async function findStaffMember(manager: EntityManager, labId: string, userId: string): Promise<StaffMember | null> {
-  const rows: StaffRow[] = await manager.query(`SELECT u.id, u.email, u.display_name, u.status, u.created_at, ${ROLES}, 1 AS total ${STAFF_FROM} AND u.id = $2`, [labId, userId]);
+  const rows: StaffRow[] = await manager.query(`SELECT u.id, u.email, u.display_name, u.status, u.created_at, ${ROLES} ${STAFF_FROM} AND u.id = $2`, [labId, userId]);
   return rows[0] ? toStaffMember(rows[0]) : null;
 }
 

@@ -1,4 +1,6 @@
 import { readFileSync } from 'node:fs';
+import * as fontkit from 'fontkit';
+import { LRUCache } from 'lru-cache';
 import { join, dirname } from 'node:path';
 import { woffToSfnt } from './woff-to-sfnt';
 
@@ -9,7 +11,8 @@ import { woffToSfnt } from './woff-to-sfnt';
  * character. What no Inter subset holds — superscripts (10⁻⁶, cm⁻¹), subscripts, ∞, ≤, √ — is drawn
  * with DejaVu Sans (@fontsource/dejavu-sans, whose one file carries them), so R∞ and 10⁻⁶ print as
  * such and copy out of the PDF as the same characters. The .woff files (pdfkit cannot read .woff2)
- * are unpacked once per process.
+ * are unpacked and parsed once per thread: every report reuses the same parsed fonts, whose tables
+ * (and the shaping plans fontkit builds from them) would otherwise be decoded again per report.
  */
 export type InterWeight = 400 | 600 | 700;
 
@@ -63,23 +66,65 @@ function subsets(): LoadedSubset[] {
   return loaded;
 }
 
-const unpacked = new Map<string, Buffer>();
+const parsed = new Map<string, fontkit.Font>();
 
-function fontFile(subset: string, weight: InterWeight): Buffer {
+/**
+ * The parsed font (pdfkit takes a fontkit font as it takes the file's bytes). Each document still
+ * makes its own subset of the glyphs it uses; what is shared is read-only: the decoded tables and
+ * fontkit's caches of glyphs and layouts.
+ */
+function parsedFont(subset: string, weight: InterWeight): fontkit.Font {
   const name = fontName(subset, weight);
-  let font = unpacked.get(name);
+  let font = parsed.get(name);
   if (!font) {
     const path = subset === FALLBACK_SUBSET ? fallbackFile(weight) : join(filesDir(), `inter-${subset}-${weight}-normal.woff`);
-    font = woffToSfnt(readFileSync(path));
-    unpacked.set(name, font);
+    font = withSharedLayouts(fontkit.create(woffToSfnt(readFileSync(path))) as fontkit.Font);
+    parsed.set(name, font);
   }
   return font;
+}
+
+/** Words laid out per font and thread; a report's vocabulary repeats, its numbers vary. */
+const LAYOUTS_KEPT = 4000;
+
+/**
+ * The font, answering `layout` from a cache of earlier answers. Shaping a word (OpenType
+ * substitutions and kerning) is most of a report's rendering time, and pdfkit caches it only per
+ * document. Laying out the same text with the same features always gives the same glyphs and
+ * positions; pdfkit scales the positions it is given in place, so each answer is a fresh copy.
+ */
+function withSharedLayouts(font: fontkit.Font): fontkit.Font {
+  const layouts = new LRUCache<string, fontkit.GlyphRun>({ max: LAYOUTS_KEPT });
+  const shaped = Object.create(font) as fontkit.Font;
+  shaped.layout = function (this: fontkit.Font, ...args: Parameters<fontkit.Font['layout']>): fontkit.GlyphRun {
+    const key = JSON.stringify(args);
+    let run = layouts.get(key);
+    if (!run) {
+      run = font.layout.apply(this, args);
+      layouts.set(key, run);
+    }
+    return copyRun(run);
+  } as fontkit.Font['layout'];
+  return shaped;
+}
+
+function copyRun(run: fontkit.GlyphRun): fontkit.GlyphRun {
+  const copy = Object.assign(Object.create(Object.getPrototypeOf(run) as object) as fontkit.GlyphRun, run);
+  copy.glyphs = [...run.glyphs];
+  copy.positions = run.positions.map((p) => Object.assign(Object.create(Object.getPrototypeOf(p) as object) as fontkit.GlyphPosition, p));
+  return copy;
+}
+
+/** Drops the parsed fonts and their layouts (tests compare a cold render with a warm one). */
+export function forgetParsedFonts(): void {
+  parsed.clear();
 }
 
 /** Registers every subset and weight on a document under the names `fontName()` returns. */
 export function registerInter(doc: PDFKit.PDFDocument): void {
   for (const subset of [...subsets().map((s) => s.subset), FALLBACK_SUBSET]) {
-    for (const weight of WEIGHTS) doc.registerFont(fontName(subset, weight), fontFile(subset, weight));
+    // pdfkit 0.20 accepts a parsed fontkit font where its types say only bytes or a path
+    for (const weight of WEIGHTS) doc.registerFont(fontName(subset, weight), parsedFont(subset, weight) as unknown as Buffer);
   }
 }
 

@@ -1,6 +1,6 @@
 import { plainAddPlaceholder } from '@signpdf/placeholder-plain';
-import { P12Signer } from '@signpdf/signer-p12';
 import signpdf from '@signpdf/signpdf';
+import { KeptP12Signer } from './kept-p12-signer';
 
 export interface SignatureFields {
   /** Shown by PDF readers as the reason; carries the report number so an uploaded copy names itself. */
@@ -14,7 +14,7 @@ export interface SignatureFields {
 /** The PKCS#7 detached signature of a 2048-bit RSA key with its chain fits well inside this. */
 const SIGNATURE_BYTES = 8192;
 
-/** Adds a signature field and signs the whole PDF (adbe.pkcs7.detached, SHA-256). */
+/** Adds a signature field and signs the whole PDF (adbe.pkcs7.detached, SHA-256; see `KeptP12Signer`). */
 export async function signPdf(pdf: Buffer, p12: Buffer, passphrase: string, fields: SignatureFields): Promise<Buffer> {
   const prepared = plainAddPlaceholder({
     pdfBuffer: pdf,
@@ -26,5 +26,5 @@ export async function signPdf(pdf: Buffer, p12: Buffer, passphrase: string, fiel
     signatureLength: SIGNATURE_BYTES,
     appName: 'Ohmprint',
   });
-  return signpdf.sign(prepared, new P12Signer(p12, { passphrase }), fields.signingTime);
+  return signpdf.sign(prepared, new KeptP12Signer(p12, passphrase), fields.signingTime);
 }
