@@ -55,13 +55,13 @@ describe('the signing credential routes', () => {
 
   it('holds no database transaction while the file’s keys are derived (the worker pool first, then a short transaction)', async () => {
     // Keep the pool busy so the derivation waits its turn; meanwhile look for open transactions.
-    const busy = Promise.all(Array.from({ length: 6 }, () => runCpuTask('hashPassword', { password: 'keep the pool busy', cost: 11 })));
+    const busy = Promise.all(Array.from({ length: 10 }, () => runCpuTask('hashPassword', { password: 'keep the pool busy', cost: 12 })));
     let poolDone = false;
     void busy.finally(() => (poolDone = true));
     const answer = post(p12, 'uploaded passphrase').then((r) => r);
     const idleInTransaction: number[] = [];
     while (!poolDone) {
-      const [{ n }] = await t.db.query(`SELECT count(*)::int AS n FROM pg_stat_activity WHERE datname = current_database() AND state = 'idle in transaction' AND pid <> pg_backend_pid()`);
+      const [{ n }] = await t.db.query(`SELECT count(*)::int AS n FROM pg_stat_activity WHERE datname = current_database() AND state = 'idle in transaction' AND now() - xact_start > interval '1 second' AND pid <> pg_backend_pid()`);
       idleInTransaction.push(n);
       await new Promise((r) => setTimeout(r, 20));
     }
