@@ -124,7 +124,7 @@ async function publicationState(manager: EntityManager, labId: string, version: 
   if (version.status !== 'draft') return { ...base, state: 'published', detail: null };
   const job = await latestJob(manager, 'library-publish', version.id);
   if (!job) return { ...base, state: 'draft', detail: null };
-  const output = (job.output ?? {}) as { refused?: string; message?: string };
+  const output = (job.output ?? {}) as { refused?: string };
   switch (job.state) {
     case 'created':
     case 'retry':
@@ -139,7 +139,8 @@ async function publicationState(manager: EntityManager, labId: string, version: 
       return {
         ...base,
         state: 'failed',
-        detail: `Publishing stopped after several attempts${output.message ? `: ${String(output.message).slice(0, 300)}` : ''}. Press publish to try again.`,
+        // The worker's own error may name tables or constraints: it stays in the worker's log, under the job's id.
+        detail: `Publishing stopped after several attempts (job ${job.id}; the cause is in the worker's log). Press publish to try again.`,
       };
   }
 }
