@@ -18,6 +18,7 @@ import { loadavg } from 'node:os';
 import { join } from 'node:path';
 import { monitorEventLoopDelay } from 'node:perf_hooks';
 import type { ClientPhase, ClientResult } from './support/availability-client';
+import { BENCH_PASSWORD, demoBenchDatabase } from './support/demo-database';
 import { line, mb, percentile, round } from './support/figures';
 
 process.env.LOG_LEVEL = 'silent';
@@ -44,20 +45,13 @@ const rssTimer = setInterval(() => {
 rssTimer.unref();
 
 async function main(): Promise<void> {
-  const { withMaintenanceConnection, quoteIdent } = await import('../../apps/api/src/testing/maintenance-db');
-  const database = `ohmprint_bench_avail_${process.pid}`;
-  await withMaintenanceConnection((c) => c.query(`CREATE DATABASE ${quoteIdent(database)}`));
+  // Migrated and seeded in a child process: this process holds the API alone (its memory is the figure).
+  const db = await demoBenchDatabase('ohmprint_bench_avail');
   const { dataSource } = await import('../../apps/api/src/db/data-source');
-  dataSource.setOptions({ database, poolSize: 8 });
+  dataSource.setOptions({ database: db.name, poolSize: 8 });
   await dataSource.initialize();
   const servers: import('node:http').Server[] = [];
   try {
-    await dataSource.runMigrations({ transaction: 'each' });
-    const { hashPassword } = await import('../../apps/api/src/modules/auth/passwords');
-    const { seedAccounts } = await import('../../docker-free-scripts/seed/accounts');
-    const { seedLabDemo } = await import('../../docker-free-scripts/seed/lab-demo');
-    await dataSource.transaction(async (m) => seedAccounts(m, await hashPassword('bench-password-not-secret')));
-    await dataSource.transaction((m) => seedLabDemo(m));
     const [ctx] = await dataSource.query(
       `SELECT p.lab_id, (SELECT id FROM app_user WHERE email = 'analyst@calder.test') AS analyst_id,
               (SELECT order_id FROM sample WHERE code = 'OP-7K3M-Q9') AS order_id
@@ -146,7 +140,7 @@ async function main(): Promise<void> {
     await probe('availability-sign-in-flood-spread-over-addresses', floodOf(proxied, 'random-email', true));
     await dataSource.query(`DELETE FROM rate_limit_window`);
     // Correct passwords are never refused by the failure limits: every request is a real bcrypt check.
-    await probe('availability-sign-in-flood-correct-passwords', floodOf(base, { email: 'analyst@calder.test', password: 'bench-password-not-secret' }));
+    await probe('availability-sign-in-flood-correct-passwords', floodOf(base, { email: 'analyst@calder.test', password: BENCH_PASSWORD }));
     await dataSource.query(`DELETE FROM rate_limit_window`);
 
     const { MEASUREMENT_LIMITS } = await import('../../apps/api/src/modules/measurements/upload-measurements');
@@ -175,12 +169,12 @@ async function main(): Promise<void> {
     await probe('availability-maximal-upload', uploadsOf(await newSamples(1)), uploadFacts);
     await probe('availability-three-maximal-uploads-at-once', uploadsOf(await newSamples(3)), uploadFacts);
     client.kill();
-    line({ bench: 'availability-api-rss-peak', rssPeakMb: mb(rssPeak), budgetRssMb: 512, withinBudget: mb(rssPeak) < 512, note: 'the API runs in the bench process; peak over every phase above' });
+    line({ bench: 'availability-api-rss-peak', rssPeakMb: mb(rssPeak), budgetRssMb: 512, withinBudget: mb(rssPeak) < 512, note: 'the API runs in the bench process (migrations and seeding ran in a child process); peak over every phase above' });
     await closeCpuPool();
   } finally {
     await Promise.all(servers.map((s) => new Promise((r) => s.close(r))));
     await dataSource.destroy();
-    await withMaintenanceConnection((c) => c.query(`DROP DATABASE IF EXISTS ${quoteIdent(database)}`));
+    await db.drop();
   }
 }
 

@@ -6,6 +6,7 @@
  * it afterwards. Figures, not pass/fail: the budgets are printed beside them.
  */
 import { performance } from 'node:perf_hooks';
+import { demoBenchDatabase } from './support/demo-database';
 import { line, round, stats } from './support/figures';
 import { approveAndWait, startInProcessJobs, stopInProcessJobs } from './support/bench-jobs';
 import { startBenchApi } from './support/bench-api';
@@ -19,23 +20,14 @@ const LIBRARY_LOTS = 1000;
 
 
 async function main(): Promise<void> {
-  const { withMaintenanceConnection, quoteIdent } = await import('../../apps/api/src/testing/maintenance-db');
-  const database = `ohmprint_bench_${process.pid}`;
-  await withMaintenanceConnection((c) => c.query(`CREATE DATABASE ${quoteIdent(database)}`));
+  const db = await demoBenchDatabase('ohmprint_bench');
   const { dataSource } = await import('../../apps/api/src/db/data-source');
-  dataSource.setOptions({ database, poolSize: 4 });
+  dataSource.setOptions({ database: db.name, poolSize: 4 });
   await dataSource.initialize();
   let server: import('node:http').Server | undefined;
   try {
-    await dataSource.runMigrations({ transaction: 'each' });
     // Approvals queue the report as a job: this bench runs a worker in its own process, as tests do.
     await startInProcessJobs();
-    const { hashPassword } = await import('../../apps/api/src/modules/auth/passwords');
-    const { seedAccounts } = await import('../../docker-free-scripts/seed/accounts');
-    const { seedLabDemo } = await import('../../docker-free-scripts/seed/lab-demo');
-    const hash = await hashPassword('bench-password-not-secret');
-    await dataSource.transaction((m) => seedAccounts(m, hash));
-    await dataSource.transaction((m) => seedLabDemo(m));
 
     const { DEMO_PROFILES, demoLots } = await import('../../docker-free-scripts/seed/lab-demo-spectra');
     const { DEFAULT_METHOD } = await import('../../apps/api/src/modules/libraries/default-method');
@@ -138,7 +130,7 @@ async function main(): Promise<void> {
     await (await import('../../apps/api/src/core/cpu-pool/cpu-pool')).closeCpuPool();
     await new Promise((r) => (server ? server.close(r) : r(undefined)));
     await dataSource.destroy();
-    await withMaintenanceConnection((c) => c.query(`DROP DATABASE IF EXISTS ${quoteIdent(database)}`));
+    await db.drop();
   }
 }
 

@@ -10,6 +10,7 @@ import { existsSync, mkdirSync, openSync } from 'node:fs';
 import { createServer, type AddressInfo } from 'node:net';
 import { join } from 'node:path';
 import { performance } from 'node:perf_hooks';
+import { demoBenchDatabase } from './support/demo-database';
 import { line, median, round } from './support/figures';
 
 process.env.LOG_LEVEL = 'silent';
@@ -36,21 +37,13 @@ async function freePort(): Promise<number> {
 
 async function main(): Promise<void> {
   for (const f of ['main.js', 'worker.js']) if (!existsSync(join(DIST, f))) throw new Error(`${join(DIST, f)} is missing: npm run build:api`);
-  const { withMaintenanceConnection, quoteIdent } = await import('../../apps/api/src/testing/maintenance-db');
-  const database = `ohmprint_bench_jobs_${process.pid}`;
-  await withMaintenanceConnection((c) => c.query(`CREATE DATABASE ${quoteIdent(database)}`));
+  const db = await demoBenchDatabase('ohmprint_bench_jobs');
+  const database = db.name;
   const { dataSource } = await import('../../apps/api/src/db/data-source');
   dataSource.setOptions({ database, poolSize: 4 });
   await dataSource.initialize();
   const children: ChildProcess[] = [];
   try {
-    await dataSource.runMigrations({ transaction: 'each' });
-    await (await import('../../apps/api/src/core/jobs/jobs')).installJobSchema();
-    const { hashPassword } = await import('../../apps/api/src/modules/auth/passwords');
-    const { seedAccounts } = await import('../../docker-free-scripts/seed/accounts');
-    const { seedLabDemo } = await import('../../docker-free-scripts/seed/lab-demo');
-    await dataSource.transaction(async (m) => seedAccounts(m, await hashPassword('bench-password-not-secret')));
-    await dataSource.transaction((m) => seedLabDemo(m));
 
     const port = await freePort();
     const base = `http://127.0.0.1:${port}/api`;
@@ -184,7 +177,7 @@ async function main(): Promise<void> {
   } finally {
     await Promise.all(children.map((c) => new Promise<void>((r) => (c.exitCode !== null ? r() : (c.once('exit', () => r()), c.kill('SIGTERM'))))));
     await dataSource.destroy();
-    await withMaintenanceConnection((c) => c.query(`DROP DATABASE IF EXISTS ${quoteIdent(database)}`));
+    await db.drop();
   }
 }
 

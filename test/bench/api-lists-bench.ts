@@ -10,6 +10,7 @@
  */
 import type { AddressInfo } from 'node:net';
 import { performance } from 'node:perf_hooks';
+import { BENCH_PASSWORD } from './support/demo-database';
 import { line, round, stats } from './support/figures';
 
 process.env.LOG_LEVEL = 'silent';
@@ -48,7 +49,7 @@ async function main(): Promise<void> {
   try {
     const { hashPassword } = await import('../../apps/api/src/modules/auth/passwords');
     const { seed100x } = await import('./seed-100x');
-    const password = 'bench-password-not-secret';
+    const password = BENCH_PASSWORD;
     const passwordHash = await hashPassword(password);
     if (!exists) await dataSource.runMigrations({ transaction: 'each' });
     const t0 = performance.now();

@@ -10,6 +10,7 @@
  * seeded with the invented demo, and drops it afterwards. Figures, not pass/fail.
  */
 import { monitorEventLoopDelay, performance } from 'node:perf_hooks';
+import { demoBenchDatabase } from './support/demo-database';
 import { line, mb, percentile, round, stats } from './support/figures';
 import { approveAndWait, startInProcessJobs, stopInProcessJobs } from './support/bench-jobs';
 import { startBenchApi } from './support/bench-api';
@@ -54,21 +55,12 @@ const STAGE_TARGET_MS: Record<string, number> = {
 
 
 async function main(): Promise<void> {
-  const { withMaintenanceConnection, quoteIdent } = await import('../../apps/api/src/testing/maintenance-db');
-  const database = `ohmprint_results_bench_${process.pid}`;
-  await withMaintenanceConnection((c) => c.query(`CREATE DATABASE ${quoteIdent(database)}`));
+  const db = await demoBenchDatabase('ohmprint_results_bench');
   const { dataSource } = await import('../../apps/api/src/db/data-source');
-  dataSource.setOptions({ database, poolSize: 4 });
+  dataSource.setOptions({ database: db.name, poolSize: 4 });
   await dataSource.initialize();
   let server: import('node:http').Server | undefined;
   try {
-    await dataSource.runMigrations({ transaction: 'each' });
-    const { hashPassword } = await import('../../apps/api/src/modules/auth/passwords');
-    const { seedAccounts } = await import('../../docker-free-scripts/seed/accounts');
-    const { seedLabDemo } = await import('../../docker-free-scripts/seed/lab-demo');
-    const hash = await hashPassword('bench-password-not-secret');
-    await dataSource.transaction((m) => seedAccounts(m, hash));
-    await dataSource.transaction((m) => seedLabDemo(m));
     await startInProcessJobs();
     const [ctx] = await dataSource.query(
       `SELECT o.product_id, s.lab_id, s.id AS sample_id,
@@ -189,7 +181,7 @@ async function main(): Promise<void> {
     await new Promise((r) => (server ? server.close(r) : r(undefined)));
     await (await import('../../apps/api/src/core/cpu-pool/cpu-pool')).closeCpuPool();
     await dataSource.destroy();
-    await withMaintenanceConnection((c) => c.query(`DROP DATABASE IF EXISTS ${quoteIdent(database)}`));
+    await db.drop();
   }
 }
 
