@@ -5,11 +5,15 @@ import { closeCpuPool } from './core/cpu-pool/cpu-pool';
 import { logger } from './core/logger';
 import { startJobs, stopJobs } from './core/jobs/jobs';
 import { dataSource } from './db/data-source';
+import { sweepStaleUploadDirs } from './modules/samples/temp-upload-dir';
 
 async function main(): Promise<void> {
   await dataSource.initialize();
   const pending = await dataSource.showMigrations();
   if (pending) logger.warn('the database has pending migrations: run npm run db:migrate');
+
+  const swept = await sweepStaleUploadDirs();
+  if (swept.length) logger.info({ folders: swept.length }, 'removed upload folders a stopped process left behind');
 
   // The API only enqueues jobs; worker processes (worker.ts) run them.
   await startJobs({ maxConnections: 2 });

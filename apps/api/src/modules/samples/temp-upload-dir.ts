@@ -1,5 +1,5 @@
 import { randomUUID } from 'node:crypto';
-import { mkdtemp, rm } from 'node:fs/promises';
+import { mkdtemp, readdir, rm, stat } from 'node:fs/promises';
 import { join } from 'node:path';
 import type { NextFunction, Request, RequestHandler, Response } from 'express';
 import multer from 'multer';
@@ -34,4 +34,21 @@ export function uploadToTempFiles(options: Omit<multer.Options, 'storage' | 'des
       (err: unknown) => next(err),
     );
   };
+}
+
+/**
+ * Removes upload folders a stopped process left behind (killed mid-upload, machine lost power).
+ * Only folders untouched for `olderThanMs` go: another API process on the same machine may be
+ * receiving an upload into a folder of its own right now. Returns the folders removed.
+ */
+export async function sweepStaleUploadDirs(olderThanMs = 60 * 60 * 1000, root = config.uploadTmpDir): Promise<string[]> {
+  const names = (await readdir(root).catch(() => [] as string[])).filter((n) => n.startsWith(UPLOAD_DIR_PREFIX));
+  const removed: string[] = [];
+  for (const name of names) {
+    const dir = join(root, name);
+    const info = await stat(dir).catch(() => null);
+    if (!info?.isDirectory() || Date.now() - info.mtimeMs < olderThanMs) continue;
+    await rm(dir, { recursive: true, force: true }).then(() => removed.push(dir), () => undefined);
+  }
+  return removed;
 }
