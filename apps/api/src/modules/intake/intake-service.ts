@@ -72,8 +72,11 @@ async function orderFacts(manager: EntityManager, labId: string, orderId: string
 
 export interface UploadedImage {
   originalname: string;
-  buffer: Buffer;
   size: number;
+  /** The file's first bytes (enough to tell its kind). */
+  head: Buffer;
+  /** The whole file, read when its row is written (one photo in memory at a time). */
+  content(): Promise<Buffer>;
 }
 
 /** Stores intake photos; a file that is not a JPEG, PNG or WebP image is refused by name. */
@@ -81,7 +84,7 @@ export async function addPhotos(manager: EntityManager, auth: AuthContext, labId
   const sample = await findLabSample(manager, labId, sampleId, true);
   requireSampleState(sample, ['received', 'accepted', 'rejected'], 'adding intake photos');
   if (!files.length) throw ApiError.badRequest('Send one or more images in the "photos" field.', [{ field: 'photos', message: 'is required' }]);
-  const kinds = files.map((f) => imageKind(f.buffer));
+  const kinds = files.map((f) => imageKind(f.head));
   const bad = files.filter((_, i) => kinds[i] === null).map((f) => f.originalname);
   if (bad.length) {
     throw ApiError.badRequest(
@@ -90,10 +93,9 @@ export async function addPhotos(manager: EntityManager, auth: AuthContext, labId
     );
   }
   const now = new Date();
-  await manager.insert(
-    IntakePhoto,
-    files.map((f, i) => ({ labId, sampleId, fileName: f.originalname, contentType: kinds[i] as string, sizeBytes: f.size, content: f.buffer, uploadedByUserId: auth.userId, uploadedAt: now })),
-  );
+  for (const [i, f] of files.entries()) {
+    await manager.insert(IntakePhoto, { labId, sampleId, fileName: f.originalname, contentType: kinds[i] as string, sizeBytes: f.size, content: await f.content(), uploadedByUserId: auth.userId, uploadedAt: now });
+  }
   return samplePhotos(manager, labId, sampleId);
 }
 
