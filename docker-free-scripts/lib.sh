@@ -48,13 +48,17 @@ ensure_secrets() {
   local f="$DATA/secrets.env"
   if [ ! -f "$f" ]; then
     log "generating development secrets in .data/secrets.env"
-    umask 077
-    {
-      echo "PG_SUPERUSER_PASSWORD=$(openssl rand -hex 24)"
-      echo "PG_APP_PASSWORD=$(openssl rand -hex 24)"
-      echo "JWT_ACCESS_SECRET=$(openssl rand -hex 32)"
-      echo "PAYMENT_WEBHOOK_SECRET=whsec_$(openssl rand -hex 24)"
-    } >"$f"
+    # umask in a subshell: only the secrets file is private; what the scripts create afterwards
+    # (and every process they start, tests included) keeps the usual permissions.
+    (
+      umask 077
+      {
+        echo "PG_SUPERUSER_PASSWORD=$(openssl rand -hex 24)"
+        echo "PG_APP_PASSWORD=$(openssl rand -hex 24)"
+        echo "JWT_ACCESS_SECRET=$(openssl rand -hex 32)"
+        echo "PAYMENT_WEBHOOK_SECRET=whsec_$(openssl rand -hex 24)"
+      } >"$f"
+    )
   fi
   set -a; . "$f"; set +a
   export DATABASE_HOST=127.0.0.1 DATABASE_PORT="$PG_PORT" DATABASE_USER=ohmprint DATABASE_PASSWORD="$PG_APP_PASSWORD"

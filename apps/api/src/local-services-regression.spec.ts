@@ -52,7 +52,7 @@ async function scratchClone(): Promise<Clone> {
     root,
     env,
     sh: (code, extraEnv = {}) =>
-      execFileSync('bash', ['-c', `. docker-free-scripts/lib.sh; ensure_secrets >/dev/null; ${code}`], { cwd: root, env: { ...env, ...extraEnv }, encoding: 'utf8' }).trim(),
+      execFileSync('bash', ['-c', `umask 022; . docker-free-scripts/lib.sh; ensure_secrets >/dev/null; ${code}`], { cwd: root, env: { ...env, ...extraEnv }, encoding: 'utf8' }).trim(),
   };
 }
 
