@@ -200,6 +200,8 @@ describe('lab settings, the approval confirmation and client notifications', () 
 
     await page.getByRole('button', { name: 'Mark all read' }).click();
     await page.getByRole('link', { name: 'Notifications, none unread' }).waitFor();
+    // the bell counts at once; the list shows the notice read once its reload has come back
+    await item.filter({ hasNotText: 'Unread' }).waitFor();
     expect(await item.innerText()).not.toContain('Unread');
     await item.getByRole('link', { name: 'Open reports' }).click();
     await page.waitForURL(/\/reports$/);

@@ -50,7 +50,7 @@ export interface StartJobsOptions {
   supervise?: boolean;
   /** How often an idle worker polls when no wake-up arrives. */
   pollingIntervalSeconds?: number;
-  /** Connections pg-boss may open. */
+  /** Connections pg-boss may open (raised to one for each job worker plus one, so no fetch waits for a connection). */
   maxConnections?: number;
 }
 
@@ -92,10 +92,15 @@ async function createQueues(b: PgBoss): Promise<void> {
 /** Starts pg-boss on the app's database (after `dataSource.initialize()`), and the given handlers. */
 export async function startJobs(options: StartJobsOptions = {}): Promise<void> {
   if (boss) return;
+  const handlers = Object.entries(options.handlers ?? {}) as Array<[JobName, JobHandler]>;
+  // A connection for every worker's fetch and one to spare: a fetch left waiting for a connection
+  // when the stop closes the pool waits for ever (pg-pool serves no queued request once ending),
+  // and that worker's loop never ends.
+  const workerCount = handlers.reduce((n, [name]) => n + QUEUES[name].concurrency, 0);
   const b = new PgBoss({
     ...connectionOptions(),
     schema: JOB_SCHEMA,
-    max: options.maxConnections ?? 4,
+    max: Math.max(options.maxConnections ?? 4, workerCount + 1),
     supervise: options.supervise ?? false,
     schedule: false,
     application_name: 'ohmprint-jobs',
@@ -104,7 +109,6 @@ export async function startJobs(options: StartJobsOptions = {}): Promise<void> {
   await b.start();
   await createQueues(b);
   boss = b;
-  const handlers = Object.entries(options.handlers ?? {}) as Array<[JobName, JobHandler]>;
   for (const [name, handler] of handlers) {
     const ids: string[] = [];
     for (let i = 0; i < QUEUES[name].concurrency; i++) {
