@@ -11,10 +11,10 @@ import type { Browser, Page } from 'playwright-core';
 import { Client } from 'pg';
 import { DEMO_CELL_CONSTANT } from '../../docker-free-scripts/seed/lab-demo-files';
 import { demoRandom, demoSweeps, DEMO_PROFILES, seedFrom, suspectParameters } from '../../docker-free-scripts/seed/lab-demo-spectra';
-import { DEFAULT_METHOD } from '../../apps/api/src/modules/libraries/default-method';
 import { accessibilityFindings, describeFindings, settleAnimations, type ScreenFinding } from './support/accessibility';
 import { DEMO_PASSWORD, launchBrowser, url } from './support/browser';
 import { accessTokenFor, accessibilitySoFar, screenshotWhole, signInAt } from './support/desk';
+import { measuredLotsDraft } from './support/measured-lots-draft';
 import { BROWSER_PORT, ROOT, stackEnv } from './support/stack';
 
 const PRODUCT = 'Hollin Medlar (browser test)';
@@ -41,47 +41,11 @@ async function apiWithSmallAnalysisThreshold(): Promise<string> {
 
 const workerPid = () => Number(readFileSync(join(ROOT, '.data', 'run', 'worker-browser-test.pid'), 'utf8'));
 
-async function api(path: string, email: string, init: RequestInit = {}): Promise<Response> {
-  const token = await accessTokenFor(email);
-  return fetch(url(path), { ...init, headers: { Authorization: `Bearer ${token}`, 'Content-Type': 'application/json', ...(init.headers ?? {}) } });
-}
-
 /** The producer's enrolled lots, measured through the upload route, and an analyst's draft of them. */
 async function draftWithManyLots(): Promise<string> {
-  const { rows: [lab] } = await db.query(`SELECT id FROM lab WHERE name = 'Calder Analytical'`);
-  const { rows: [client] } = await db.query(`SELECT id FROM client_organisation WHERE lab_id = $1 AND name = 'Sunvale Juice Works'`, [lab.id]);
-  const { rows: [placer] } = await db.query(`SELECT placed_by_user_id AS id FROM test_order WHERE client_organisation_id = $1 LIMIT 1`, [client.id]);
-  const { rows: [product] } = await db.query(`INSERT INTO product (lab_id, client_organisation_id, name, matrix) VALUES ($1, $2, $3, 'juice') RETURNING id`, [lab.id, client.id, PRODUCT]);
-  const { rows: [order] } = await db.query(`INSERT INTO test_order (lab_id, client_organisation_id, product_id, status, placed_by_user_id) VALUES ($1, $2, $3, 'in-progress', $4) RETURNING id`, [lab.id, client.id, product.id, placer.id]);
-  medlarOrderId = order.id;
-  const token = await accessTokenFor('analyst@calder.test');
-  const bench = (await (await fetch(url('/api/lab/bench'), { headers: { Authorization: `Bearer ${token}` } })).json()) as { instruments: { id: string }[]; cells: { id: string }[] };
-  const profile = DEMO_PROFILES['cloudy-apple'];
-  for (let i = 0; i < LOTS; i++) {
-    const code = `OP-HM${String(i).padStart(2, '0')}-RF`;
-    await db.query(
-      `INSERT INTO sample (lab_id, order_id, code, state, obtained_where, obtained_on, kind, reference_lot, received_at)
-       VALUES ($1, $2, $3, 'accepted', 'Producer (invented test lot)', '2026-10-01', 'reference-lot', $4, now())`,
-      [lab.id, order.id, code, JSON.stringify({ lotCode: `HM-${String(i + 1).padStart(3, '0')}`, producedOn: `2026-0${1 + (i % 9)}-15`, volumeMl: 500 })],
-    );
-    const rng = demoRandom(seedFrom(`browser-medlar:${i}`));
-    const conditions = { cellConstantPerCm: DEMO_CELL_CONSTANT, temperatureC: 20, referenceTemperatureC: 20, coefficientPerC: 0.02 };
-    const form = new FormData();
-    form.append('instrumentId', bench.instruments[0].id);
-    form.append('cellId', bench.cells[0].id);
-    form.append('temperatureC', '20');
-    demoSweeps(suspectParameters(profile, { kind: 'none' }, rng), profile.model, conditions, 2, rng).forEach((s, r) => {
-      const rows = Array.from(s.frequencyHz, (f, k) => `${f},${s.re[k]},${s.im[k]}`);
-      form.append('files', new Blob([["Frequency (Hz),Z' (Ohm),Z'' (Ohm)", ...rows].join('\n') + '\n']), `medlar-${i + 1}-rep${r + 1}.csv`);
-    });
-    const res = await fetch(url(`/api/lab/samples/${code}/measurements`), { method: 'POST', headers: { Authorization: `Bearer ${token}` }, body: form });
-    if (res.status !== 201) throw new Error(`uploading ${code} answered ${res.status}: ${await res.text()}`);
-  }
-  const method = await api('/api/lab/methods', 'admin@calder.test', { method: 'POST', body: JSON.stringify({ name: 'Medlar screening', matrix: 'juice', settings: { ...DEFAULT_METHOD, model: 'cole-cole' } }) });
-  if (method.status !== 201) throw new Error(`method answered ${method.status}: ${await method.text()}`);
-  const draft = await api('/api/lab/library-drafts', 'analyst@calder.test', { method: 'POST', body: JSON.stringify({ productId: product.id, methodVersionId: ((await method.json()) as { id: string }).id }) });
-  if (draft.status !== 201) throw new Error(`draft answered ${draft.status}: ${await draft.text()}`);
-  return ((await draft.json()) as { id: string }).id;
+  const { draftId, orderId } = await measuredLotsDraft(db, { product: PRODUCT, lots: LOTS, codePrefix: 'HM', lotPrefix: 'HM', seed: 'browser-medlar', methodName: 'Medlar screening' });
+  medlarOrderId = orderId;
+  return draftId;
 }
 
 async function bothSchemes(page: Page, name: string): Promise<void> {

@@ -8,8 +8,9 @@ import { join } from 'node:path';
 import type { Browser, Page } from 'playwright-core';
 import { impedance } from '@ohmprint/spectral-engine';
 import { accessibilityFindings, describeFindings, type ScreenFinding } from './support/accessibility';
-import { launchBrowser, screenshot } from './support/browser';
+import { launchBrowser, screenshot, url } from './support/browser';
 import { openFromMenu, signInAt } from './support/desk';
+import { apiJson } from './support/lab-api';
 
 // Several screens per journey on a shared two-core machine, and a first visit that fits every lot.
 jest.setTimeout(600_000);
@@ -87,8 +88,13 @@ describe('control standards and method validation', () => {
   });
 
   it('a reviewer opens the method-validation screens', async () => {
+    // The demo's Ridgeline Red library, opened by its link (other journeys on this stack publish
+    // larger libraries of their own, and the page opens the first version it lists).
+    const libraries = await apiJson<{ items: Array<{ product: { name: string }; versions: Array<{ id: string; version: number; status: string }> }> }>('reviewer@calder.test', '/api/lab/libraries?pageSize=100');
+    const ridgeline = libraries.items.find((l) => l.product.name === 'Ridgeline Red (demo)')!.versions.filter((v) => v.status === 'published').sort((a, b) => b.version - a.version)[0];
     const { context, page } = await signInAt(browser, 'lab', 'reviewer@calder.test');
-    await openFromMenu(page, 'Method validation');
+    await page.goto(url(`/lab/validation?version=${ridgeline.id}`));
+    await page.getByRole('combobox', { name: 'Library version' }).filter({ hasText: `Ridgeline Red (demo) (Hollin Ridge Cellars) · version ${ridgeline.version}` }).waitFor();
     // the first visit fits every lot of the version (then cached): give a busy machine time
     await page.getByRole('table', { name: 'Correlation of fitted parameters with chemistry' }).waitFor({ timeout: 180_000 });
     await page.getByRole('figure').waitFor();

@@ -1,5 +1,7 @@
 import { ChangeDetectionStrategy, Component, computed, effect, inject, signal, untracked } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
+import { ActivatedRoute, Router } from '@angular/router';
+import { map } from 'rxjs';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
@@ -78,9 +80,12 @@ import { ValidationFiles } from './validation-files';
 })
 export class ValidationPage {
   private readonly data = inject(ValidationData);
+  private readonly router = inject(Router);
+  private readonly route = inject(ActivatedRoute);
   protected readonly files = inject(ValidationFiles);
   protected readonly versions = toSignal(this.data.versions());
-  private readonly chosenId = signal<string | null>(null);
+  /** The version named in the address (`?version=`), so a link or a reload opens that version's studies. */
+  private readonly chosenId = toSignal(this.route.queryParamMap.pipe(map((q) => q.get('version'))), { initialValue: null });
   protected readonly chosen = computed<VersionChoice | null>(() => {
     const vs = this.versions() ?? [];
     return vs.find((v) => v.versionId === this.chosenId()) ?? vs[0] ?? null;
@@ -100,7 +105,7 @@ export class ValidationPage {
   }
 
   protected choose(versionId: string): void {
-    this.chosenId.set(versionId);
+    void this.router.navigate([], { relativeTo: this.route, queryParams: { version: versionId }, queryParamsHandling: 'merge', replaceUrl: true });
   }
 
   protected reloadStudies(): void {
