@@ -101,10 +101,12 @@ async function main(): Promise<void> {
       }, 10);
       const cpuBefore = process.cpuUsage();
       const loadBefore = loadavg()[0];
-      const { health, list, loadMs, extra } = await inClient({ base, analyst, load });
+      const answer = await inClient({ base, analyst, load }).finally(() => {
+        clearInterval(watch);
+        loop.disable();
+      });
+      const { health, list, loadMs, extra } = answer;
       const cpu = process.cpuUsage(cpuBefore);
-      clearInterval(watch);
-      loop.disable();
       const worst = Math.max(p99(health) ?? 0, p99(list) ?? 0);
       line({
         bench: name,

@@ -52,7 +52,10 @@ async function uploads(phase: ClientPhase, load: Extract<ClientPhase['load'], { 
       form.set('cellId', load.cellId);
       form.set('temperatureC', '22');
       for (let i = 0; i < load.files; i++) form.append('files', file, `largest-${i}.csv`);
-      const res = await fetch(`${phase.base}/lab/samples/${id}/measurements`, { method: 'POST', headers: phase.analyst, body: form });
+      // An upload refused at once (429, before its body is read) closes the connection: the client
+      // may see the reset before it reads the answer.
+      const res = await fetch(`${phase.base}/lab/samples/${id}/measurements`, { method: 'POST', headers: phase.analyst, body: form }).catch(() => null);
+      if (!res) return { status: 'connection closed while sending (refused before its body was read)', saved: 0 };
       const body = (await res.json()) as { saved?: unknown[] };
       return { status: res.status, saved: body.saved?.length ?? 0 };
     }),
