@@ -6,7 +6,7 @@ export const BENCH_PASSWORD = 'bench-password-not-secret';
 
 export interface BenchDatabase {
   name: string;
-  /** Drops the database (call once, at the end, after closing every connection to it). */
+  /** Drops the database at the end (connections the API left open, e.g. its report-number claim pool, are ended). */
   drop(): Promise<void>;
 }
 
@@ -20,7 +20,7 @@ export async function demoBenchDatabase(prefix: string): Promise<BenchDatabase> 
   const name = `${prefix}_${process.pid}`;
   await withMaintenanceConnection((c) => c.query(`CREATE DATABASE ${quoteIdent(name)}`));
   const drop = async () => {
-    await withMaintenanceConnection((c) => c.query(`DROP DATABASE IF EXISTS ${quoteIdent(name)}`));
+    await withMaintenanceConnection((c) => c.query(`DROP DATABASE IF EXISTS ${quoteIdent(name)} WITH (FORCE)`));
   };
   try {
     execFileSync(join(__dirname, '..', '..', '..', 'node_modules', '.bin', 'tsx'), [join(__dirname, 'seed-demo-database.ts'), name], { stdio: 'inherit' });
