@@ -133,8 +133,13 @@ async function publicationState(manager: EntityManager, labId: string, version: 
       const progress = await publicationProgress(manager, labId, version.id);
       return { ...base, state: 'running', detail: null, ...(progress ? { progress } : {}) };
     }
-    case 'completed':
-      return output.refused ? { ...base, state: 'failed', detail: output.refused } : { ...base, state: 'draft', detail: null };
+    case 'completed': {
+      if (output.refused) return { ...base, state: 'failed', detail: output.refused };
+      // The job is marked completed only after its publishing transaction committed: a version read
+      // as a draft a moment before that commit is read again, so a finished publication never shows as a draft.
+      const now = await manager.findOne(LibraryVersion, { where: { id: version.id, labId } });
+      return now && now.status !== 'draft' ? { ...base, state: 'published', detail: null } : { ...base, state: 'draft', detail: null };
+    }
     default:
       return {
         ...base,
