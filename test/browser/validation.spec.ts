@@ -7,7 +7,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Browser, Page } from 'playwright-core';
 import { impedance } from '@ohmprint/spectral-engine';
-import { accessibilityFindings, describeFindings, type ScreenFinding } from './support/accessibility';
+import { accessibilityFindings, describeFindings, settleAnimations, type ScreenFinding } from './support/accessibility';
 import { launchBrowser, screenshot, url } from './support/browser';
 import { openFromMenu, signInAt } from './support/desk';
 import { apiJson } from './support/lab-api';
@@ -38,8 +38,11 @@ function kclFile(name: string, resistanceOhm: number): string {
 
 async function look(page: Page, name: string): Promise<void> {
   await page.waitForLoadState('networkidle');
+  // a confirmation snack bar (4 s) caught mid-animation reads as a contrast and aria-hidden failure
+  await page.locator('mat-snack-bar-container').waitFor({ state: 'detached', timeout: 15_000 });
   for (const scheme of ['light', 'dark'] as const) {
     await page.emulateMedia({ colorScheme: scheme });
+    await settleAnimations(page);
     findings.push(...(await accessibilityFindings(page, `${name} (${scheme})`)));
     await screenshot(page, `validation-${name}-${scheme}`);
   }
