@@ -12,6 +12,7 @@ import { join } from 'node:path';
 import { performance } from 'node:perf_hooks';
 import { demoBenchDatabase } from './support/demo-database';
 import { line, median, round } from './support/figures';
+import { cpuMsOf, cpuMsOfCommand } from './support/process-cpu';
 
 process.env.LOG_LEVEL = 'silent';
 
@@ -51,7 +52,9 @@ async function main(): Promise<void> {
     mkdirSync(join(ROOT, '.data', 'logs'), { recursive: true });
     for (const [name, script] of [['api', 'main.js'], ['worker', 'worker.js']]) {
       const out = openSync(join(ROOT, '.data', 'logs', `bench-jobs-${name}.log`), 'w');
-      children.push(spawn(process.execPath, [join(DIST, script)], { env, stdio: ['ignore', out, out] }));
+      // BENCH_PROFILE_DIR=<dir>: each process (and each of its threads) writes a V8 CPU profile there when it stops
+      const profile = process.env.BENCH_PROFILE_DIR ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_PROFILE_DIR}`] : [];
+      children.push(spawn(process.execPath, [...profile, join(DIST, script)], { env, stdio: ['ignore', out, out] }));
     }
     for (let i = 0; ; i++) {
       if (await fetch(`${base}/health`).then((r) => r.ok).catch(() => false)) break;
@@ -142,6 +145,11 @@ async function main(): Promise<void> {
     line({ bench: 'jobs-lone-approval-to-issued-report', n: LONE_RUNS, medianMs: round(loneMedian), minMs: round(Math.min(...lone.map((l) => l.issuedMs))), maxMs: round(Math.max(...lone.map((l) => l.issuedMs))), approvalAnswerMedianMs: round(median(lone.map((l) => l.answerMs))) });
     line({ bench: 'jobs-lone-issuance-stages', n: LONE_RUNS, medianMs: stageMedians(lone) });
 
+    // Where the machine's CPU goes during the four-at-once rounds, per issuance: what bounds the ratio on two cores.
+    const [apiProcess, workerProcess] = children;
+    const cpuNow = () => ({ api: cpuMsOf(apiProcess.pid!), worker: cpuMsOf(workerProcess.pid!), postgres: cpuMsOfCommand('postgres'), bench: process.cpuUsage().user / 1000 + process.cpuUsage().system / 1000 });
+    const cpuSpent: Record<string, number> = {};
+    let concurrentWallMs = 0;
     const slowest: number[] = [];
     const all: number[] = [];
     const answers: number[] = [];
@@ -150,12 +158,25 @@ async function main(): Promise<void> {
       // Prepared one after another (the API admits two uploads per lab at a time); only the approvals run at once.
       const four: string[] = [];
       for (let k = 0; k < 4; k++) four.push(await submitted());
+      const roundStart = performance.now();
+      const cpuBefore = cpuNow();
       const timings = await Promise.all(four.map(approveToIssued));
+      const cpuAfter = cpuNow();
+      for (const k of Object.keys(cpuBefore) as Array<keyof typeof cpuBefore>) cpuSpent[k] = (cpuSpent[k] ?? 0) + cpuAfter[k] - cpuBefore[k];
+      concurrentWallMs += performance.now() - roundStart;
       slowest.push(Math.max(...timings.map((t) => t.issuedMs)));
       all.push(...timings.map((t) => t.issuedMs));
       answers.push(...timings.map((t) => t.answerMs));
       concurrent.push(...timings);
     }
+    const issuances = CONCURRENT_ROUNDS * 4;
+    // from the four POSTs until the last report is seen issued (the poll that sees it included); 10 ms ticks
+    line({
+      bench: 'jobs-concurrent-cpu-per-issuance',
+      n: issuances,
+      cpuMs: Object.fromEntries(Object.entries(cpuSpent).map(([k, v]) => [k, round(v / issuances)])),
+      wallMsPerRound: round(concurrentWallMs / CONCURRENT_ROUNDS),
+    });
     line({ bench: 'jobs-concurrent-issuance-stages', n: concurrent.length, medianMs: stageMedians(concurrent), slowestOfEachFourMs: concurrent.filter((_, i) => i % 4 === 0).map((_, r) => { const four = concurrent.slice(r * 4, r * 4 + 4); return four.reduce((a, b) => (b.issuedMs > a.issuedMs ? b : a)).stages; }) });
     const slowestMedian = median(slowest);
     const loneAnswer = median(lone.map((l) => l.answerMs));
