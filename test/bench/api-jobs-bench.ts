@@ -5,11 +5,8 @@
  * migrated and demo-seeded database of its own, dropped afterwards. Prints JSON lines; the budget
  * (each of four concurrent approvals no slower than 1.5x a lone one) is printed beside the figure.
  */
-import { spawn, type ChildProcess } from 'node:child_process';
-import { existsSync, mkdirSync, openSync } from 'node:fs';
-import { createServer, type AddressInfo } from 'node:net';
-import { join } from 'node:path';
 import { performance } from 'node:perf_hooks';
+import { startBuiltProcess, type BuiltProcess } from './support/built-processes';
 import { demoBenchDatabase } from './support/demo-database';
 import { line, median, round } from './support/figures';
 import { cpuMsOf, cpuMsOfCommand } from './support/process-cpu';
@@ -24,43 +21,22 @@ const CONCURRENT_ROUNDS = 3;
  * ask four times as often as one: at 20 ms the asking alone took a sizeable share of the machine.
  */
 const POLL_MS = Number(process.env.BENCH_POLL_MS ?? 50);
-const ROOT = join(__dirname, '..', '..');
-const DIST = join(ROOT, 'dist', 'api', 'apps', 'api', 'src');
-
-
-async function freePort(): Promise<number> {
-  const server = createServer();
-  await new Promise<void>((r) => server.listen(0, '127.0.0.1', r));
-  const { port } = server.address() as AddressInfo;
-  await new Promise<void>((r) => server.close(() => r()));
-  return port;
-}
 
 async function main(): Promise<void> {
-  for (const f of ['main.js', 'worker.js']) if (!existsSync(join(DIST, f))) throw new Error(`${join(DIST, f)} is missing: npm run build:api`);
   const db = await demoBenchDatabase('ohmprint_bench_jobs');
   const database = db.name;
   const { dataSource } = await import('../../apps/api/src/db/data-source');
   dataSource.setOptions({ database, poolSize: 4 });
   await dataSource.initialize();
-  const children: ChildProcess[] = [];
+  const children: BuiltProcess[] = [];
   try {
-
-    const port = await freePort();
-    const base = `http://127.0.0.1:${port}/api`;
-    const env = { ...process.env, DATABASE_NAME: database, PORT: String(port), OUTBOX_WORKER: 'false', LOG_LEVEL: 'warn' };
-    mkdirSync(join(ROOT, '.data', 'logs'), { recursive: true });
-    for (const [name, script] of [['api', 'main.js'], ['worker', 'worker.js']]) {
-      const out = openSync(join(ROOT, '.data', 'logs', `bench-jobs-${name}.log`), 'w');
-      // BENCH_PROFILE_DIR=<dir>: each process (and each of its threads) writes a V8 CPU profile there when it stops
-      const profile = process.env.BENCH_PROFILE_DIR ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_PROFILE_DIR}`] : [];
-      children.push(spawn(process.execPath, [...profile, join(DIST, script)], { env, stdio: ['ignore', out, out] }));
-    }
-    for (let i = 0; ; i++) {
-      if (await fetch(`${base}/health`).then((r) => r.ok).catch(() => false)) break;
-      if (i > 200) throw new Error('the API did not start; see .data/logs/bench-jobs-api.log');
-      await new Promise((r) => setTimeout(r, 150));
-    }
+    const env = { DATABASE_NAME: database, OUTBOX_WORKER: 'false', LOG_LEVEL: 'warn' };
+    // BENCH_PROFILE_DIR=<dir>: each process (and each of its threads) writes a V8 CPU profile there when it stops
+    const profileDir = process.env.BENCH_PROFILE_DIR;
+    const api = await startBuiltProcess('main.js', 'bench-jobs-api', env, { profileDir });
+    children.push(api);
+    children.push(await startBuiltProcess('worker.js', 'bench-jobs-worker', { ...env, PORT: new URL(api.base).port }, { profileDir }));
+    const base = api.base;
 
     const { signAccessToken } = await import('../../apps/api/src/modules/auth/access-token');
     const { demoFiles } = await import('../../docker-free-scripts/seed/lab-demo-files');
@@ -147,7 +123,7 @@ async function main(): Promise<void> {
 
     // Where the machine's CPU goes during the four-at-once rounds, per issuance: what bounds the ratio on two cores.
     const [apiProcess, workerProcess] = children;
-    const cpuNow = () => ({ api: cpuMsOf(apiProcess.pid!), worker: cpuMsOf(workerProcess.pid!), postgres: cpuMsOfCommand('postgres'), bench: process.cpuUsage().user / 1000 + process.cpuUsage().system / 1000 });
+    const cpuNow = () => ({ api: cpuMsOf(apiProcess.pid), worker: cpuMsOf(workerProcess.pid), postgres: cpuMsOfCommand('postgres'), bench: process.cpuUsage().user / 1000 + process.cpuUsage().system / 1000 });
     const cpuSpent: Record<string, number> = {};
     let concurrentWallMs = 0;
     const slowest: number[] = [];
@@ -196,7 +172,7 @@ async function main(): Promise<void> {
       note: 'one API and one worker process; the worker renders and signs in its piscina pool (every core, threads kept warm). Rendering and signing now take tens of milliseconds of CPU per report (parsed fonts, word layouts and the opened credential kept per thread), about as much again goes to the API, PostgreSQL and the job itself; four issuances need four times that CPU, so on two cores shared with other work every stage of the four stretches with the load (compare the two stage lines) and the ratio follows the share of the machine the bench gets',
     });
   } finally {
-    await Promise.all(children.map((c) => new Promise<void>((r) => (c.exitCode !== null ? r() : (c.once('exit', () => r()), c.kill('SIGTERM'))))));
+    await Promise.all(children.map((c) => c.stop()));
     await dataSource.destroy();
     await db.drop();
   }
