@@ -40,6 +40,10 @@ describe('report issuance as a job', () => {
   it('answers the approval at once and shows the report as issuing, then issued with its number; the sample is reported only then', async () => {
     const a = await insertSubmittedAnalysis(t.db.manager, CALDER);
     withDemoContent(a);
+    // Before the approval there is no report to follow: 409 naming where the analysis is.
+    const early = await request(t.app).get(`/api/lab/analyses/${a.analysisId}/issuance`).set(await t.authFor('reviewer'));
+    expect(early.status).toBe(409);
+    expect(early.body.detail).toBe('This analysis is submitted; it has no approval, so no report is being issued.');
     const res = await approve(a);
     expect(res.status).toBe(202);
     expect(res.body).toEqual({ analysisId: a.analysisId, state: 'issuing', report: null, detail: null });

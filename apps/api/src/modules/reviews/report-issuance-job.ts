@@ -72,15 +72,19 @@ function issueInTransaction(labId: string, analysisId: string, clock: StageClock
 
 /** Where the report of an approved analysis is (the review screen polls this while it waits). */
 export async function reportIssuanceOf(manager: EntityManager, labId: string, analysisId: string): Promise<ApprovalResult> {
-  const analysis = await manager.findOneBy(Analysis, { id: analysisId, labId });
-  if (!analysis) throw ApiError.notFound('Analysis');
-  const [review]: Array<{ report_id: string | null; number: string | null }> = await manager.query(
-    `SELECT r.report_id, t.number FROM analysis_review r LEFT JOIN test_report t ON t.id = r.report_id
-      WHERE r.analysis_id = $1 AND r.lab_id = $2 AND r.decision = 'approved' ORDER BY r.decided_at DESC LIMIT 1`,
+  // One small row per ask: the analysis's status and its latest approval's report, if any.
+  const [row]: Array<{ status: string; approved: boolean; report_id: string | null; number: string | null }> = await manager.query(
+    `SELECT a.status, r.analysis_id IS NOT NULL AS approved, r.report_id, t.number
+       FROM analysis a
+       LEFT JOIN LATERAL (SELECT analysis_id, report_id FROM analysis_review
+                           WHERE analysis_id = a.id AND lab_id = a.lab_id AND decision = 'approved' ORDER BY decided_at DESC LIMIT 1) r ON true
+       LEFT JOIN test_report t ON t.id = r.report_id
+      WHERE a.id = $1 AND a.lab_id = $2`,
     [analysisId, labId],
   );
-  if (!review) throw ApiError.conflict(`This analysis is ${analysis.status}; it has no approval, so no report is being issued.`);
-  if (review.report_id) return { analysisId, state: 'issued', report: { id: review.report_id, number: review.number as string }, detail: null };
+  if (!row) throw ApiError.notFound('Analysis');
+  if (!row.approved) throw ApiError.conflict(`This analysis is ${row.status}; it has no approval, so no report is being issued.`);
+  if (row.report_id) return { analysisId, state: 'issued', report: { id: row.report_id, number: row.number as string }, detail: null };
   const job = await latestJob(manager, 'report-issue', analysisId);
   if (job?.state === 'failed') {
     return { analysisId, state: 'failed', report: null, detail: 'Issuing the report failed after several attempts. Ask your lab admin to check the signing certificate, then retry.' };
