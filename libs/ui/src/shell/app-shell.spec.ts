@@ -16,7 +16,7 @@ const nav: NavItem[] = [
   { label: 'Labs', icon: 'domain', path: '/labs', roles: ['platform-operator'] },
 ];
 
-async function openAs(roles: Parameters<typeof testUser>[0]['roles']) {
+async function openAs(roles: NonNullable<Parameters<typeof testUser>[0]>['roles']) {
   TestBed.configureTestingModule({
     providers: provideTestPortal({
       nav,

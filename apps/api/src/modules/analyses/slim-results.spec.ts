@@ -63,7 +63,7 @@ describe('an analysis against a library of thousands of lots', () => {
     let after: number | null = 0;
     let pages = 0;
     while (after !== null) {
-      const res = await request(t.app).get(`/api/lab/analyses/${analysisId}/lot-distances?after=${after}&limit=200`).set(analyst);
+      const res: request.Response = await request(t.app).get(`/api/lab/analyses/${analysisId}/lot-distances?after=${after}&limit=200`).set(analyst);
       expect(res.status).toBe(200);
       expect(res.body.total).toBe(LOTS);
       expect(res.body.items.length).toBeLessThanOrEqual(200);

@@ -18,7 +18,7 @@ describe('a sign-in flood and the database pool', () => {
     const original = dataSource.query.bind(dataSource);
     let inFlight = 0;
     let peak = 0;
-    const spy = jest.spyOn(dataSource, 'query').mockImplementation(async (sql: string, parameters?: unknown[]) => {
+    const spy = jest.spyOn(dataSource, 'query').mockImplementation(async (sql: string, parameters?: unknown[] | object) => {
       const counting = /rate_limit_window/.test(sql);
       if (counting) peak = Math.max(peak, ++inFlight);
       try {

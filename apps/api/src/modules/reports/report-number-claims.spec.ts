@@ -40,13 +40,13 @@ describe('report numbers', () => {
     let rendering!: () => void;
     const started = new Promise<void>((r) => (rendering = r));
     let first = true;
-    jest.spyOn(cpuPool, 'runCpuTask').mockImplementation((async (name: string, input: never) => {
+    jest.spyOn(cpuPool, 'runCpuTask').mockImplementation((async (name: string, input: unknown) => {
       if (name === 'renderAndSign' && first) {
         first = false;
         rendering();
         await held;
       }
-      return run(name as never, input);
+      return run(name as never, input as never);
     }) as typeof run);
 
     const slowIssue = approve(slow);
