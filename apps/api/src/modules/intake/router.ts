@@ -17,9 +17,7 @@ import { dataSource } from '../../db/data-source';
 import { registerRoute } from '../../openapi/registry';
 import { requireRole } from '../auth/require-auth';
 import { LAB_STAFF } from '../samples/lab-roles';
-import { keyedConcurrencyLimit } from '../../core/concurrency-limit';
-import { multerLimits, multipart } from '../samples/multipart-problem';
-import { uploadToTempFiles } from '../samples/temp-upload-dir';
+import { tenantBoundedUpload } from '../samples/tenant-bounded-upload';
 import { sampleDetail } from '../samples/sample-views';
 import { imageOnDisk } from './image-on-disk';
 import { acceptSample, addPhotos, photoContent, recordArrival, rejectSample } from './intake-service';
@@ -34,8 +32,8 @@ const PhotoUploadSchema = z.object({ photos: z.array(z.string().meta({ format: '
 export function intakeRouter(): Router {
   const router = Router();
   // Photos stream to a private temporary folder (removed when the answer is sent), at most two uploads per lab at once.
-  const upload = multipart(uploadToTempFiles({ limits: multerLimits(PHOTO_LIMITS) }, (m) => m.array('photos')), PHOTO_LIMITS);
-  const uploadsPerLab = keyedConcurrencyLimit(CONCURRENT_PHOTO_UPLOADS_PER_LAB, 'photo uploads of one lab', (res) => labIdOf(res.locals.auth));
+  const upload = tenantBoundedUpload({ limits: PHOTO_LIMITS, select: (m) => m.array('photos'), perTenant: CONCURRENT_PHOTO_UPLOADS_PER_LAB,
+    what: 'photo uploads of one lab', tenantOf: (res) => labIdOf(res.locals.auth) });
   const intake = requireRole('intake-technician');
   const id = (params: unknown) => (params as { id: string }).id;
 
@@ -47,7 +45,7 @@ export function intakeRouter(): Router {
   });
 
   registerRoute({ method: 'post', path: '/lab/samples/:id/photos', tag, summary: 'Add intake photos (multipart field "photos"; JPEG, PNG or WebP, ≤ 10 MB each)', roles: ['intake-technician'], params: IdParamsSchema, body: PhotoUploadSchema, requestMediaType: 'multipart/form-data', response: z.array(IntakePhotoSchema), status: 201 });
-  router.post('/samples/:id/photos', intake, validate({ params: IdParamsSchema }), uploadsPerLab, upload, async (req, res) => {
+  router.post('/samples/:id/photos', intake, validate({ params: IdParamsSchema }), ...upload, async (req, res) => {
     const labId = labIdOf(res.locals.auth);
     const files = await Promise.all(((req.files as Express.Multer.File[] | undefined) ?? []).map(imageOnDisk));
     res.status(201).json(await dataSource.transaction((m) => addPhotos(m, res.locals.auth, labId, id(res.locals.params), files)));

@@ -21,9 +21,7 @@ import { registerRoute } from '../../openapi/registry';
 import { requireRole } from '../auth/require-auth';
 import { requireMeasurementUploader } from '../instrument-keys/measurement-uploader';
 import { LAB_STAFF } from '../samples/lab-roles';
-import { keyedConcurrencyLimit } from '../../core/concurrency-limit';
-import { multerLimits, multipart } from '../samples/multipart-problem';
-import { uploadToTempFiles } from '../samples/temp-upload-dir';
+import { tenantBoundedUpload } from '../samples/tenant-bounded-upload';
 import { benchEquipment, recordCellCalibration } from './bench-equipment';
 import { Replicate } from './replicate.entity';
 import { excludeReplicate, replicateSpectrum, sampleMeasurements } from './sample-measurements';
@@ -41,9 +39,9 @@ const UploadBodySchema = z.object({
 export function measurementsRouter(): Router {
   const router = Router();
   // Files stream to a private temporary folder (removed when the answer is sent) and are parsed from there in the worker pool.
-  const upload = multipart(uploadToTempFiles({ limits: multerLimits(MEASUREMENT_LIMITS) }, (m) => m.array('files')), MEASUREMENT_LIMITS);
   // Two uploads of one lab at a time in this process: a third waits for its turn (429, Retry-After) before its files are read.
-  const uploadsPerLab = keyedConcurrencyLimit(CONCURRENT_UPLOADS_PER_LAB, 'measurement uploads of one lab', (res) => String(res.locals.uploaderLabId));
+  const upload = tenantBoundedUpload({ limits: MEASUREMENT_LIMITS, select: (m) => m.array('files'), perTenant: CONCURRENT_UPLOADS_PER_LAB,
+    what: 'measurement uploads of one lab', tenantOf: (res) => String(res.locals.uploaderLabId) });
   const analyst = requireRole('analyst');
   const ids = (params: unknown) => params as z.infer<typeof ReplicateParamsSchema>;
 
@@ -72,7 +70,7 @@ export function measurementsRouter(): Router {
     response: MeasurementUploadResultSchema,
     status: 201,
   });
-  router.post('/samples/:id/measurements', requireMeasurementUploader, validate({ params: UploadParamsSchema }), uploadsPerLab, upload, validate({ body: MeasurementUploadFieldsSchema }), async (req, res) => {
+  router.post('/samples/:id/measurements', requireMeasurementUploader, validate({ params: UploadParamsSchema }), ...upload, validate({ body: MeasurementUploadFieldsSchema }), async (req, res) => {
     const files = (req.files as Express.Multer.File[] | undefined) ?? [];
     const result = await uploadMeasurements(res.locals.uploader, res.locals.uploaderLabId, (res.locals.params as { id: string }).id, res.locals.body as MeasurementUploadFields, files);
     res.status(201).json(result);

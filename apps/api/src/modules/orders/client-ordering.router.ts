@@ -1,5 +1,4 @@
 import type { Request, Response, Router } from 'express';
-import multer from 'multer';
 import { z } from 'zod';
 import {
   IdParamsSchema,
@@ -21,7 +20,8 @@ import { routeTable } from '../../core/route-table';
 import { clientOrganisationIdOf, labIdOf } from '../../core/tenancy';
 import { dataSource } from '../../db/data-source';
 import { creditBalance } from '../credits/credit-ledger';
-import { multerLimits, multipart } from '../samples/multipart-problem';
+import { imageOnDisk } from '../intake/image-on-disk';
+import { tenantBoundedUpload } from '../samples/tenant-bounded-upload';
 import type { ClientScope } from './client-views';
 import { runCpuTask } from '../../core/cpu-pool/cpu-pool';
 import { labelPackData } from './label-pack-data';
@@ -35,8 +35,8 @@ const ADMIN: Role[] = ['client-admin'];
 const scopeOf = (res: Response): ClientScope => ({ labId: labIdOf(res.locals.auth), clientOrganisationId: clientOrganisationIdOf(res.locals.auth) });
 const idOf = (res: Response): string => (res.locals.params as { id: string }).id;
 const PHOTO_LIMITS = { fileSizeBytes: LABEL_PHOTO_MAX_BYTES, files: 1 };
-const photoUpload = multipart(multer({ storage: multer.memoryStorage(), limits: multerLimits(PHOTO_LIMITS) }).single('photo'), PHOTO_LIMITS);
-const photoOf = (req: Request) => req.file ?? undefined;
+export const CONCURRENT_PHOTO_UPLOADS_PER_CLIENT = 2;
+const photoOf = async (req: Request) => (req.file ? imageOnDisk(req.file) : undefined);
 const SamplePhotoParamsSchema = z.object({ id: z.uuid({ message: 'must be a UUID' }), sampleId: z.uuid({ message: 'must be a UUID' }) });
 const PhotoBodySchema = z.object({ photo: z.string().meta({ format: 'binary', description: 'PNG or JPEG, at most 5 MB' }) });
 
@@ -49,20 +49,25 @@ function sendImage(res: Response, image: { contentType: string; fileName: string
 /** What a client admin does to order: products, enrolment, checks, shipping, cancelling, labels. */
 export function clientOrderingRouter(): Router {
   const { router, route } = routeTable();
+  // Label and sample photos stream to a private temporary folder (removed when the answer is sent), two uploads per client organisation at once.
+  const photoUpload = tenantBoundedUpload({ limits: PHOTO_LIMITS, select: (m) => m.single('photo'), perTenant: CONCURRENT_PHOTO_UPLOADS_PER_CLIENT,
+    what: 'photo uploads of one client organisation', tenantOf: (res) => clientOrganisationIdOf(res.locals.auth) });
 
-  route({ method: 'post', path: '/client/products', tag, status: 201, roles: ADMIN, before: [photoUpload], body: ProductInputSchema,
+  route({ method: 'post', path: '/client/products', tag, status: 201, roles: ADMIN, before: photoUpload, body: ProductInputSchema,
     requestMediaType: 'multipart/form-data',
     summary: 'Register a product (JSON, or multipart with an optional label photo in "photo": PNG or JPEG, ≤ 5 MB)',
     response: ProductSummarySchema }, async (req, res) => {
     const body = res.locals.body as ProductInput;
-    res.status(201).json(await dataSource.transaction((m) => createProduct(m, res.locals.auth, scopeOf(res), body, photoOf(req))));
+    const photo = await photoOf(req);
+    res.status(201).json(await dataSource.transaction((m) => createProduct(m, res.locals.auth, scopeOf(res), body, photo)));
   });
 
-  route({ method: 'put', path: '/client/products/:id', tag, roles: ADMIN, before: [photoUpload], params: IdParamsSchema, body: ProductInputSchema,
+  route({ method: 'put', path: '/client/products/:id', tag, roles: ADMIN, before: photoUpload, params: IdParamsSchema, body: ProductInputSchema,
     requestMediaType: 'multipart/form-data',
     summary: 'Edit a product (JSON, or multipart with a replacement label photo in "photo")', response: ProductSummarySchema }, async (req, res) => {
     const body = res.locals.body as ProductInput;
-    res.json(await dataSource.transaction((m) => updateProduct(m, res.locals.auth, scopeOf(res), idOf(res), body, photoOf(req))));
+    const photo = await photoOf(req);
+    res.json(await dataSource.transaction((m) => updateProduct(m, res.locals.auth, scopeOf(res), idOf(res), body, photo)));
   });
 
   route({ method: 'get', path: '/client/products/:id/photo', tag, roles: CLIENTS, params: IdParamsSchema, responseMediaType: 'image/*',
@@ -114,11 +119,12 @@ export function clientOrderingRouter(): Router {
     res.type('application/pdf').send(pdf);
   });
 
-  route({ method: 'put', path: '/client/orders/:id/samples/:sampleId/photo', tag, roles: ADMIN, before: [photoUpload],
+  route({ method: 'put', path: '/client/orders/:id/samples/:sampleId/photo', tag, roles: ADMIN, before: photoUpload,
     params: SamplePhotoParamsSchema, body: PhotoBodySchema.partial(), requestMediaType: 'multipart/form-data',
     summary: 'Add or replace the photo of an ordered sample (PNG or JPEG, ≤ 5 MB)' }, async (req, res) => {
     const p = res.locals.params as z.infer<typeof SamplePhotoParamsSchema>;
-    await dataSource.transaction((m) => saveSamplePhoto(m, res.locals.auth, scopeOf(res), p.id, p.sampleId, photoOf(req)));
+    const photo = await photoOf(req);
+    await dataSource.transaction((m) => saveSamplePhoto(m, res.locals.auth, scopeOf(res), p.id, p.sampleId, photo));
     res.status(204).end();
   });
 

@@ -4,20 +4,18 @@ import { ApiError } from '../../core/api-error';
 import type { AuthContext } from '../auth/auth-context';
 import { recordAudit } from '../audit/record-audit';
 import { imageKind } from '../intake/image-kind';
+import type { UploadedImage } from '../intake/intake-service';
 import { clientProduct, type ClientScope } from './client-views';
 
 /** Label photos: PNG or JPEG (what a phone or scanner gives), at most 5 MB. */
 export const LABEL_PHOTO_MAX_BYTES = 5 * 1048576;
 
-export interface UploadedPhoto {
-  originalname: string;
-  buffer: Buffer;
-  size: number;
-}
+/** A label photo as multer wrote it to disk (`imageOnDisk`): its first bytes now, the whole file just before its row is written. */
+export type UploadedPhoto = UploadedImage;
 
 /** The photo's format from its first bytes; anything but PNG or JPEG is refused by name. */
 export function labelPhotoKind(file: UploadedPhoto, field: string): 'image/png' | 'image/jpeg' {
-  const kind = imageKind(file.buffer);
+  const kind = imageKind(file.head);
   if (kind !== 'image/png' && kind !== 'image/jpeg') {
     throw new ApiError(415, 'Not a PNG or JPEG image', `${file.originalname} is not a PNG or JPEG image. Nothing was saved.`, {
       type: 'unsupported-image',
@@ -38,7 +36,7 @@ async function savePhoto(manager: EntityManager, scope: ClientScope, productId: 
      VALUES ($1, $2, $3, $4, $5, $6)
      ON CONFLICT (product_id) DO UPDATE SET file_name = EXCLUDED.file_name, content_type = EXCLUDED.content_type,
        size_bytes = EXCLUDED.size_bytes, content = EXCLUDED.content, uploaded_at = now()`,
-    [productId, scope.labId, photo.originalname.slice(0, 200), contentType, photo.size, photo.buffer],
+    [productId, scope.labId, photo.originalname.slice(0, 200), contentType, photo.size, await photo.content()],
   );
 }
 

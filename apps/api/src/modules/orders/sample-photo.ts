@@ -21,7 +21,7 @@ export async function saveSamplePhoto(manager: EntityManager, auth: AuthContext,
     `INSERT INTO sample_client_photo (sample_id, lab_id, file_name, content_type, size_bytes, content) VALUES ($1, $2, $3, $4, $5, $6)
      ON CONFLICT (sample_id) DO UPDATE SET file_name = EXCLUDED.file_name, content_type = EXCLUDED.content_type,
        size_bytes = EXCLUDED.size_bytes, content = EXCLUDED.content, uploaded_at = now()`,
-    [sampleId, scope.labId, photo.originalname.slice(0, 200), contentType, photo.size, photo.buffer],
+    [sampleId, scope.labId, photo.originalname.slice(0, 200), contentType, photo.size, await photo.content()],
   );
   await recordAudit(manager, { labId: scope.labId, actorUserId: auth.userId, action: 'sample.client-photo', subjectType: 'sample', subjectId: sampleId,
     details: { code: sample.code } });

@@ -1,5 +1,5 @@
-import type { Router } from 'express';
-import multer from 'multer';
+import { readFile } from 'node:fs/promises';
+import type { Request, Router } from 'express';
 import { z } from 'zod';
 import {
   BenchEquipmentSchema,
@@ -21,7 +21,7 @@ import { labIdOf } from '../../core/tenancy';
 import { dataSource } from '../../db/data-source';
 import { benchEquipment } from '../measurements/bench-equipment';
 import { LAB_STAFF } from '../samples/lab-roles';
-import { multerLimits, multipart } from '../samples/multipart-problem';
+import { tenantBoundedUpload } from '../samples/tenant-bounded-upload';
 import { cellControlChart } from './cell-control';
 import { correlationStudy } from './correlation';
 import { toCsv } from './csv';
@@ -33,16 +33,21 @@ const tag = 'Validation';
 /** Who may open the method-validation screens. */
 const VALIDATORS: readonly Role[] = ['lab-admin', 'analyst', 'reviewer'];
 const RUN_LIMITS = { fileSizeBytes: 5 * 1048576, files: 1 };
+export const CONCURRENT_RUN_UPLOADS_PER_LAB = 2;
 const StandardRunBodySchema = z.object({ ...StandardRunFieldsSchema.shape, file: z.string().optional().meta({ format: 'binary', description: 'The standard’s instrument export (text), at most 5 MB' }) });
 
 const idOf = (res: { locals: Record<string, unknown> }) => (res.locals.params as { id: string }).id;
 const lab = (res: { locals: Record<string, unknown> }) => labIdOf(res.locals.auth as Parameters<typeof labIdOf>[0]);
 const dated = (name: string) => `${name}-${new Date().toISOString().slice(0, 10)}`;
+/** The run's file as multer wrote it to disk, read when the run is recorded. */
+const runFileOf = ({ file }: Request) => (file ? { originalname: file.originalname, content: () => readFile(file.path) } : undefined);
 
 /** Instruments, cells, KCl standard runs and control charts; method validation studies and downloads. */
 export function validationRouter(): Router {
   const { router, route } = routeTable();
-  const upload = multipart(multer({ storage: multer.memoryStorage(), limits: multerLimits(RUN_LIMITS) }).single('file'), RUN_LIMITS);
+  // Run files stream to a private temporary folder (removed when the answer is sent), two uploads per lab at once.
+  const upload = tenantBoundedUpload({ limits: RUN_LIMITS, select: (m) => m.single('file'), perTenant: CONCURRENT_RUN_UPLOADS_PER_LAB,
+    what: 'standard run uploads of one lab', tenantOf: lab });
 
   route({ method: 'post', path: '/lab/instruments', tag, summary: 'Add an impedance analyser to the bench', roles: ['lab-admin'], body: CreateInstrumentSchema, response: BenchEquipmentSchema, status: 201 }, async (_req, res) => {
     const labId = lab(res);
@@ -68,10 +73,10 @@ export function validationRouter(): Router {
     method: 'post', path: '/lab/cells/:id/standard-runs', tag,
     summary: 'Record a KCl standard run (multipart: the spectrum in "file", concentration, basis, temperature): K = κ_standard(T) · R from the resistive plateau (or R of an R + CPE fit)',
     roles: ['analyst', 'lab-admin'], params: IdParamsSchema, body: StandardRunBodySchema, requestMediaType: 'multipart/form-data', response: ControlChartSchema, status: 201,
-    before: [upload],
+    before: upload,
   }, async (req, res) => {
     const { file: _file, ...fields } = res.locals.body;
-    res.status(201).json(await dataSource.transaction((m) => recordStandardRun(m, res.locals.auth, lab(res), idOf(res), StandardRunFieldsSchema.parse(fields), req.file)));
+    res.status(201).json(await dataSource.transaction((m) => recordStandardRun(m, res.locals.auth, lab(res), idOf(res), StandardRunFieldsSchema.parse(fields), runFileOf(req))));
   });
 
   route({ method: 'get', path: '/lab/cells/:id/standard-runs.csv', tag, summary: 'The cell’s standard runs as CSV', roles: LAB_STAFF, params: IdParamsSchema, responseMediaType: 'text/csv' }, async (_req, res) => {

@@ -60,7 +60,7 @@ export async function recordStandardRun(
   labId: string,
   cellId: string,
   fields: StandardRunFields,
-  file: { originalname: string; buffer: Buffer } | undefined,
+  file: { originalname: string; content(): Promise<Buffer> } | undefined,
 ): Promise<ControlChartView> {
   const [cell] = await manager.query(`SELECT id FROM measurement_cell WHERE id = $1 AND lab_id = $2 FOR UPDATE`, [cellId, labId]);
   if (!cell) throw ApiError.notFound('Cell');
@@ -76,9 +76,11 @@ export async function recordStandardRun(
     if (!(err instanceof RangeError)) throw err;
     throw ApiError.badRequest(`${err.message}.`, [{ field: 'certifiedConductivityAt25UsPerCm', message: 'enter the value at 25 °C from the standard’s certificate' }]);
   }
+  // Read from its temporary file only now, after the checks that need no bytes.
+  const bytes = await file.content();
   let spectrum: Spectrum;
   try {
-    spectrum = parseSpectrumFile(file.buffer.toString('utf8'));
+    spectrum = parseSpectrumFile(bytes.toString('utf8'));
   } catch (err) {
     if (!(err instanceof SpectrumImportError)) throw err;
     throw ApiError.badRequest(`${file.originalname}: ${err.message}`, [{ field: 'file', message: `${file.originalname}: ${err.message}` }]);
@@ -93,7 +95,7 @@ export async function recordStandardRun(
     [
       labId, cellId, `KCl ${fields.concentration} mol/${fields.basis === 'molal' ? 'kg' : 'L'}`, standard.conductivityUsPerCm, fields.temperatureC,
       resistanceOhm, k, measuredAt, auth.userId, fields.concentration, fields.basis,
-      `${standard.source}; ${standard.temperatureFormula}`, file.originalname, file.buffer,
+      `${standard.source}; ${standard.temperatureFormula}`, file.originalname, bytes,
       Array.from(spectrum.frequencyHz), Array.from(spectrum.re), Array.from(spectrum.im), source,
     ],
   );

@@ -1,11 +1,12 @@
 import request from 'supertest';
-import { impedance, pearson } from '@ohmprint/spectral-engine';
+import { pearson } from '@ohmprint/spectral-engine';
 import fixture from '../../../../../test/reference/fixtures/validation/validation.json';
 import { seedLabDemo } from '../../../../../docker-free-scripts/seed/lab-demo';
 import { seedValidationDemo } from '../../../../../docker-free-scripts/seed/validation-demo';
 import { demoFiles } from '../../../../../docker-free-scripts/seed/lab-demo-files';
 import { analyseDemoSample, useTestApp } from '../../testing';
 import { correlationTable } from './correlation';
+import { kclExport } from './kcl-export.fixture';
 import { csvCell, toCsv } from './csv';
 import { detectionSeries, performanceVerdict } from './studies';
 
@@ -18,15 +19,6 @@ beforeAll(async () => {
   await t.db.transaction((m) => seedLabDemo(m));
   await t.db.transaction((m) => seedValidationDemo(m));
 });
-
-/** A KCl standard's sweep through a cell: R + CPE, as an instrument export (Hz, Ω, −Z″). */
-function kclExport(resistanceOhm: number, fromHz = 1e3, toHz = 1e6): string {
-  const n = 31;
-  const f = Float64Array.from({ length: n }, (_, i) => fromHz * (toHz / fromHz) ** (i / (n - 1)));
-  const z = impedance('r-cpe', { r: resistanceOhm, q: 2e-5, n: 0.88 }, f);
-  const lines = Array.from(f, (v, i) => `${v};${z.re[i]};${-z.im[i]}`);
-  return ['Freq / Hz;Zre / Ohm;-Zim / Ohm', ...lines].join('\n');
-}
 
 async function newCell(name: string): Promise<string> {
   const res = await request(t.app).post('/api/lab/cells').set(await t.authFor('lab-admin')).send({ name, nominalConstantPerCm: 1 });
