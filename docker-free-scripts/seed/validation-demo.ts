@@ -8,7 +8,7 @@
 import type { EntityManager } from 'typeorm';
 import { averageReplicates, impedance, judge, kclConductivity, spectrumDistance, type Spectrum } from '@ohmprint/spectral-engine';
 import { publishedLibrary } from '../../apps/api/src/modules/libraries/published-library';
-import { standardResistance } from '../../apps/api/src/modules/validation/standard-runs';
+import { standardResistance } from '../../apps/api/src/modules/validation/standard-resistance';
 import { DEMO_LABS } from './accounts-demo-data';
 import { DEMO_PRODUCTS } from './lab-demo-catalog';
 import { type DemoRandom } from './lab-demo-random';

@@ -2,6 +2,9 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { SAMPLE_CODE_PATTERN } from '@ohmprint/contracts';
+import { parseSpectrumFile } from '@ohmprint/spectral-engine';
+import { kclExport } from '../../modules/validation/kcl-export.fixture';
+import { standardResistance } from '../../modules/validation/standard-resistance';
 import { ApiError } from '../api-error';
 import { closeCpuPool, cpuWorkerCount, runCpuTask } from './cpu-pool';
 
@@ -38,6 +41,33 @@ describe('the CPU worker pool', () => {
     const refusal = runCpuTask('analyse', { replicates: [], library: library as never });
     await expect(refusal).rejects.toBeInstanceOf(ApiError);
     await expect(refusal).rejects.toMatchObject({ status: 409, type: 'urn:ohmprint:problem:conflict' });
+  });
+
+  it('reads a KCl standard run from its file in a worker, and refuses a bad one naming the file as the request thread did', async () => {
+    const text = kclExport(650, 10, 1000);
+    const dir = mkdtempSync(join(tmpdir(), 'ohmprint-pool-spec-'));
+    try {
+      writeFileSync(join(dir, 'good'), text);
+      writeFileSync(join(dir, 'bad'), 'Freq / Hz;Zre / Ohm;-Zim / Ohm\n1000;abc;1\n');
+      const reading = await runCpuTask('readStandardRun', { file: { name: 'kcl.csv', path: join(dir, 'good') } });
+      const spectrum = parseSpectrumFile(text);
+      expect(reading).toMatchObject(standardResistance(spectrum));
+      expect(reading.source).toBe('fit');
+      expect(reading.literals.frequencyHz).toBe(`{${Array.from(spectrum.frequencyHz).join(',')}}`);
+      expect(Buffer.from(reading.bytes).toString('utf8')).toBe(text);
+
+      const refusal = runCpuTask('readStandardRun', { file: { name: 'garbled.csv', path: join(dir, 'bad') } });
+      await expect(refusal).rejects.toBeInstanceOf(ApiError);
+      let message = '';
+      try {
+        parseSpectrumFile('Freq / Hz;Zre / Ohm;-Zim / Ohm\n1000;abc;1\n');
+      } catch (err) {
+        message = `garbled.csv: ${(err as Error).message}`;
+      }
+      await expect(refusal).rejects.toMatchObject({ status: 400, type: 'urn:ohmprint:problem:invalid-request', detail: message, errors: [{ field: 'file', message }] });
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
 
   it('is sized for the machine: one thread fewer than the cores (one to two) unless CPU_WORKERS says otherwise', () => {

@@ -6,7 +6,7 @@ import { config } from '../../config';
 import { ApiError } from '../api-error';
 import type * as Tasks from './cpu-tasks';
 
-type TaskName = Exclude<keyof typeof Tasks, 'TaskRefusal' | 'ExportFile' | 'ParsedExport' | 'SpectrumLiterals' | 'transferredBytes' | 'CALIBRATION_PROGRESS_MS'>;
+type TaskName = Exclude<keyof typeof Tasks, 'TaskRefusal' | 'ExportFile' | 'ParsedExport' | 'SpectrumLiterals' | 'StandardRunReading' | 'transferredBytes' | 'CALIBRATION_PROGRESS_MS'>;
 type TaskInput<N extends TaskName> = Parameters<(typeof Tasks)[N]>[0];
 type TaskOutput<N extends TaskName> = Awaited<ReturnType<(typeof Tasks)[N]>>;
 
@@ -69,7 +69,7 @@ export async function runCpuTask<N extends TaskName>(name: N, input: TaskInput<N
   const result = (await thePool().run(input, { name, transferList: options.transferList })) as TaskOutput<N>;
   if (result && typeof result === 'object' && 'refused' in result) {
     const r = (result as Tasks.TaskRefusal).refused;
-    throw new ApiError(r.status, r.title, r.detail, { type: r.type === 'about:blank' ? undefined : r.type });
+    throw new ApiError(r.status, r.title, r.detail, { type: r.type === 'about:blank' ? undefined : r.type, errors: r.errors, headers: r.headers, extensions: r.extensions });
   }
   return result as Exclude<TaskOutput<N>, Tasks.TaskRefusal>;
 }

@@ -10,7 +10,7 @@ import { threadId } from 'node:worker_threads';
 import bcrypt from 'bcryptjs';
 import { move, transferableSymbol, valueSymbol } from 'piscina';
 import type { calibrate, ExportMetadata, FitResult, ModelReference, Spectrum } from '@ohmprint/spectral-engine';
-import type { KramersKronigSummary } from '@ohmprint/contracts';
+import type { FieldError, KramersKronigSummary } from '@ohmprint/contracts';
 import type { ComputedAnalysis } from '../../modules/analyses/compute-analysis';
 import type { OtherLibrary } from '../../modules/analyses/does-not-belong';
 import type { LibraryHandOver } from '../../modules/libraries/library-packing';
@@ -32,11 +32,14 @@ const load = <T>(id: string): T => require(id) as T;
 
 /** An ApiError thrown in a worker, carried back as data (class identity does not cross threads). */
 export interface TaskRefusal {
-  refused: { status: number; title: string; detail?: string; type: string };
+  refused: { status: number; title: string; detail?: string; type: string; errors?: FieldError[]; headers?: Record<string, string>; extensions?: ApiError['extensions'] };
 }
 
 function refusalOf(err: unknown): TaskRefusal {
-  if (err instanceof ApiError) return { refused: { status: err.status, title: err.title, detail: err.detail, type: err.type.replace(/^urn:ohmprint:problem:/, '') } };
+  if (err instanceof ApiError) {
+    const { status, title, detail, errors, headers, extensions } = err;
+    return { refused: { status, title, detail, type: err.type.replace(/^urn:ohmprint:problem:/, ''), errors, headers, extensions } };
+  }
   throw err;
 }
 
@@ -94,6 +97,47 @@ export async function parseExportFile(input: { file: ExportFile; maxPoints: numb
   }
 }
 
+/** A KCl standard run's file as read in a worker: the standard's resistance, the columns as array text, and the file's bytes to store. */
+export interface StandardRunReading {
+  resistanceOhm: number;
+  source: 'plateau' | 'fit';
+  how: string;
+  literals: SpectrumLiterals;
+  /** The file as uploaded, moved rather than copied. */
+  bytes: Uint8Array;
+}
+
+/**
+ * Reads a KCl standard run from its temporary file, parses it and finds the standard's resistance
+ * (its plateau, or R of an R + CPE fit), so neither the parse nor the fit runs on the event loop.
+ * A file that cannot be read, or has no plateau and no usable fit, is refused (400 naming `file`).
+ */
+export async function readStandardRun(input: { file: ExportFile }): Promise<StandardRunReading | TaskRefusal> {
+  const { parseSpectrumFile, SpectrumImportError } = load<typeof import('./engine-entry')>('./engine-entry');
+  const { standardResistance } = load<typeof import('../../modules/validation/standard-resistance')>('../../modules/validation/standard-resistance');
+  const { readFileSync } = load<typeof import('node:fs')>('node:fs');
+  const { file } = input;
+  try {
+    const content = readFileSync(file.path);
+    let spectrum: Spectrum;
+    try {
+      spectrum = parseSpectrumFile(content.toString('utf8'));
+    } catch (err) {
+      if (!(err instanceof SpectrumImportError)) throw err;
+      throw ApiError.badRequest(`${file.name}: ${err.message}`, [{ field: 'file', message: `${file.name}: ${err.message}` }]);
+    }
+    const bytes = ownBytes(content);
+    const reading: StandardRunReading = {
+      ...standardResistance(spectrum),
+      literals: { frequencyHz: arrayLiteral(spectrum.frequencyHz), re: arrayLiteral(spectrum.re), im: arrayLiteral(spectrum.im) },
+      bytes,
+    };
+    return withTransfers(reading, [bytes.buffer as ArrayBuffer]);
+  } catch (err) {
+    return refusalOf(err);
+  }
+}
+
 /** An analysis as it comes back from a worker: the small result, and every lot's distance packed and transferred. */
 export interface AnalysedInWorker {
   result: ComputedAnalysis['result'];
@@ -139,7 +183,7 @@ export async function analyse(input: {
     const t2 = performance.now();
     // Every lot's distance packed for storage here, so the request thread only hands the bytes on.
     const ranked = encodeRanked(computed.ranking, computed.lotDistances);
-    const rankedBytes = ranked.byteOffset === 0 && ranked.byteLength === ranked.buffer.byteLength ? new Uint8Array(ranked.buffer) : Uint8Array.prototype.slice.call(ranked);
+    const rankedBytes = ownBytes(ranked);
     const lotDistances = input.lotOrder ? computed.lotDistances : null;
     const t3 = performance.now();
     const answer: AnalysedInWorker = {
@@ -263,8 +307,12 @@ export async function selfSignedCredential(input: { labName: string; passphrase:
  * Node's small-allocation pool is copied first, since transferring would detach the whole pool.
  */
 export function transferredBytes(bytes: Buffer | Uint8Array): Uint8Array {
-  const own = bytes.byteOffset === 0 && bytes.byteLength === bytes.buffer.byteLength ? bytes : Uint8Array.prototype.slice.call(bytes);
-  return move(new Uint8Array(own.buffer, 0, own.byteLength)) as unknown as Uint8Array;
+  return move(ownBytes(bytes)) as unknown as Uint8Array;
+}
+
+/** The bytes as a Uint8Array over a buffer of their own, which may be transferred (copied first when they share one). */
+function ownBytes(bytes: Uint8Array): Uint8Array {
+  return bytes.byteOffset === 0 && bytes.byteLength === bytes.buffer.byteLength ? new Uint8Array(bytes.buffer, 0, bytes.byteLength) : Uint8Array.prototype.slice.call(bytes);
 }
 const pdfBytes = transferredBytes;
 

@@ -3,7 +3,7 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import request from 'supertest';
-import { createSpectrumIndex, fitModel, impedance } from '@ohmprint/spectral-engine';
+import { createSpectrumIndex, fitModel, impedance, parseSpectrumFile } from '@ohmprint/spectral-engine';
 import { seedLabDemo } from '../../../../../docker-free-scripts/seed/lab-demo';
 import { seedValidationDemo } from '../../../../../docker-free-scripts/seed/validation-demo';
 import { measureDemoSample, useTestApp } from '../../testing';
@@ -16,6 +16,7 @@ import { renderLabelPack } from '../../modules/orders/label-pack';
 import { labelPackData } from '../../modules/orders/label-pack-data';
 import { readCredential } from '../../modules/reports/signing/credential-details';
 import { createSelfSignedCredential } from '../../modules/reports/signing/self-signed-credential';
+import { kclExport } from '../../modules/validation/kcl-export.fixture';
 import { closeCpuPool } from './cpu-pool';
 
 // Seeding the demo libraries and studies takes seconds on a busy two-core machine.
@@ -125,6 +126,23 @@ describe('CPU work answered from the worker pool, with the event loop free', () 
     if (!fit.converged) throw new Error('the reference fit did not converge');
     expect(probe.result.body.parameters.map((p: { name: string; value: number }) => [p.name, p.value])).toEqual(fit.parameterNames.map((n) => [n, fit.parameters[n]]));
     expect(probe.result.body.fitted.re).toEqual(Array.from(impedance('cole-cole', fit.parameters, prepared.spectrum!.frequencyHz).re));
+  });
+
+  it('parses a KCl standard run and fits its resistance in a worker, recording the engine’s own R', async () => {
+    const admin = await t.authFor('lab-admin');
+    const made = await request(t.app).post('/api/lab/cells').set(admin).send({ name: 'Off-thread cell', nominalConstantPerCm: 1 });
+    const cellId = made.body.cells.find((c: { name: string }) => c.name === 'Off-thread cell').id;
+    // No point within 1° of 0° phase, so the resistance comes from an R + CPE fit.
+    const text = kclExport(650, 10, 1000);
+    const probe = await probeOffThread(t.app, 'readStandardRun', () =>
+      request(t.app).post(`/api/lab/cells/${cellId}/standard-runs`).set(admin).field({ concentration: '0.01', basis: 'molal', temperatureC: '25' }).attach('file', Buffer.from(text), 'kcl.csv'));
+    expect(probe.result.status).toBe(201);
+    expectResponsive(probe);
+    const run = probe.result.body.runs.at(-1);
+    const fit = fitModel(parseSpectrumFile(text), 'r-cpe', { restarts: 1 });
+    if (!fit.converged) throw new Error('the reference fit did not converge');
+    expect(run.resistanceSource).toBe('fit');
+    expect(run.plateauResistanceOhm).toBe(fit.parameters.r);
   });
 
   it('opens an uploaded PKCS#12 file in a worker (key derivation off the event loop), describing it as before', async () => {

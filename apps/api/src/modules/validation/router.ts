@@ -1,4 +1,3 @@
-import { readFile } from 'node:fs/promises';
 import type { Request, Router } from 'express';
 import { z } from 'zod';
 import {
@@ -26,7 +25,7 @@ import { cellControlChart } from './cell-control';
 import { correlationStudy } from './correlation';
 import { toCsv } from './csv';
 import { repeatabilityStudy } from './repeatability';
-import { createCell, createInstrument, recordStandardRun } from './standard-runs';
+import { createCell, createInstrument, prepareStandardRun, recordStandardRun } from './standard-runs';
 import { detectionStudy, ongoingPerformance, setValidationFlags, validationFlags } from './studies';
 
 const tag = 'Validation';
@@ -39,8 +38,8 @@ const StandardRunBodySchema = z.object({ ...StandardRunFieldsSchema.shape, file:
 const idOf = (res: { locals: Record<string, unknown> }) => (res.locals.params as { id: string }).id;
 const lab = (res: { locals: Record<string, unknown> }) => labIdOf(res.locals.auth as Parameters<typeof labIdOf>[0]);
 const dated = (name: string) => `${name}-${new Date().toISOString().slice(0, 10)}`;
-/** The run's file as multer wrote it to disk, read when the run is recorded. */
-const runFileOf = ({ file }: Request) => (file ? { originalname: file.originalname, content: () => readFile(file.path) } : undefined);
+/** The run's file as multer wrote it to disk (read by the worker that parses it). */
+const runFileOf = ({ file }: Request) => (file ? { originalname: file.originalname, path: file.path } : undefined);
 
 /** Instruments, cells, KCl standard runs and control charts; method validation studies and downloads. */
 export function validationRouter(): Router {
@@ -76,7 +75,10 @@ export function validationRouter(): Router {
     before: upload,
   }, async (req, res) => {
     const { file: _file, ...fields } = res.locals.body;
-    res.status(201).json(await dataSource.transaction((m) => recordStandardRun(m, res.locals.auth, lab(res), idOf(res), StandardRunFieldsSchema.parse(fields), runFileOf(req))));
+    const labId = lab(res);
+    // Checked and parsed (in the CPU pool) first; the cell is locked only for the short write.
+    const run = await prepareStandardRun(dataSource.manager, labId, idOf(res), StandardRunFieldsSchema.parse(fields), runFileOf(req));
+    res.status(201).json(await dataSource.transaction((m) => recordStandardRun(m, res.locals.auth, labId, idOf(res), run)));
   });
 
   route({ method: 'get', path: '/lab/cells/:id/standard-runs.csv', tag, summary: 'The cell’s standard runs as CSV', roles: LAB_STAFF, params: IdParamsSchema, responseMediaType: 'text/csv' }, async (_req, res) => {

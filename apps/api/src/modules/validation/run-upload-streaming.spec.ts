@@ -1,4 +1,5 @@
 import request from 'supertest';
+import * as cpuPool from '../../core/cpu-pool/cpu-pool';
 import { useTestApp, type DemoLabKey } from '../../testing';
 import { startUpload, useOwnUploadFolder, withListeningApp } from '../../testing/upload-folders';
 import { kclExport } from './kcl-export.fixture';
@@ -85,6 +86,42 @@ describe('KCl standard run files', () => {
     const again = await request(t.app).post(`/api/lab/cells/${cellId}/standard-runs`).set(await t.authFor('analyst')).field(RUN_FIELDS).attach('file', file, 'again.csv');
     expect(again.status).toBe(201);
     expect((await runs(cellId)).map((r) => r.file_name).sort()).toEqual(['again.csv', 'held-0.csv', 'held-1.csv']);
+    expect(await uploads.leftAfterAnswer()).toEqual([]);
+  });
+
+  it('are parsed in the CPU pool with no lock on the cell and no transaction open meanwhile, other labs answered at once', async () => {
+    const cellId = await newCell('Unlocked cell');
+    const otherLab = await t.authFor('lab-admin', 'marlow');
+    const real = cpuPool.runCpuTask;
+    let handedOver = false;
+    let release = () => {};
+    const held = new Promise<void>((r) => (release = r));
+    const spy = jest.spyOn(cpuPool, 'runCpuTask').mockImplementation((async (name: string, input: unknown, options?: unknown) => {
+      if (name === 'readStandardRun') {
+        handedOver = true;
+        await held;
+      }
+      return (real as (n: string, i: unknown, o?: unknown) => Promise<unknown>)(name, input, options);
+    }) as typeof cpuPool.runCpuTask);
+    try {
+      const recording = request(t.app).post(`/api/lab/cells/${cellId}/standard-runs`).set(await t.authFor('analyst')).field(RUN_FIELDS).attach('file', Buffer.from(kclExport(704)), 'held.csv').then((r) => r);
+      await uploads.until(() => handedOver, 'the run file is handed to the CPU pool');
+
+      const locked = await t.db.transaction((m) => m.query(`SELECT id FROM measurement_cell WHERE id = $1 FOR UPDATE NOWAIT`, [cellId]));
+      expect(locked).toEqual([{ id: cellId }]);
+      const [open] = await t.db.query(`SELECT count(*)::int AS n FROM pg_stat_activity WHERE datname = current_database() AND state LIKE 'idle in transaction%'`);
+      expect(open.n).toBe(0);
+      expect((await request(t.app).get('/api/health')).status).toBe(200);
+      expect((await request(t.app).get('/api/lab/bench').set(otherLab)).status).toBe(200);
+
+      release();
+      const res = await recording;
+      expect(res.status).toBe(201);
+      expect(res.body.runs.map((r: { fileName: string }) => r.fileName)).toEqual(['held.csv']);
+    } finally {
+      release();
+      spy.mockRestore();
+    }
     expect(await uploads.leftAfterAnswer()).toEqual([]);
   });
 });

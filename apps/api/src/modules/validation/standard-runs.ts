@@ -1,7 +1,9 @@
 import type { EntityManager } from 'typeorm';
-import { cellConstantFromStandard, conductivityAt, fitModel, kclConductivity, parseSpectrumFile, SpectrumImportError, type Spectrum } from '@ohmprint/spectral-engine';
+import { conductivityAt, kclConductivity } from '@ohmprint/spectral-engine';
 import type { ControlChartView, CreateCell, CreateInstrument, StandardRunFields } from '@ohmprint/contracts';
 import { ApiError } from '../../core/api-error';
+import { runCpuTask } from '../../core/cpu-pool/cpu-pool';
+import type { StandardRunReading } from '../../core/cpu-pool/cpu-tasks';
 import type { AuthContext } from '../auth/auth-context';
 import { recordAudit } from '../audit/record-audit';
 import { cellControlChart } from './cell-control';
@@ -33,36 +35,29 @@ export async function createCell(manager: EntityManager, auth: AuthContext, labI
   }
 }
 
-/**
- * The standard's resistance from its spectrum: the median real part where the phase is within 1°
- * of 0° (the resistive plateau); without such a plateau, R of an R + CPE fit over the whole sweep.
- */
-export function standardResistance(spectrum: Spectrum): { resistanceOhm: number; source: 'plateau' | 'fit'; how: string } {
-  try {
-    const c = cellConstantFromStandard(spectrum, { standardConductivityUSPerCm: 1 });
-    return { resistanceOhm: c.plateauResistanceOhm, source: 'plateau', how: `plateau of ${c.plateauFrequenciesHz.length} point(s) with |phase| ≤ 1°` };
-  } catch (err) {
-    if (!(err instanceof RangeError)) throw err;
-  }
-  const fit = fitModel(spectrum, 'r-cpe', { restarts: 1 });
-  if (!fit.converged) throw ApiError.badRequest(`The standard's spectrum has no resistive plateau and an R + CPE fit did not converge (${fit.reason}).`, [{ field: 'file', message: 'no plateau and no usable fit' }]);
-  return { resistanceOhm: fit.parameters.r, source: 'fit', how: 'R of an R + CPE fit (no point within 1° of 0°)' };
+/** A standard run checked and read (off the event loop), ready to store. */
+export interface PreparedStandardRun {
+  fields: StandardRunFields;
+  fileName: string;
+  measuredAt: Date;
+  standard: ReturnType<typeof kclConductivity>;
+  reading: StandardRunReading;
 }
 
 /**
- * Records a KCl standard run: the conductivity of the standard at the run's temperature (the
- * certificate's value at 25 °C, or the tabulated one, by linear compensation), the resistance from
- * the uploaded spectrum, and K = κ·R. Returns the cell's chart with the new run on it.
+ * Checks a KCl standard run in the order a user meets the refusals (the cell, the file, the time,
+ * the standard's conductivity at the run's temperature: the certificate's value at 25 °C, or the
+ * tabulated one, by linear compensation), then parses the spectrum and finds the resistance in the
+ * CPU pool. Runs before any transaction, so no row lock or connection is held while the CPU works.
  */
-export async function recordStandardRun(
+export async function prepareStandardRun(
   manager: EntityManager,
-  auth: AuthContext,
   labId: string,
   cellId: string,
   fields: StandardRunFields,
-  file: { originalname: string; content(): Promise<Buffer> } | undefined,
-): Promise<ControlChartView> {
-  const [cell] = await manager.query(`SELECT id FROM measurement_cell WHERE id = $1 AND lab_id = $2 FOR UPDATE`, [cellId, labId]);
+  file: { originalname: string; path: string } | undefined,
+): Promise<PreparedStandardRun> {
+  const [cell] = await manager.query(`SELECT id FROM measurement_cell WHERE id = $1 AND lab_id = $2`, [cellId, labId]);
   if (!cell) throw ApiError.notFound('Cell');
   if (!file) throw ApiError.badRequest('Attach the standard’s spectrum in the "file" field.', [{ field: 'file', message: 'is required' }]);
   const measuredAt = fields.measuredAt ? new Date(fields.measuredAt) : new Date();
@@ -76,16 +71,20 @@ export async function recordStandardRun(
     if (!(err instanceof RangeError)) throw err;
     throw ApiError.badRequest(`${err.message}.`, [{ field: 'certifiedConductivityAt25UsPerCm', message: 'enter the value at 25 °C from the standard’s certificate' }]);
   }
-  // Read from its temporary file only now, after the checks that need no bytes.
-  const bytes = await file.content();
-  let spectrum: Spectrum;
-  try {
-    spectrum = parseSpectrumFile(bytes.toString('utf8'));
-  } catch (err) {
-    if (!(err instanceof SpectrumImportError)) throw err;
-    throw ApiError.badRequest(`${file.originalname}: ${err.message}`, [{ field: 'file', message: `${file.originalname}: ${err.message}` }]);
-  }
-  const { resistanceOhm, source, how } = standardResistance(spectrum);
+  // The file is read from its temporary path in the worker, only after the checks that need no bytes.
+  const reading = await runCpuTask('readStandardRun', { file: { name: file.originalname, path: file.path } });
+  return { fields, fileName: file.originalname, measuredAt, standard, reading };
+}
+
+/**
+ * Records a prepared KCl standard run under a lock on its cell: K = κ·R, the file and its spectrum.
+ * Returns the cell's chart with the new run on it.
+ */
+export async function recordStandardRun(manager: EntityManager, auth: AuthContext, labId: string, cellId: string, run: PreparedStandardRun): Promise<ControlChartView> {
+  const [cell] = await manager.query(`SELECT id FROM measurement_cell WHERE id = $1 AND lab_id = $2 FOR UPDATE`, [cellId, labId]);
+  if (!cell) throw ApiError.notFound('Cell');
+  const { fields, standard, reading } = run;
+  const { resistanceOhm, source, how, literals, bytes } = reading;
   const k = standard.conductivityUsPerCm * 1e-6 * resistanceOhm;
   const [row] = await manager.query(
     `INSERT INTO cell_calibration (lab_id, cell_id, standard_name, standard_conductivity_us_per_cm, standard_temperature_c,
@@ -94,9 +93,9 @@ export async function recordStandardRun(
      VALUES ($1,$2,$3,$4,$5,$6,$7,$8,$9,$10,$11,$12,$18,$13,$14,$15,$16,$17) RETURNING id`,
     [
       labId, cellId, `KCl ${fields.concentration} mol/${fields.basis === 'molal' ? 'kg' : 'L'}`, standard.conductivityUsPerCm, fields.temperatureC,
-      resistanceOhm, k, measuredAt, auth.userId, fields.concentration, fields.basis,
-      `${standard.source}; ${standard.temperatureFormula}`, file.originalname, bytes,
-      Array.from(spectrum.frequencyHz), Array.from(spectrum.re), Array.from(spectrum.im), source,
+      resistanceOhm, k, run.measuredAt, auth.userId, fields.concentration, fields.basis,
+      `${standard.source}; ${standard.temperatureFormula}`, run.fileName, Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength),
+      literals.frequencyHz, literals.re, literals.im, source,
     ],
   );
   await recordAudit(manager, {
