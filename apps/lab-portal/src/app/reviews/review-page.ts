@@ -16,7 +16,8 @@ import { MeasurementsData } from '../measurements/measurements-data';
 import { ReplicateSources } from '../measurements/replicate-sources';
 import { ReportFiles } from '../reports/report-files';
 import { analysisStatusLabel } from '../analyses/analysis-status-label';
-import { filter, switchMap, takeWhile, timer, type Subscription } from 'rxjs';
+import { filter, type Subscription } from 'rxjs';
+import { followIssuance } from './follow-issuance';
 import { ApprovalConfirmDialog, type ApprovalConfirmData } from './approval-confirm-dialog';
 import { reviewRefusal } from './review-refusal';
 
@@ -113,7 +114,7 @@ export class ReviewPage {
   protected readonly analysis = signal<Analysis | null>(null);
   protected readonly working = signal<string | null>(null);
   protected readonly refusal = signal<string | null>(null);
-  /** The report's issuance once approved: issuing (polled every second), issued or failed. */
+  /** The report's issuance once approved: issuing (followed by `followIssuance`), issued or failed. */
   protected readonly issuance = signal<ApprovalResult | null>(null);
   private polling: Subscription | null = null;
   private readonly destroyRef = inject(DestroyRef);
@@ -187,14 +188,10 @@ export class ReviewPage {
     });
   }
 
-  /** Polls the issuance every second until the report is issued or every attempt failed. */
+  /** Follows the issuance (quickly at first, see `followIssuance`) until the report is issued or every attempt failed. */
   private follow(analysisId: string, announce: boolean): void {
     this.polling?.unsubscribe();
-    this.polling = timer(0, 1000)
-      .pipe(
-        switchMap(() => this.data.issuance(analysisId)),
-        takeWhile((i) => i.state === 'issuing', true),
-      )
+    this.polling = followIssuance(() => this.data.issuance(analysisId))
       .subscribe({
         next: (i) => {
           this.issuance.set(i);
