@@ -14,6 +14,8 @@ export interface UploadFolders {
   folders(): string[];
   /** The bytes written so far into each upload folder present now. */
   bytesOnDisk(): number[];
+  /** How many files the upload folders present now hold. */
+  fileCount(): number;
   /** Waits (up to 10 s) until `done()` holds; fails naming `what` otherwise. */
   until(done: () => boolean, what: string): Promise<void>;
   /** The folders left once the removal that follows an answer has had its moment (it runs after the response closes). */
@@ -34,9 +36,16 @@ export function useOwnUploadFolder(): UploadFolders {
   });
   const folders = () => readdirSync(root).filter((d) => d.startsWith(UPLOAD_DIR_PREFIX));
   // A folder may be removed while it is being looked at: it then counts as empty.
+  const filesOf = (dir: string): string[] => {
+    try {
+      return readdirSync(join(root, dir));
+    } catch {
+      return [];
+    }
+  };
   const sizeOf = (dir: string): number => {
     try {
-      return readdirSync(join(root, dir)).reduce((n, f) => n + statSync(join(root, dir, f)).size, 0);
+      return filesOf(dir).reduce((n, f) => n + statSync(join(root, dir, f)).size, 0);
     } catch {
       return 0;
     }
@@ -44,6 +53,7 @@ export function useOwnUploadFolder(): UploadFolders {
   return {
     folders,
     bytesOnDisk: () => folders().map(sizeOf),
+    fileCount: () => folders().reduce((n, dir) => n + filesOf(dir).length, 0),
     async until(done, what) {
       for (let i = 0; i < 400 && !done(); i++) await pause(25);
       if (!done()) throw new Error(`timed out waiting until ${what}`);

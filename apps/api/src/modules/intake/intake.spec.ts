@@ -1,37 +1,21 @@
-import { mkdtempSync, readdirSync, rmSync } from 'node:fs';
 import { request as httpRequest, type ClientRequest } from 'node:http';
 import type { AddressInfo } from 'node:net';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
 import request from 'supertest';
 import { seedLabDemo } from '../../../../../docker-free-scripts/seed/lab-demo';
-import { config } from '../../config';
 import { useTestApp } from '../../testing';
-import { UPLOAD_DIR_PREFIX } from '../samples/temp-upload-dir';
+import { useOwnUploadFolder } from '../../testing/upload-folders';
 import { CONCURRENT_PHOTO_UPLOADS_PER_LAB } from './router';
 
 // Seeding the demo libraries in beforeAll takes seconds on a busy two-core machine.
 jest.setTimeout(30_000);
 
 // Photo uploads of this file stream to a temporary folder of its own, so what is left behind can be counted.
-const ownTmp = mkdtempSync(join(tmpdir(), 'ohmprint-intake-spec-'));
-const savedTmp = config.uploadTmpDir;
-config.uploadTmpDir = ownTmp;
-const leftovers = () => readdirSync(ownTmp).filter((d) => d.startsWith(UPLOAD_DIR_PREFIX));
-/** The folders left once the removal that follows an answer has had its moment (it runs after the response closes). */
-const leftoversAfterAnswer = async (): Promise<string[]> => {
-  for (let i = 0; i < 200 && leftovers().length; i++) await new Promise((r) => setTimeout(r, 25));
-  return leftovers();
-};
+const uploads = useOwnUploadFolder();
 
 const t = useTestApp();
 
 beforeAll(async () => {
   await t.db.transaction((m) => seedLabDemo(m));
-});
-afterAll(() => {
-  config.uploadTmpDir = savedTmp;
-  rmSync(ownTmp, { recursive: true, force: true });
 });
 
 const sampleId = async (code: string): Promise<string> => (await t.db.query('SELECT id FROM sample WHERE code = $1', [code]))[0].id;
@@ -110,7 +94,7 @@ describe('intake', () => {
       r.on('end', () => done(null, Buffer.concat(chunks)));
     });
     expect(Buffer.compare(back.body as Buffer, big)).toBe(0);
-    expect(await leftoversAfterAnswer()).toEqual([]);
+    expect(await uploads.leftAfterAnswer()).toEqual([]);
   });
 
   it('takes two photo uploads of one lab at a time: a third at the same moment is told to try again, before its body is read', async () => {
@@ -132,8 +116,8 @@ describe('intake', () => {
       };
       for (let i = 0; i < CONCURRENT_PHOTO_UPLOADS_PER_LAB; i++) hold();
       // wait until both are inside the route (the server has begun writing their files)
-      for (let i = 0; i < 200 && leftovers().length < CONCURRENT_PHOTO_UPLOADS_PER_LAB; i++) await new Promise((r) => setTimeout(r, 25));
-      expect(leftovers()).toHaveLength(CONCURRENT_PHOTO_UPLOADS_PER_LAB);
+      await uploads.until(() => uploads.folders().length >= CONCURRENT_PHOTO_UPLOADS_PER_LAB, 'both held photo uploads are being received');
+      expect(uploads.folders()).toHaveLength(CONCURRENT_PHOTO_UPLOADS_PER_LAB);
       const third = await fetch(`http://127.0.0.1:${port}/api/lab/samples/${id}/photos`, { method: 'POST', headers: intake, body: (() => { const f = new FormData(); f.append('photos', new Blob([PNG]), 'third.png'); return f; })() });
       expect(third.status).toBe(429);
       expect(third.headers.get('retry-after')).toBe('2');
@@ -143,7 +127,7 @@ describe('intake', () => {
       await new Promise((r) => server.close(r));
     }
     // the cut-off uploads leave no folder behind
-    expect(await leftoversAfterAnswer()).toEqual([]);
+    expect(await uploads.leftAfterAnswer()).toEqual([]);
   });
 
   it('refuses a file that is not an image, by name, and saves none of the batch', async () => {
@@ -157,7 +141,7 @@ describe('intake', () => {
     expect(res.status).toBe(400);
     expect(res.body.detail).toContain('notes.txt');
     expect((await t.db.query('SELECT count(*)::int AS n FROM intake_photo WHERE sample_id = $1', [id]))[0].n).toBe(0);
-    expect(await leftoversAfterAnswer()).toEqual([]);
+    expect(await uploads.leftAfterAnswer()).toEqual([]);
   });
 
   it('rejects with a reason and queues an e-mail to every client admin of the ordering organisation', async () => {

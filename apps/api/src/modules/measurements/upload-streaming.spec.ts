@@ -1,24 +1,18 @@
-import { mkdtempSync, readdirSync, rmSync } from 'node:fs';
 import { request as httpRequest, type Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
 import request from 'supertest';
 import { seedLabDemo } from '../../../../../docker-free-scripts/seed/lab-demo';
 import { demoFiles } from '../../../../../docker-free-scripts/seed/lab-demo-files';
-import { config } from '../../config';
 import { runCpuTask } from '../../core/cpu-pool/cpu-pool';
 import { useTestApp } from '../../testing';
-import { UPLOAD_DIR_PREFIX } from '../samples/temp-upload-dir';
+import { useOwnUploadFolder } from '../../testing/upload-folders';
 import { MEASUREMENT_LIMITS } from './upload-measurements';
 
 // Seeding the demo libraries in beforeAll takes seconds on a busy two-core machine.
 jest.setTimeout(90_000);
 
 // Every upload of this file goes to a temporary folder of its own, so what is left behind can be counted.
-const ownTmp = mkdtempSync(join(tmpdir(), 'ohmprint-upload-spec-'));
-const savedTmp = config.uploadTmpDir;
-config.uploadTmpDir = ownTmp;
+const uploads = useOwnUploadFolder();
 
 const t = useTestApp();
 let bench: { instrumentId: string; cellId: string };
@@ -35,8 +29,6 @@ beforeAll(async () => {
 });
 afterAll(async () => {
   await new Promise((r) => server.close(r));
-  config.uploadTmpDir = savedTmp;
-  rmSync(ownTmp, { recursive: true, force: true });
 });
 
 const SAMPLE = 'OP-7K3M-Q9';
@@ -55,18 +47,6 @@ function upload(files: { fileName: string; text: string | Buffer }[], auth: Reco
 }
 
 const replicateCount = async (): Promise<number> => Number((await t.db.query(`SELECT count(*) AS n FROM replicate r JOIN sample s ON s.id = r.sample_id WHERE s.code = $1`, [SAMPLE]))[0].n);
-/** Upload folders (and the files in them) left in this file's temporary folder. */
-const leftovers = () => readdirSync(ownTmp).filter((d) => d.startsWith(UPLOAD_DIR_PREFIX));
-const filesIn = (dirs: string[]) => dirs.flatMap((d) => readdirSync(join(ownTmp, d)));
-
-async function until(what: string, check: () => boolean | Promise<boolean>, ms = 10_000): Promise<void> {
-  const end = Date.now() + ms;
-  while (!(await check())) {
-    if (Date.now() > end) throw new Error(`timed out waiting until ${what}`);
-    await new Promise((r) => setTimeout(r, 25));
-  }
-}
-
 describe('measurement uploads streamed to temporary files', () => {
   it('saves the files and leaves no temporary file behind', async () => {
     const before = await replicateCount();
@@ -82,7 +62,7 @@ describe('measurement uploads streamed to temporary files', () => {
     });
     expect((raw.body as Buffer).toString('utf8')).toBe(good().text);
     expect(await replicateCount()).toBe(before + 2);
-    await until('the upload folder is removed', () => leftovers().length === 0);
+    await uploads.until(() => uploads.folders().length === 0, 'the upload folder is removed');
   });
 
   it('refuses a file over the size limit with 413 naming it, saves nothing and leaves no temporary file', async () => {
@@ -93,7 +73,7 @@ describe('measurement uploads streamed to temporary files', () => {
     expect(res.body.type).toBe('urn:ohmprint:problem:file-too-large');
     expect(res.body.detail).toContain(`larger than ${MEASUREMENT_LIMITS.fileSizeBytes / 1048576} MB`);
     expect(await replicateCount()).toBe(before);
-    await until('the upload folder is removed', () => leftovers().length === 0);
+    await uploads.until(() => uploads.folders().length === 0, 'the upload folder is removed');
   });
 
   it('names the line and column of a NUL byte inside a file, and still saves the good file', async () => {
@@ -104,7 +84,7 @@ describe('measurement uploads streamed to temporary files', () => {
     expect(res.status).toBe(201);
     expect(res.body.saved).toHaveLength(1);
     expect(res.body.rejected).toEqual([expect.objectContaining({ fileName: 'nul.csv', line: dataLine + 1, problem: 'unreadable', message: expect.stringMatching(/^nul\.csv: .*line \d+/) })]);
-    await until('the upload folder is removed', () => leftovers().length === 0);
+    await uploads.until(() => uploads.folders().length === 0, 'the upload folder is removed');
   });
 
   it('an upload cut off mid-stream leaves no temporary file and no partial data; what was saved before stays', async () => {
@@ -124,9 +104,9 @@ describe('measurement uploads streamed to temporary files', () => {
     req.write(field('instrumentId', bench.instrumentId) + field('cellId', bench.cellId) + field('cellConstantSource', 'latest-calibration') + field('temperatureC', '22'));
     req.write(`--${boundary}\r\nContent-Disposition: form-data; name="files"; filename="whole.csv"\r\n\r\n${good().text}\r\n`);
     req.write(`--${boundary}\r\nContent-Disposition: form-data; name="files"; filename="cut.csv"\r\n\r\n${good().text.slice(0, 200)}`);
-    await until('both files are being written', () => filesIn(leftovers()).length === 2);
+    await uploads.until(() => uploads.fileCount() === 2, 'both files are being written');
     req.destroy();
-    await until('the upload folder is removed after the cut', () => leftovers().length === 0);
+    await uploads.until(() => uploads.folders().length === 0, 'the upload folder is removed after the cut');
     // Nothing of the cut-off upload was stored, not even its complete first file, and nothing earlier was lost.
     await new Promise((r) => setTimeout(r, 300));
     expect(await replicateCount()).toBe(before);
@@ -140,7 +120,7 @@ describe('measurement uploads streamed to temporary files', () => {
     const numbers = [...a.body.saved, ...b.body.saved].map((r: { replicateNumber: number }) => r.replicateNumber).sort((x: number, y: number) => x - y);
     expect(new Set(numbers).size).toBe(3);
     expect(await replicateCount()).toBe(before + 3);
-    await until('the upload folders are removed', () => leftovers().length === 0);
+    await uploads.until(() => uploads.folders().length === 0, 'the upload folders are removed');
   });
 
   it('holds no database transaction open while its files wait for, and run in, the worker pool', async () => {
