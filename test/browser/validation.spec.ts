@@ -76,7 +76,10 @@ describe('control standards and method validation', () => {
     await openFromMenu(page, 'Work queue');
     await page.getByLabel('Search by code, product or client').fill('OP-7K3M-Q9');
     await page.getByRole('link', { name: 'OP-7K3M-Q9' }).click();
+    // a select with no options yet does not open, so wait for the bench list as a person waits for the page
+    const bench = page.waitForResponse((r) => r.url().endsWith('/api/lab/bench') && r.ok());
     await page.getByRole('tab', { name: 'Measurements' }).click();
+    await bench;
     await page.getByRole('combobox', { name: 'Cell' }).click();
     await page.getByRole('option', { name: /Dip cell B/ }).click();
     await page.getByRole('alert').filter({ hasText: 'Dip cell B (demo) is out of control' }).waitFor();
